@@ -1,0 +1,157 @@
+"""Section property table: one row per cross-section, every property a numpy array.
+
+Internal units: inch, in², in⁴, in⁶; weight in lb/ft. Rows come from the shapes catalog
+(``engine.catalog``) or from parametric dimensions (``engine.section_properties``); the
+compression engine only ever sees this table, gathered per member with :meth:`SectionTable.take`.
+
+Axis convention (AISC): x is the major (strong) axis, y the minor axis. For tees the axis of
+symmetry is y; for channels it is x.
+
+Element slenderness data drive AISC 360-22 Section E7. Each row carries up to two element
+groups (``b1, t1, n1, cls1`` and ``b2, t2, n2, cls2``): width, thickness, how many such
+elements the section has (for the effective-area deduction) and an element class from
+:data:`ELEMENT_CLASSES`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, fields
+from enum import IntEnum
+
+import numpy as np
+
+
+class Kind(IntEnum):
+    """How a section is treated by Chapter E."""
+
+    I_SHAPE = 0  # doubly symmetric I (W, M, S, HP, parametric I): E3 both axes + E4-2
+    RECT_HSS = 1  # rectangular / square hollow: E3 both axes, walls by E7
+    ROUND_HSS = 2  # round HSS and pipe: E3, wall by E7-6/E7-7
+    TEE = 3  # WT, MT, ST, parametric T (y = axis of symmetry): E3 about x + E4-3 with Fey
+    CHANNEL = 4  # C, MC, parametric U (x = axis of symmetry): E3 about y + E4-3 with Fex
+    SOLID_RECT = 5  # solid rectangle: E3 only, no local buckling
+    SOLID_ROUND = 6  # solid circle: E3 only
+    UNSUPPORTED = 7  # angles, double angles, anything else: not checked
+
+
+class ElementClass(IntEnum):
+    """Element classes for AISC 360-22 Table B4.1a (λr) and Table E7.1 (c1, c2)."""
+
+    NONE = 0
+    UNSTIFFENED_FLANGE = 1  # B4.1a case 1 (rolled I flanges, channel and tee flanges)
+    TEE_STEM = 2  # B4.1a case 4
+    STIFFENED_WEB = 3  # B4.1a case 5 (webs of doubly symmetric I and of channels)
+    HSS_WALL = 4  # B4.1a case 6 (walls of rectangular HSS)
+    ROUND_WALL = 5  # B4.1a case 9 (round HSS: D/t, λr = 0.11 E/Fy)
+
+
+# class -> (λr coefficient k, with λr = k·sqrt(E/Fy); c1; c2).  Table B4.1a and Table E7.1
+# (a) stiffened except HSS walls: c1 = 0.18, c2 = 1.31; (b) rectangular HSS walls: 0.20,
+# 1.38; (c) all other elements: 0.22, 1.49.  ROUND_WALL and NONE are handled separately.
+ELEMENT_CLASSES: dict[ElementClass, tuple[float, float, float]] = {
+    ElementClass.NONE: (np.inf, 0.0, 0.0),
+    ElementClass.UNSTIFFENED_FLANGE: (0.56, 0.22, 1.49),
+    ElementClass.TEE_STEM: (0.75, 0.22, 1.49),
+    ElementClass.STIFFENED_WEB: (1.49, 0.18, 1.31),
+    ElementClass.HSS_WALL: (1.40, 0.20, 1.38),
+    ElementClass.ROUND_WALL: (np.inf, 0.0, 0.0),
+}
+
+_CLASS_TABLE = np.array([ELEMENT_CLASSES[c] for c in ElementClass], dtype=float)
+
+
+def class_coefficients(cls: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """λr coefficient, c1 and c2 arrays for an array of element class codes."""
+    row = _CLASS_TABLE[np.asarray(cls, dtype=np.int64)]
+    return row[..., 0], row[..., 1], row[..., 2]
+
+
+@dataclass
+class SectionTable:
+    """Cross-section properties, one row per section (all arrays have the same length).
+
+    Attributes:
+        designation: catalog designation (``W14X48``) or a parametric label.
+        family: display / filter family (``W``, ``HSS``, ``HSS_ROUND``, ``PIPE``, ``WT`` ...).
+        kind: :class:`Kind` codes.
+        weight: nominal weight, lb/ft (catalog) or 3.40·A (parametric; 490 lb/ft³ steel).
+        A: gross area Ag, in².
+        d: overall depth (OD for round sections), in.
+        bf: overall width (flange width, B for HSS), in.
+        tw: web (or wall) thickness, in (design thickness for HSS).
+        tf: flange thickness, in (design thickness for HSS).
+        Ix, Iy: moments of inertia, in⁴.  rx, ry: radii of gyration, in.
+        J: torsional constant, in⁴.  Cw: warping constant, in⁶.
+        xo, yo: shear-centre coordinates with respect to the centroid, in.
+        ro: polar radius of gyration about the shear centre r̄o, in (AISC 360-22 Eq. E4-9).
+        H: flexural constant (AISC 360-22 Eq. E4-8).
+        b1, t1, n1, cls1, b2, t2, n2, cls2: element groups for Section E7.
+    """
+
+    designation: np.ndarray
+    family: np.ndarray
+    kind: np.ndarray
+    weight: np.ndarray
+    A: np.ndarray
+    d: np.ndarray
+    bf: np.ndarray
+    tw: np.ndarray
+    tf: np.ndarray
+    Ix: np.ndarray
+    Iy: np.ndarray
+    rx: np.ndarray
+    ry: np.ndarray
+    J: np.ndarray
+    Cw: np.ndarray
+    xo: np.ndarray
+    yo: np.ndarray
+    ro: np.ndarray
+    H: np.ndarray
+    b1: np.ndarray
+    t1: np.ndarray
+    n1: np.ndarray
+    cls1: np.ndarray
+    b2: np.ndarray
+    t2: np.ndarray
+    n2: np.ndarray
+    cls2: np.ndarray
+
+    def __len__(self) -> int:
+        return len(self.A)
+
+    def take(self, index: np.ndarray) -> SectionTable:
+        """Rows at ``index`` (fancy indexing; used to gather one row per member)."""
+        return SectionTable(**{f.name: getattr(self, f.name)[index] for f in fields(self)})
+
+    @classmethod
+    def concat(cls, tables: list[SectionTable]) -> SectionTable:
+        """Rows of several tables, in order."""
+        return cls(
+            **{f.name: np.concatenate([getattr(t, f.name) for t in tables]) for f in fields(cls)}
+        )
+
+    @classmethod
+    def empty(cls) -> SectionTable:
+        """A table with no rows."""
+        return cls.from_rows([])
+
+    @classmethod
+    def from_rows(cls, rows: list[dict]) -> SectionTable:
+        """Build a table from dicts keyed by field name; missing numeric fields are 0."""
+        data = {}
+        for f in fields(cls):
+            if f.name in ("designation", "family"):
+                data[f.name] = np.array([r.get(f.name, "") for r in rows], dtype=object)
+            elif f.name in ("kind", "cls1", "cls2", "n1", "n2"):
+                data[f.name] = np.array([int(r.get(f.name, 0)) for r in rows], dtype=np.int64)
+            else:
+                data[f.name] = np.array([float(r.get(f.name, 0.0)) for r in rows], dtype=float)
+        return cls(**data)
+
+    def row(self, i: int) -> dict:
+        """One row as a dict of Python scalars."""
+        out = {}
+        for f in fields(self):
+            v = getattr(self, f.name)[i]
+            out[f.name] = v.item() if hasattr(v, "item") else v
+        return out
