@@ -5,7 +5,7 @@ Factors come from pint's unit definitions, not from a table of our own.
 
 from __future__ import annotations
 
-from functools import lru_cache
+from functools import cache
 
 import pint
 
@@ -19,7 +19,7 @@ STRESS_UNITS = {"ksi": "ksi", "MPa": "megapascal", "psi": "psi", "Pa": "pascal"}
 INTERNAL = {"force": "kip", "length": "inch", "stress": "ksi"}
 
 
-@lru_cache(maxsize=None)
+@cache
 def factor(unit: str, internal: str) -> float:
     """Multiplier taking a value in pint unit ``unit`` into pint unit ``internal``."""
     return float(_UREG.Quantity(1.0, unit).to(internal).magnitude)
