@@ -1,0 +1,196 @@
+"""Member checks: member table in, results table out (pure computation, internal units).
+
+The one place where validity, required strength, available strength and status meet.  Every
+reader (members JSON, IFC) and every front end (CLI, HTTP) goes through :func:`check_members`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from engine.combinations import Combination, default_combinations, governing
+from engine.compression import (
+    SLENDERNESS_ADVISORY,
+    available_strength,
+    compressive_strength,
+)
+from engine.members import MemberTable
+from engine.sections import Kind
+
+PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
+GIVEN_REQUIRED = "required strength as given"
+
+
+@dataclass
+class CheckResults:
+    """Per-member results (kip, ksi), aligned with the member table rows.
+
+    Attributes:
+        status: "pass" / "fail" / "not_checked".
+        required_strength: governing factored (LRFD) or service (ASD) compression, kip.
+        available_strength: φc·Pn or Pn/Ωc, kip.
+        utilization: required / available.
+        limit_state: governing limit state name.
+        combination: governing combination name (or "required strength as given").
+        slenderness: max(Lcx/rx, Lcy/ry).
+        Fcr, Ae: governing critical stress (ksi) and effective area (in²).
+        reason: why a member was not checked (None otherwise).
+        messages: per-member messages (warnings, notes).
+        max_tension: largest net tension of any combination, kip (0 where none).
+        combination_names / combination_values: every combination's net axial value
+            (n × m, kip), filled when ``detail`` was asked for.
+    """
+
+    method: str
+    status: np.ndarray
+    required_strength: np.ndarray
+    available_strength: np.ndarray
+    utilization: np.ndarray
+    limit_state: np.ndarray
+    combination: np.ndarray
+    slenderness: np.ndarray
+    Fcr: np.ndarray
+    Ae: np.ndarray
+    reason: np.ndarray
+    messages: list[list[str]]
+    max_tension: np.ndarray | None = None
+    combination_names: list[str] = field(default_factory=list)
+    combination_values: np.ndarray | None = None
+
+    def __len__(self) -> int:
+        return len(self.status)
+
+
+def _not_checked_reasons(m: MemberTable) -> np.ndarray:
+    """The first reason each member cannot be checked, or None (vectorized tests)."""
+    n = len(m)
+    reason = m.reason.copy()
+    idx = m.section_index
+    has_section = idx >= 0
+    kind = np.full(n, -1)
+    kind[has_section] = m.sections.kind[idx[has_section]]
+
+    def add(mask: np.ndarray, text: str | np.ndarray) -> None:
+        free = mask & np.equal(reason, None)
+        if free.any():
+            reason[free] = text if isinstance(text, str) else text[free]
+
+    add(~has_section, "no usable section")
+    add(kind == Kind.UNSUPPORTED,
+        "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)")
+    add(np.isnan(m.Fy), "no yield strength")
+    add(m.Fy <= 0, "yield strength must be greater than zero")
+    for label, arr in (("length", m.lx), ("unbraced length y", m.ly),
+                       ("unbraced length z", m.lz)):
+        add(np.isnan(arr), f"no {label}")
+        add(arr <= 0, f"{label} must be greater than zero")
+    for label, arr in (("kx", m.kx), ("ky", m.ky), ("kz", m.kz)):
+        add(~(arr > 0), f"effective length factor {label} must be greater than zero")
+    add(~(m.E > 0) | ~(m.G > 0), "E and G must be greater than zero")
+    no_loads = np.all(np.isnan(m.loads), axis=1) & np.isnan(m.required_strength)
+    add(no_loads, "no loads")
+    add(m.required_strength < 0, "required strength must be compression (zero or positive)")
+    return reason
+
+
+def check_members(
+    m: MemberTable,
+    method: str = "LRFD",
+    combinations: list[Combination] | None = None,
+    *,
+    half_live: bool = False,
+    detail: bool = False,
+) -> CheckResults:
+    """Check every member in compression (AISC 360-22 Chapter E, ASCE 7-22 combinations).
+
+    Args:
+        m: the members.
+        method: "LRFD" or "ASD".
+        combinations: replaces the ASCE 7-22 defaults for ``method`` when given.
+        half_live: the ASCE 7-22 §2.3.1 exception (0.5L), ignored with custom combinations.
+        detail: keep every combination's value.
+    """
+    method = method.upper()
+    n = len(m)
+    reason = _not_checked_reasons(m)
+    ok = np.equal(reason, None)
+
+    # Compute on every row with harmless stand-ins where data are unusable, then blank them.
+    idx = np.where(ok, m.section_index, 0) if len(m.sections) else np.zeros(n, dtype=np.int64)
+    Fy = np.where(ok, m.Fy, 50.0)
+    one = np.ones(n)
+    lx, ly, lz = (np.where(ok, a, one) for a in (m.lx, m.ly, m.lz))
+    kx, ky, kz = (np.where(ok, a, one) for a in (m.kx, m.ky, m.kz))
+    E = np.where(ok, m.E, 29000.0)
+    G = np.where(ok, m.G, 11200.0)
+
+    messages = [list(x) for x in m.messages]
+    if len(m.sections) and ok.any():
+        sec = m.sections.take(idx)
+        comp = compressive_strength(sec, Fy, kx * lx, ky * ly, kz * lz, E, G)
+        out_of_scope = ok & ~comp.in_scope
+        reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
+        ok &= comp.in_scope
+        Pa = available_strength(comp.Pn, method)
+        limit_state = comp.limit_state_names()
+        slenderness, Fcr_, Ae = comp.slenderness, comp.Fcr, comp.Ae
+    else:
+        Pa = np.full(n, np.nan)
+        limit_state = np.full(n, "", dtype=object)
+        slenderness = Fcr_ = Ae = np.full(n, np.nan)
+
+    combos = combinations if combinations is not None else default_combinations(
+        method, half_live=half_live)
+    gov = governing(m.loads, combos)
+    given = ~np.isnan(m.required_strength)
+    required = np.where(given, m.required_strength, gov.required)
+    combination = np.where(given, GIVEN_REQUIRED, gov.combination).astype(object)
+
+    with np.errstate(divide="ignore", invalid="ignore"):
+        utilization = required / Pa
+
+    status = np.where(utilization <= 1.0, PASS, FAIL).astype(object)
+    status[~ok] = NOT_CHECKED
+    for arr in (required, Pa, utilization, slenderness, Fcr_, Ae):
+        arr[~ok] = np.nan
+    limit_state = np.where(ok, limit_state, "").astype(object)
+    combination[~ok] = ""
+
+    max_tension = np.where(ok & ~given, gov.max_tension, 0.0)
+    _advisories(messages, ok, slenderness, given, gov.index)
+    return CheckResults(
+        method=method,
+        status=status,
+        required_strength=required,
+        available_strength=Pa,
+        utilization=utilization,
+        limit_state=limit_state,
+        combination=combination,
+        slenderness=slenderness,
+        Fcr=Fcr_,
+        Ae=Ae,
+        reason=reason,
+        messages=messages,
+        max_tension=max_tension,
+        combination_names=list(gov.names) if detail else [],
+        combination_values=gov.values if detail else None,
+    )
+
+
+def _advisories(
+    messages: list[list[str]],
+    ok: np.ndarray,
+    slenderness: np.ndarray,
+    given: np.ndarray,
+    gov_index: np.ndarray,
+) -> None:
+    """Append warnings that do not change the status (loops only over flagged members)."""
+    for i in np.flatnonzero(ok & (slenderness > SLENDERNESS_ADVISORY)):
+        messages[i].append(
+            f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "
+            "(AISC 360-22 E2 user note); review the member"
+        )
+    for i in np.flatnonzero(ok & ~given & (gov_index < 0)):
+        messages[i].append("no load combination produces compression")

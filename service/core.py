@@ -1,0 +1,131 @@
+"""Core functions shared by the command line and the HTTP service.
+
+Members request -> member table (units converted here, at the edge) -> engine -> report.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from engine import catalog, section_properties
+from engine.check import CheckResults, check_members
+from engine.combinations import custom_combinations
+from engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
+from engine.sections import SectionTable
+from engine.units import force_factor, length_factor, stress_factor
+from service.report import build_report
+from service.request import Member, MembersRequest, Profile
+
+
+def _profile_section(p: Profile, default_unit: str) -> SectionTable:
+    """Section properties of a parametric profile (dimensions converted to inches)."""
+    f = length_factor(p.unit or default_unit)
+
+    def v(name: str) -> float:
+        x = getattr(p, name)
+        return None if x is None else x * f
+
+    r = v("r") or 0.0
+    if p.shape == "I":
+        return section_properties.i_section(v("d"), v("bf"), v("tw"), v("tf"), r)
+    if p.shape == "T":
+        return section_properties.tee(v("d"), v("bf"), v("tw"), v("tf"), r)
+    if p.shape == "U":
+        return section_properties.channel(v("d"), v("bf"), v("tw"), v("tf"), r)
+    if p.shape == "RECT_HOLLOW":
+        return section_properties.rect_hollow(v("h"), v("b"), v("t"), v("r"))
+    if p.shape == "CIRC_HOLLOW":
+        return section_properties.circ_hollow(v("D"), v("t"))
+    if p.shape == "RECT":
+        return section_properties.solid_rect(v("h"), v("b"))
+    return section_properties.solid_circle(v("D"))
+
+
+def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np.ndarray,
+                                                                 list[str | None], list[str]]:
+    """Section rows for the members: catalog rows plus one row per parametric profile."""
+    cat = catalog.load_catalog()
+    names = [m.section or "" for m in members]
+    idx = catalog.lookup(names)
+    reasons: list[str | None] = [None] * len(members)
+    labels = list(names)
+    extra: list[SectionTable] = []
+    for i, m in enumerate(members):
+        if m.section and m.profile:
+            reasons[i] = "give either 'section' or 'profile', not both"
+            idx[i] = -1
+        elif m.profile is not None:
+            try:
+                row = _profile_section(m.profile, length_unit)
+            except ValueError as exc:
+                reasons[i] = f"profile: {exc}"
+                idx[i] = -1
+                continue
+            idx[i] = len(cat) + sum(len(t) for t in extra)
+            labels[i] = str(row.designation[0])
+            extra.append(row)
+        elif not m.section:
+            reasons[i] = "no section or profile given"
+        elif idx[i] < 0:
+            reasons[i] = catalog.unknown_section_reason(m.section)
+        else:
+            labels[i] = str(cat.designation[idx[i]])
+    table = SectionTable.concat([cat, *extra]) if extra else cat
+    return table, idx, reasons, labels
+
+
+def members_from_request(req: MembersRequest) -> MemberTable:
+    """Convert a members request into the engine's member table (kip, inch, ksi)."""
+    ms = req.members
+    fL = length_factor(req.units.length)
+    fF = force_factor(req.units.force)
+    fS = stress_factor(req.units.stress)
+    sections, idx, reasons, labels = _sections(ms, req.units.length)
+
+    def col(values: list[float | None], factor: float) -> np.ndarray:
+        return np.array([np.nan if v is None else v * factor for v in values], dtype=float)
+
+    length = col([m.length for m in ms], fL)
+    lx, ly, lz = (col([getattr(m, a) for m in ms], fL) for a in ("lx", "ly", "lz"))
+    loads = np.array(
+        [[np.nan if (m.loads is None or getattr(m.loads, t) is None) else getattr(m.loads, t)
+          for t in LOAD_TYPES] for m in ms], dtype=float
+    ).reshape(len(ms), len(LOAD_TYPES)) * fF
+    E = (req.E * fS) if req.E is not None else E_DEFAULT
+    G = (req.G * fS) if req.G is not None else G_DEFAULT
+    return MemberTable.build(
+        ids=[m.id for m in ms],
+        name=[m.name or m.id for m in ms],
+        section_label=labels,
+        sections=sections,
+        section_index=idx,
+        Fy=col([m.fy for m in ms], fS),
+        length=length,
+        lx=np.where(np.isnan(lx), length, lx),
+        ly=np.where(np.isnan(ly), length, ly),
+        lz=np.where(np.isnan(lz), length, lz),
+        kx=np.array([m.kx for m in ms], dtype=float),
+        ky=np.array([m.ky for m in ms], dtype=float),
+        kz=np.array([m.kz for m in ms], dtype=float),
+        E=E,
+        G=G,
+        loads=loads,
+        required_strength=col([m.required_strength for m in ms], fF),
+        reason=reasons,
+    )
+
+
+def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
+    """Check every member of a request."""
+    members = members_from_request(req)
+    combos = (custom_combinations([c.model_dump() for c in req.combinations])
+              if req.combinations else None)
+    results = check_members(members, req.design_method, combos,
+                            half_live=req.half_live_exception, detail=req.detail)
+    return members, results
+
+
+def check_request(req: MembersRequest) -> dict:
+    """Members request -> report (design.md §3)."""
+    members, results = run_request(req)
+    return build_report(members, results, req.units.model_dump(), detail=req.detail)

@@ -1,0 +1,141 @@
+"""The JSON report (design.md §3): results table -> plain dict, in the request's units."""
+
+from __future__ import annotations
+
+import json
+import math
+from functools import cache
+from importlib import resources
+
+import numpy as np
+
+from engine.check import NOT_CHECKED, CheckResults
+from engine.members import MemberTable
+from engine.units import force_factor, stress_factor
+
+SCHEMA_VERSION = "1"
+DISCLAIMER = (
+    "Axial compression only (AISC 360-22 Chapter E); an aid to, not a substitute for, the "
+    "review of a licensed engineer. The locally adopted code edition and the engineer of "
+    "record govern; the check is only as good as the profiles, grades, lengths and loads given."
+)
+
+
+def design_basis(method: str, custom_combinations: bool = False) -> str:
+    """The one-line design basis carried by every report and checked model."""
+    combos = "custom load combinations" if custom_combinations else "ASCE 7-22 combinations"
+    return f"AISC 360-22 Chapter E, {method}; {combos}"
+
+
+def _sig(x: float, digits: int = 6) -> float | None:
+    """Round to significant digits for the report; NaN / inf become null."""
+    if x is None or not math.isfinite(x):
+        return None
+    if x == 0:
+        return 0.0
+    return round(x, digits - 1 - int(math.floor(math.log10(abs(x)))))
+
+
+def build_report(
+    members: MemberTable,
+    results: CheckResults,
+    units: dict[str, str],
+    *,
+    detail: bool = False,
+    custom_combinations: bool = False,
+    messages: list[str] | None = None,
+) -> dict:
+    """Assemble the report dict: summary, one entry per member, in ``units``."""
+    to_force = 1.0 / force_factor(units["force"])
+    to_stress = 1.0 / stress_factor(units["stress"])
+    req = results.required_strength * to_force
+    avail = results.available_strength * to_force
+    tension = (results.max_tension if results.max_tension is not None
+               else np.zeros(len(results))) * to_force
+    storey = members.extra.get("storey")
+
+    rows = []
+    for i in range(len(results)):
+        msgs = list(results.messages[i])
+        if tension[i] > 0:
+            msgs.append(
+                f"a load combination gives net tension of {_sig(tension[i], 4)} "
+                f"{units['force']}; tension is not checked here"
+            )
+        row = {
+            "id": str(members.id[i]),
+            "name": str(members.name[i]),
+            "section": str(members.section_label[i]),
+            "status": str(results.status[i]),
+            "required_strength": _sig(req[i]),
+            "available_strength": _sig(avail[i]),
+            "utilization": _sig(results.utilization[i], 4),
+            "limit_state": str(results.limit_state[i]),
+            "combination": str(results.combination[i]),
+            "slenderness": _sig(results.slenderness[i], 4),
+            "critical_stress": _sig(results.Fcr[i] * to_stress),
+            "messages": msgs,
+        }
+        if storey is not None:
+            row["storey"] = None if storey[i] is None else str(storey[i])
+        if results.status[i] == NOT_CHECKED:
+            row["reason"] = str(results.reason[i])
+        if detail and results.combination_values is not None:
+            row["combinations"] = {
+                name: _sig(results.combination_values[i, j] * to_force)
+                for j, name in enumerate(results.combination_names)
+            }
+        rows.append(row)
+
+    status = results.status
+    util = results.utilization[status != NOT_CHECKED]
+    util = util[np.isfinite(util)]
+    return {
+        "schema_version": SCHEMA_VERSION,
+        "design_basis": design_basis(results.method, custom_combinations),
+        "disclaimer": DISCLAIMER,
+        "units": dict(units),
+        "summary": {
+            "members": len(results),
+            "pass": int(np.sum(status == "pass")),
+            "fail": int(np.sum(status == "fail")),
+            "not_checked": int(np.sum(status == NOT_CHECKED)),
+            "max_utilization": _sig(float(util.max()), 4) if util.size else None,
+        },
+        "messages": list(messages or []),
+        "members": rows,
+    }
+
+
+@cache
+def report_schema() -> dict:
+    """The JSON Schema of the report, shipped with the package."""
+    text = resources.files("service").joinpath("schemas/report.schema.json").read_text()
+    return json.loads(text)
+
+
+def format_summary(report: dict, worst: int = 5) -> str:
+    """A short terminal summary: counts and the highest utilizations."""
+    s = report["summary"]
+    lines = [
+        f"{report['design_basis']}",
+        f"members {s['members']}: {s['pass']} pass, {s['fail']} fail, "
+        f"{s['not_checked']} not checked",
+    ]
+    ranked = sorted(
+        (m for m in report["members"] if m["utilization"] is not None),
+        key=lambda m: -m["utilization"],
+    )[:worst]
+    if ranked:
+        lines.append(f"highest utilizations ({report['units']['force']}):")
+        for m in ranked:
+            lines.append(
+                f"  {m['name'][:24]:<24} {m['section'][:18]:<18} {m['utilization']:>6.3f}  "
+                f"{m['required_strength']:>10.4g} / {m['available_strength']:<10.4g} "
+                f"{m['status'].upper()}"
+            )
+    nc = [m for m in report["members"] if m["status"] == NOT_CHECKED][:worst]
+    for m in nc:
+        lines.append(f"  not checked: {m['name']}: {m.get('reason', '')}")
+    lines.append("Results are an aid; they must be reviewed by a licensed engineer.")
+    return "\n".join(lines)

@@ -1,0 +1,142 @@
+"""The members request (design.md §2): pydantic models shared by the CLI and the HTTP API."""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import BaseModel, ConfigDict, Field, field_validator, model_validator
+
+from engine.members import LOAD_TYPES
+from engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
+
+ForceUnit = Literal[tuple(FORCE_UNITS)]  # type: ignore[valid-type]
+LengthUnit = Literal[tuple(LENGTH_UNITS)]  # type: ignore[valid-type]
+StressUnit = Literal[tuple(STRESS_UNITS)]  # type: ignore[valid-type]
+ProfileShape = Literal["I", "RECT_HOLLOW", "CIRC_HOLLOW", "T", "U", "RECT", "CIRCLE"]
+
+
+class _Strict(BaseModel):
+    model_config = ConfigDict(extra="forbid")
+
+
+class Units(_Strict):
+    """Units of every number in the request and in its report."""
+
+    force: ForceUnit = "kip"
+    length: LengthUnit = "ft"
+    stress: StressUnit = "ksi"
+
+
+class Loads(_Strict):
+    """Axial service load effects by type, compression positive (W and E are reversible)."""
+
+    D: float | None = None
+    L: float | None = None
+    Lr: float | None = None
+    S: float | None = None
+    R: float | None = None
+    W: float | None = None
+    E: float | None = None
+
+
+class Profile(_Strict):
+    """Parametric cross-section dimensions, for sections not in the catalog.
+
+    Dimensions are in ``unit`` (default: the request's length unit).  Which are needed
+    depends on ``shape``: I, T, U: d, bf, tw, tf (r optional root radius); RECT_HOLLOW: h,
+    b, t (r optional outer corner radius); CIRC_HOLLOW: D, t; RECT: h, b; CIRCLE: D.
+    """
+
+    shape: ProfileShape
+    unit: LengthUnit | None = None
+    d: float | None = Field(None, gt=0)
+    bf: float | None = Field(None, gt=0)
+    tw: float | None = Field(None, gt=0)
+    tf: float | None = Field(None, gt=0)
+    r: float | None = Field(None, ge=0)
+    h: float | None = Field(None, gt=0)
+    b: float | None = Field(None, gt=0)
+    t: float | None = Field(None, gt=0)
+    D: float | None = Field(None, gt=0)
+
+    @model_validator(mode="after")
+    def _has_dimensions(self) -> Profile:
+        need = {
+            "I": ("d", "bf", "tw", "tf"), "T": ("d", "bf", "tw", "tf"),
+            "U": ("d", "bf", "tw", "tf"), "RECT_HOLLOW": ("h", "b", "t"),
+            "CIRC_HOLLOW": ("D", "t"), "RECT": ("h", "b"), "CIRCLE": ("D",),
+        }[self.shape]
+        missing = [k for k in need if getattr(self, k) is None]
+        if missing:
+            raise ValueError(f"profile {self.shape} needs {', '.join(missing)}")
+        return self
+
+
+class Member(_Strict):
+    """One member to check (design.md §2)."""
+
+    id: str = Field(min_length=1)
+    name: str | None = None
+    section: str | None = None
+    profile: Profile | None = None
+    fy: float | None = None
+    length: float | None = None
+    kx: float = 1.0
+    ky: float = 1.0
+    kz: float = 1.0
+    lx: float | None = None
+    ly: float | None = None
+    lz: float | None = None
+    loads: Loads | None = None
+    required_strength: float | None = None
+    candidates: list[str] | None = None
+    max_utilization: float | None = Field(None, gt=0)
+
+
+class CombinationSpec(_Strict):
+    """A custom load combination: factors by load type."""
+
+    name: str = Field(min_length=1)
+    factors: dict[str, float]
+
+    @field_validator("factors")
+    @classmethod
+    def _known_types(cls, v: dict[str, float]) -> dict[str, float]:
+        unknown = [k for k in v if k not in LOAD_TYPES]
+        if unknown:
+            raise ValueError(
+                f"unknown load type(s) {', '.join(unknown)}; expected {', '.join(LOAD_TYPES)}"
+            )
+        if not v:
+            raise ValueError("a combination needs at least one factor")
+        return v
+
+
+class MembersRequest(_Strict):
+    """The whole request: ``stanchion check members.json`` or ``POST /v1/checks``."""
+
+    design_method: Literal["LRFD", "ASD"] = "LRFD"
+    units: Units = Units()
+    members: list[Member] = Field(min_length=1)
+    combinations: list[CombinationSpec] | None = None
+    half_live_exception: bool = Field(
+        False,
+        description="ASCE 7-22 §2.3.1 exception: 0.5L in the combinations with 1.0L "
+        "(occupancies with Lo <= 100 psf other than garages and public assembly).",
+    )
+    detail: bool = Field(False, description="add every combination's value to each member")
+    E: float | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
+    G: float | None = Field(None, gt=0, description="shear modulus, stress unit")
+
+    @field_validator("design_method", mode="before")
+    @classmethod
+    def _upper(cls, v: object) -> object:
+        return v.upper() if isinstance(v, str) else v
+
+    @model_validator(mode="after")
+    def _unique_ids(self) -> MembersRequest:
+        seen: set[str] = set()
+        dup = sorted({m.id for m in self.members if m.id in seen or seen.add(m.id)})
+        if dup:
+            raise ValueError(f"member ids must be unique; repeated: {', '.join(dup)}")
+        return self
