@@ -1,0 +1,90 @@
+"""Settings of the HTTP service, read from the environment when the app is built.
+
+Nothing is read at import time: :func:`service.app.create_app` takes a :class:`Settings`
+(tests build their own) or calls :meth:`Settings.from_env`; route handlers receive it through
+the :func:`get_settings` FastAPI dependency.
+
+Environment variables (design.md §6):
+
+- ``STANCHION_API_TOKEN``: when set (non-empty), every endpoint but ``GET /v1/health``
+  requires ``Authorization: Bearer <token>``.
+- ``STANCHION_DATA_DIR``: where the job database and job files live (default
+  ``./stanchion-data``).
+- ``STANCHION_MAX_UPLOAD_MB``: largest request body accepted, in MiB (default 200).
+- ``STANCHION_JOB_TIMEOUT_S``: a model job still running after this many seconds is
+  stopped and marked failed (default 600).
+- ``STANCHION_MAX_WORKERS``: how many model jobs run at the same time, each in its own
+  process (default 1; the others wait, queued).
+"""
+
+from __future__ import annotations
+
+import os
+from collections.abc import Mapping
+from pathlib import Path
+
+from fastapi import Request
+from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+
+from service.errors import InputError
+
+#: Environment variable for each setting.
+ENV_NAMES: dict[str, str] = {
+    "api_token": "STANCHION_API_TOKEN",
+    "data_dir": "STANCHION_DATA_DIR",
+    "max_upload_mb": "STANCHION_MAX_UPLOAD_MB",
+    "job_timeout_s": "STANCHION_JOB_TIMEOUT_S",
+    "max_workers": "STANCHION_MAX_WORKERS",
+}
+
+
+class Settings(BaseModel):
+    """Service settings (immutable once built).
+
+    Attributes:
+        api_token: bearer token required on every endpoint but health; ``None``: no auth.
+        data_dir: folder holding ``jobs.sqlite3`` and one sub-folder per job.
+        max_upload_mb: largest request body, MiB (model upload including its load table).
+        job_timeout_s: longest a model job may run before it is stopped and failed.
+        max_workers: model jobs processed at the same time (one process each).
+    """
+
+    model_config = ConfigDict(frozen=True, extra="forbid")
+
+    api_token: str | None = None
+    data_dir: Path = Path("stanchion-data")
+    max_upload_mb: float = Field(200.0, gt=0)
+    job_timeout_s: float = Field(600.0, gt=0)
+    max_workers: int = Field(1, ge=1, le=16)
+
+    @field_validator("api_token")
+    @classmethod
+    def _empty_is_none(cls, v: str | None) -> str | None:
+        return v if v else None
+
+    @property
+    def max_upload_bytes(self) -> int:
+        """``max_upload_mb`` in bytes (1 MiB = 1,048,576 bytes)."""
+        return int(self.max_upload_mb * 1024 * 1024)
+
+    @classmethod
+    def from_env(cls, environ: Mapping[str, str] | None = None) -> Settings:
+        """Build the settings from ``environ`` (default ``os.environ``).
+
+        Raises:
+            InputError: a variable holds an unusable value; the message names the variable.
+        """
+        env = os.environ if environ is None else environ
+        values = {field: env[name] for field, name in ENV_NAMES.items() if name in env}
+        try:
+            return cls.model_validate(values)
+        except ValidationError as exc:
+            err = exc.errors()[0]
+            field = str(err["loc"][0]) if err["loc"] else ""
+            name = ENV_NAMES.get(field, field)
+            raise InputError(f"{name}={values.get(field)!r}: {err['msg']}") from None
+
+
+def get_settings(request: Request) -> Settings:
+    """FastAPI dependency: the settings the app was built with."""
+    return request.app.state.settings

@@ -1,0 +1,122 @@
+"""The child process that runs one model job: ``python -m service.worker JOB_DIR``.
+
+It reads ``JOB_DIR/job.json`` (written by the server when the upload was complete), checks the
+model with :func:`service.model_check.check_model`, leaves the report, checked model and CSV
+in the folder, and writes ``result.json``: ``{"status": "done", "summary": {...}}`` or
+``{"status": "failed", "error": "one line"}``.  The server (:mod:`service.jobs`) reads that
+file once the process has ended; a process that crashes or is killed leaves none and its job
+is failed by the server.  Tracebacks go to this process's stderr (``worker.log`` in the job
+folder, server-side only), never into ``result.json``.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import logging
+import os
+import sys
+import traceback
+from collections.abc import Callable, Sequence
+from pathlib import Path
+
+from service.errors import InputError
+from service.jobs import CSV_FILE, MODEL_OUT_FILE, PARAMS_FILE, REPORT_FILE, RESULT_FILE
+from service.outputs import write_json
+
+log = logging.getLogger("stanchion.worker")
+
+CheckModel = Callable[..., dict]
+
+
+def _input_errors() -> tuple[type[BaseException], ...]:
+    """Exception types whose message describes a problem of the uploaded input."""
+    types: list[type[BaseException]] = [InputError]
+    try:
+        from ifc_bridge.model import ModelReadError
+    except ImportError:  # pragma: no cover - reader not installed
+        pass
+    else:
+        types.append(ModelReadError)
+    return tuple(types)
+
+
+def _default_check() -> CheckModel:
+    from service.model_check import check_model
+
+    return check_model
+
+
+def _public_message(msg: str, job_dir: Path, names: dict[str, str]) -> str:
+    """The message with server paths replaced by the names the client uploaded."""
+    for stored, original in names.items():
+        msg = msg.replace(str(job_dir / stored), original)
+    msg = msg.replace(str(job_dir) + os.sep, "").replace(str(job_dir), "")
+    first = msg.strip().splitlines()[0] if msg.strip() else "failed"
+    return first[:500]
+
+
+def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
+    """Check the model of one job folder and write ``result.json``.
+
+    Args:
+        job_dir: the job folder.
+        check: the model check (default :func:`service.model_check.check_model`).
+
+    Returns:
+        The result written to ``result.json``.
+    """
+    job_dir = Path(job_dir)
+    params = json.loads((job_dir / PARAMS_FILE).read_text(encoding="utf-8"))
+    model = job_dir / params["model"]
+    loads = job_dir / params["loads"] if params.get("loads") else None
+    names = {params["model"]: params.get("filename") or params["model"]}
+    if params.get("loads"):
+        names[params["loads"]] = params.get("loads_filename") or params["loads"]
+    try:
+        if check is None:
+            check = _default_check()
+        report = check(
+            model, method=params.get("design_method", "LRFD"), loads_table=loads,
+            out_model=job_dir / MODEL_OUT_FILE, out_report=job_dir / REPORT_FILE,
+            out_csv=job_dir / CSV_FILE,
+        )
+        if not (job_dir / REPORT_FILE).exists():
+            write_json(job_dir / REPORT_FILE, report)
+        result = {"status": "done", "summary": report.get("summary")}
+    except _input_errors() as exc:
+        result = {"status": "failed", "error": _public_message(str(exc), job_dir, names)}
+    except ImportError:
+        traceback.print_exc()
+        result = {"status": "failed", "error": "model checks are not available on this server"}
+    except MemoryError:
+        result = {"status": "failed", "error": "the model is too large to process"}
+    except Exception as exc:
+        traceback.print_exc()
+        result = {"status": "failed",
+                  "error": f"the model could not be processed ({type(exc).__name__})"}
+    write_json(job_dir / RESULT_FILE, result)
+    return result
+
+
+def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> int:
+    """Entry point of the worker process; 0 once ``result.json`` is written."""
+    p = argparse.ArgumentParser(prog="python -m service.worker")
+    p.add_argument("job_dir", type=Path)
+    args = p.parse_args(argv)
+    logging.basicConfig(level=logging.INFO, stream=sys.stderr,
+                        format="%(asctime)s %(levelname)s %(name)s: %(message)s")
+    try:
+        os.nice(5)  # the server process stays responsive while models are checked
+    except OSError:  # pragma: no cover
+        pass
+    if not (args.job_dir / PARAMS_FILE).is_file():
+        print(f"no {PARAMS_FILE} in {args.job_dir}", file=sys.stderr)
+        return 2
+    result = run_job(args.job_dir, check)
+    log.info("job %s: %s", args.job_dir.name, result["status"])
+    return 0
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,55 @@
+"""A stand-in job worker for the job-machinery tests (not a test module; no tests here).
+
+Run as ``python tests/service/test_jobs_stub.py JOB_DIR``: it runs the real
+:func:`service.worker.main` with a stand-in model check whose behaviour is chosen by the first
+bytes of the uploaded file, so the tests can exercise every outcome without IFC parsing:
+
+``CRASH`` abort the process · ``HANG`` sleep for an hour · ``INPUT`` raise InputError naming
+the file's server path · ``BOOM`` raise RuntimeError · ``SLOW<s>`` sleep ``s`` seconds, then
+succeed · anything else: succeed, echoing the method, load table and size in the report.
+"""
+
+from __future__ import annotations
+
+import os
+import sys
+import time
+from pathlib import Path
+
+
+def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None = None,
+                   out_model: Path | None = None, out_report: Path | None = None,
+                   out_csv: Path | None = None, **_: object) -> dict:
+    """Behave as the first bytes of the model ask (see the module docstring)."""
+    from service.errors import InputError
+
+    data = Path(path).read_bytes()
+    if data.startswith(b"CRASH"):
+        os.abort()
+    if data.startswith(b"HANG"):
+        time.sleep(3600)
+    if data.startswith(b"INPUT"):
+        raise InputError(f"cannot read {path}: not an IFC file")
+    if data.startswith(b"BOOM"):
+        raise RuntimeError(f"internal detail that must not leak: {path}")
+    if data.startswith(b"SLOW"):
+        time.sleep(float(data[4:8]))
+    report = {
+        "schema_version": "1",
+        "summary": {"members": 1, "pass": 1, "fail": 0, "not_checked": 0,
+                    "max_utilization": 0.5},
+        "members": [],
+        "stand_in": {"method": method, "size": len(data), "pid": os.getpid(),
+                     "loads": loads_table.read_text() if loads_table else None},
+    }
+    if out_model is not None:
+        Path(out_model).write_bytes(data)
+    if out_csv is not None:
+        Path(out_csv).write_text("id,status\nC1,pass\n")
+    return report
+
+
+if __name__ == "__main__":
+    from service.worker import main
+
+    sys.exit(main(sys.argv[1:], check=stand_in_check))
