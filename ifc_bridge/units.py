@@ -1,0 +1,164 @@
+"""Project units of an IFC model, as factors into the engine's kip / inch / ksi.
+
+Model unit -> SI comes from ``ifcopenshell.util.unit`` (``calculate_unit_scale`` for length,
+``get_project_unit`` + ``get_unit_scale`` for force and pressure, which follows chains of
+IfcConversionBasedUnit and applies SI prefixes); SI -> internal comes from pint
+(:func:`engine.units.factor`).  No conversion factor is written down here.
+
+Undeclared units.  IFC measure types are defined in SI base units (IfcLengthMeasure in metre,
+IfcForceMeasure in newton, IfcPressureMeasure in pascal), so a model whose IfcUnitAssignment
+lacks a LENGTHUNIT / FORCEUNIT / PRESSUREUNIT is read in those SI base units -- but never
+silently: the first time a value of such a quantity is used, :meth:`ModelUnits.note_use`
+records a model-level warning naming the assumption (and the reader adds a note to every
+member that used such a value).
+
+Per-property units.  An IfcPropertySingleValue or IfcPhysicalSimpleQuantity may carry its own
+``Unit``; :meth:`ModelUnits.value_factor` uses it instead of the project unit.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import ifcopenshell
+import ifcopenshell.util.unit
+
+from engine.units import factor
+
+#: Quantity -> (IFC unit type, SI unit in pint spelling, internal unit in pint spelling).
+QUANTITIES: dict[str, tuple[str, str, str]] = {
+    "length": ("LENGTHUNIT", "meter", "inch"),
+    "force": ("FORCEUNIT", "newton", "kip"),
+    "pressure": ("PRESSUREUNIT", "pascal", "ksi"),
+}
+
+#: What an undeclared unit is read as (the SI base unit of the IFC measure type).
+ASSUMED_SI = {"length": "metre", "force": "newton", "pressure": "pascal"}
+
+
+def _unit_name(unit: ifcopenshell.entity_instance) -> str:
+    """Short human name of an IFC unit (``MILLI METRE``, ``kip``, ``MEGA PASCAL``)."""
+    if unit.is_a("IfcSIUnit"):
+        return " ".join(p for p in (unit.Prefix, unit.Name) if p)
+    if unit.is_a("IfcNamedUnit"):
+        return str(getattr(unit, "Name", None) or unit.is_a())
+    return unit.is_a()
+
+
+def si_scale(unit: ifcopenshell.entity_instance) -> float:
+    """Multiplier taking a value in ``unit`` to SI base units (m, N, Pa, kg ...).
+
+    ``ifcopenshell.util.unit.get_unit_scale`` scales an IfcSIUnit GRAM to grams; inside an
+    IfcDerivedUnit (kg·m/s² spelled out) the kilogram is the SI base, so each GRAM element is
+    corrected by 10⁻³ per exponent.
+    """
+    if unit.is_a("IfcDerivedUnit"):
+        scale = 1.0
+        for element in unit.Elements:
+            named = element.Unit
+            part = ifcopenshell.util.unit.get_named_unit_scale(named)
+            base = named
+            while base.is_a("IfcConversionBasedUnit"):
+                base = base.ConversionFactor.UnitComponent
+            if base.is_a("IfcSIUnit") and base.Name == "GRAM":
+                part *= 1e-3
+            scale *= part**element.Exponent
+        return scale
+    return float(ifcopenshell.util.unit.get_unit_scale(unit))
+
+
+@dataclass
+class ModelUnits:
+    """Factors from the model's project units into kip / inch / ksi.
+
+    Attributes:
+        length, force, pressure: multipliers, model unit -> inch / kip / ksi.
+        names: human names of the project units (``"MILLI METRE"``), or the assumed SI unit.
+        declared: whether the model's IfcUnitAssignment declares each quantity's unit.
+        warnings: model-level warnings recorded by :meth:`note_use` (each once).
+    """
+
+    length: float
+    force: float
+    pressure: float
+    names: dict[str, str]
+    declared: dict[str, bool]
+    warnings: list[str] = field(default_factory=list)
+    _warned: set[str] = field(default_factory=set, repr=False)
+
+    def note_use(self, quantity: str) -> str | None:
+        """Record that a value of ``quantity`` was read in the project unit.
+
+        Returns:
+            A per-member note when the unit is undeclared (None otherwise); the model-level
+            warning is appended to :attr:`warnings` the first time only.
+        """
+        if self.declared[quantity]:
+            return None
+        if quantity not in self._warned:
+            self._warned.add(quantity)
+            self.warnings.append(
+                f"model declares no {quantity} unit; {quantity} values read as "
+                f"{ASSUMED_SI[quantity]} (SI base unit of the IFC measure type) -- check them"
+            )
+        return f"{quantity} read in an undeclared unit, assumed {ASSUMED_SI[quantity]}"
+
+    def value_factor(
+        self, quantity: str, unit: ifcopenshell.entity_instance | None
+    ) -> tuple[float, str | None]:
+        """Factor for one value of ``quantity`` whose property may name its own unit.
+
+        Args:
+            quantity: ``"length"``, ``"force"`` or ``"pressure"``.
+            unit: the property's / quantity's ``Unit`` attribute (None: project unit).
+
+        Returns:
+            (factor into the internal unit, note or None).  A property unit of the wrong
+            kind gives factor NaN and a note naming it.
+        """
+        if unit is None:
+            return getattr(self, quantity), self.note_use(quantity)
+        unit_type, si_name, internal = QUANTITIES[quantity]
+        kind = getattr(unit, "UnitType", None)
+        if unit.is_a("IfcDerivedUnit"):
+            kind = ifcopenshell.util.unit.identify_unit_dimensions(unit) or kind
+        if kind != unit_type:
+            return float("nan"), f"property unit {_unit_name(unit)} is not a {quantity} unit"
+        return si_scale(unit) * factor(si_name, internal), None
+
+
+def read_units(model: ifcopenshell.file) -> ModelUnits:
+    """The model's project length, force and pressure units.
+
+    Args:
+        model: an opened IFC model.
+
+    Returns:
+        :class:`ModelUnits`; undeclared quantities use the SI base unit (see module notes).
+    """
+    factors: dict[str, float] = {}
+    names: dict[str, str] = {}
+    declared: dict[str, bool] = {}
+    has_project = bool(model.by_type("IfcProject"))
+    for quantity, (unit_type, si_name, internal) in QUANTITIES.items():
+        unit = ifcopenshell.util.unit.get_project_unit(model, unit_type) if has_project else None
+        to_internal = factor(si_name, internal)
+        if unit is None:
+            factors[quantity] = to_internal
+            names[quantity] = f"{ASSUMED_SI[quantity]} (assumed)"
+            declared[quantity] = False
+            continue
+        if quantity == "length":
+            scale = float(ifcopenshell.util.unit.calculate_unit_scale(model, unit_type))
+        else:
+            scale = si_scale(unit)
+        factors[quantity] = scale * to_internal
+        names[quantity] = _unit_name(unit)
+        declared[quantity] = True
+    return ModelUnits(
+        length=factors["length"],
+        force=factors["force"],
+        pressure=factors["pressure"],
+        names=names,
+        declared=declared,
+    )
