@@ -1,0 +1,336 @@
+"""HTTP routes through FastAPI's TestClient (model jobs run the stand-in worker).
+
+Every route: health, checks (good, malformed, not JSON), models upload -> job -> downloads,
+409 before results exist, 404 for unknown jobs, delete, sections, auth on and off, 413
+limits, the catch-all 500 handler, OpenAPI and docs.
+"""
+
+from __future__ import annotations
+
+import sys
+import time
+from pathlib import Path
+
+import pytest
+from fastapi.testclient import TestClient
+
+from service import app as app_mod
+from service.app import create_app
+from service.core import check_request
+from service.request import MembersRequest
+from service.settings import Settings
+
+STUB = [sys.executable, str(Path(__file__).with_name("test_jobs_stub.py"))]
+TOKEN = "s3cret-token"
+
+MEMBER = {"id": "C-12", "section": "W14X48", "fy": 50, "length": 16,
+          "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # design.md §2 example
+
+
+def _client(tmp_path: Path, **settings) -> TestClient:
+    s = Settings(data_dir=tmp_path / "data", **settings)
+    return TestClient(create_app(s, worker_command=STUB), raise_server_exceptions=False)
+
+
+@pytest.fixture
+def client(tmp_path: Path):
+    with _client(tmp_path) as c:
+        yield c
+
+
+@pytest.fixture
+def authed(tmp_path: Path):
+    with _client(tmp_path, api_token=TOKEN) as c:
+        yield c
+
+
+def _upload(c: TestClient, content: bytes = b"fine model", name: str = "tower.ifc",
+            **kw) -> str:
+    r = c.post("/v1/models", files={"file": (name, content)}, **kw)
+    assert r.status_code == 202, r.text
+    assert r.headers["location"] == f"/v1/jobs/{r.json()['job_id']}"
+    return r.json()["job_id"]
+
+
+def _wait(c: TestClient, job_id: str, timeout: float = 20.0, **kw) -> dict:
+    end = time.monotonic() + timeout
+    while time.monotonic() < end:
+        job = c.get(f"/v1/jobs/{job_id}", **kw).json()
+        if job["status"] in ("done", "failed"):
+            return job
+        time.sleep(0.05)
+    raise AssertionError(f"job {job_id} not finished after {timeout} s")
+
+
+# ----------------------------------------------------------------------------- health, checks
+
+
+def test_health(client: TestClient) -> None:
+    r = client.get("/v1/health")
+    assert r.status_code == 200 and r.json()["status"] == "ok"
+
+
+def test_checks_returns_the_core_report(client: TestClient) -> None:
+    body = {"design_method": "LRFD", "members": [MEMBER]}
+    r = client.post("/v1/checks", json=body)
+    assert r.status_code == 200
+    report = r.json()
+    # the HTTP answer is the report of the shared core, unchanged (design.md §3)
+    assert report == check_request(MembersRequest.model_validate(body))
+    m = report["members"][0]
+    assert m["id"] == "C-12" and m["section"] == "W14X48"
+    assert report["summary"]["members"] == 1 and m["status"] in ("pass", "fail")
+
+
+def test_checks_malformed_body_names_the_fields(client: TestClient) -> None:
+    bad = {"members": [MEMBER, {**MEMBER, "id": "C-13", "fy": "fifty", "kx": []}]}
+    r = client.post("/v1/checks", json=bad)
+    assert r.status_code == 422
+    body = r.json()
+    locs = {d["loc"] for d in body["details"]}
+    assert {"members.1.fy", "members.1.kx"} <= locs
+    assert "members.1." in body["error"]
+
+
+@pytest.mark.parametrize(("payload", "loc"), [
+    ({"members": []}, "members"),
+    ({}, "members"),
+    ({"members": [MEMBER], "design_method": "XYZ"}, "design_method"),
+    ({"members": [MEMBER], "unknown": 1}, "unknown"),
+    ({"members": [MEMBER, MEMBER]}, "request"),  # repeated ids: a whole-request rule
+])
+def test_checks_refuses_malformed_requests_as_a_whole(client, payload, loc) -> None:
+    r = client.post("/v1/checks", json=payload)
+    assert r.status_code == 422
+    assert loc in [d["loc"] for d in r.json()["details"]]
+
+
+def test_checks_not_json(client: TestClient) -> None:
+    r = client.post("/v1/checks", content=b"{members: oops",
+                    headers={"content-type": "application/json"})
+    assert r.status_code == 422
+    assert r.json()["details"][0]["loc"] == "body"
+    assert "not valid JSON" in r.json()["error"]
+
+
+def test_unusable_member_is_not_checked_others_are(client: TestClient) -> None:
+    body = {"members": [MEMBER, {**MEMBER, "id": "C-13", "section": "W14X47"}]}
+    r = client.post("/v1/checks", json=body)
+    assert r.status_code == 200  # design.md §2: well-formed but unusable -> not_checked
+    status = {m["id"]: m["status"] for m in r.json()["members"]}
+    assert status["C-13"] == "not_checked" and status["C-12"] != "not_checked"
+
+
+# ----------------------------------------------------------------------------- model jobs
+
+
+def test_upload_job_and_downloads(client: TestClient) -> None:
+    job_id = client.post(
+        "/v1/models", files={"file": ("tower.ifc", b"fine model"),
+                             "loads": ("loads.csv", b"element,D\nC1,10\n")},
+        data={"design_method": "asd"}).json()["job_id"]
+    job = _wait(client, job_id)
+    assert job["status"] == "done" and job["error"] is None
+    assert job["design_method"] == "ASD" and job["loads"] is True
+    assert job["filename"] == "tower.ifc" and job["created"] and job["finished"]
+    assert job["summary"]["members"] == 1
+    report = client.get(f"/v1/jobs/{job_id}/report")
+    assert report.status_code == 200
+    assert report.json()["stand_in"]["loads"] == "element,D\nC1,10\n"
+    model = client.get(f"/v1/jobs/{job_id}/model")
+    assert model.status_code == 200 and model.content == b"fine model"
+    assert 'filename="tower-checked.ifc"' in model.headers["content-disposition"]
+    csv = client.get(f"/v1/jobs/{job_id}/csv")
+    assert csv.status_code == 200 and csv.text.startswith("id,status")
+    assert csv.headers["content-type"].startswith("text/csv")
+
+
+def test_results_are_409_until_ready(client: TestClient) -> None:
+    job_id = _upload(client, b"SLOW0.50")
+    for what in ("report", "model", "csv"):
+        r = client.get(f"/v1/jobs/{job_id}/{what}")
+        assert r.status_code == 409
+        assert "not ready" in r.json()["error"]
+    assert _wait(client, job_id)["status"] == "done"
+    assert client.get(f"/v1/jobs/{job_id}/report").status_code == 200
+
+
+def test_failed_job_has_its_message_and_no_results(client: TestClient) -> None:
+    job_id = _upload(client, b"INPUT")
+    job = _wait(client, job_id)
+    assert job["status"] == "failed"
+    assert job["error"] == "cannot read tower.ifc: not an IFC file"
+    r = client.get(f"/v1/jobs/{job_id}/report")
+    assert r.status_code == 409 and "not an IFC file" in r.json()["error"]
+
+
+def test_crashing_model_does_not_take_the_server_down(client: TestClient) -> None:
+    job = _wait(client, _upload(client, b"CRASH"))
+    assert job["status"] == "failed" and "worker process" in job["error"]
+    assert client.get("/v1/health").status_code == 200
+    assert _wait(client, _upload(client))["status"] == "done"
+
+
+@pytest.mark.parametrize("path", ["/v1/jobs/{}", "/v1/jobs/{}/report", "/v1/jobs/{}/model",
+                                  "/v1/jobs/{}/csv"])
+@pytest.mark.parametrize("job_id", ["0" * 32, "nope", "..%2F..%2Fjobs.sqlite3"])
+def test_unknown_job_is_404_json(client: TestClient, path: str, job_id: str) -> None:
+    r = client.get(path.format(job_id))
+    assert r.status_code == 404 and "error" in r.json()
+
+
+def test_delete_removes_record_and_files(client: TestClient, tmp_path: Path) -> None:
+    job_id = _upload(client)
+    _wait(client, job_id)
+    job_dir = tmp_path / "data" / "jobs" / job_id
+    assert job_dir.is_dir()
+    assert client.delete(f"/v1/jobs/{job_id}").status_code == 204
+    assert client.get(f"/v1/jobs/{job_id}").status_code == 404
+    assert not job_dir.exists()
+    assert client.delete(f"/v1/jobs/{job_id}").status_code == 404
+
+
+@pytest.mark.parametrize(("files", "data", "status", "loc"), [
+    ({}, {"design_method": "LRFD"}, 422, "file"),
+    ({"file": ("notes.txt", b"hello")}, {}, 422, "file"),
+    ({"file": ("empty.ifc", b"")}, {}, 422, "file"),
+    ({"file": ("a.ifc", b"x")}, {"design_method": "WSD"}, 422, "design_method"),
+    ({"file": ("a.ifc", b"x"), "extra": ("b.ifc", b"y")}, {}, 422, "extra"),
+    ({"file": ("a.ifc", b"x"), "loads": ("loads.csv", b"")}, {}, 422, "loads"),
+])
+def test_upload_refusals(client, tmp_path, files, data, status, loc) -> None:
+    if not files:  # a form without the file part
+        r = client.post("/v1/models", data=data, files={"loads": ("l.csv", b"a,b\n")})
+    else:
+        r = client.post("/v1/models", files=files, data=data)
+    assert r.status_code == status, r.text
+    assert r.json()["details"][0]["loc"] == loc
+    assert list((tmp_path / "data" / "jobs").iterdir()) == []  # nothing left behind
+
+
+def test_upload_must_be_multipart(client: TestClient) -> None:
+    r = client.post("/v1/models", json={"file": "x"})
+    assert r.status_code == 415 and "multipart" in r.json()["error"]
+
+
+def test_upload_limit_by_content_length(tmp_path: Path) -> None:
+    with _client(tmp_path, max_upload_mb=0.01) as c:  # 10,485 bytes
+        r = c.post("/v1/models", files={"file": ("big.ifc", b"x" * 20_000)})
+        assert r.status_code == 413 and "STANCHION_MAX_UPLOAD_MB" in r.json()["error"]
+        assert list((tmp_path / "data" / "jobs").iterdir()) == []
+        assert _upload(c, b"y" * 5_000)  # under the limit: accepted
+
+
+def test_upload_limit_while_streaming_without_content_length(tmp_path: Path) -> None:
+    boundary = "XyZ"
+    head = (f"--{boundary}\r\nContent-Disposition: form-data; name=\"file\"; "
+            f"filename=\"big.ifc\"\r\n\r\n").encode()
+
+    def body():  # chunked: no Content-Length header
+        yield head
+        for _ in range(10):
+            yield b"x" * 4096
+        yield f"\r\n--{boundary}--\r\n".encode()
+
+    with _client(tmp_path, max_upload_mb=0.01) as c:
+        r = c.post("/v1/models", content=body(),
+                   headers={"content-type": f"multipart/form-data; boundary={boundary}"})
+        assert r.status_code == 413
+        assert list((tmp_path / "data" / "jobs").iterdir()) == []
+
+
+def test_checks_body_limit(tmp_path: Path) -> None:
+    with _client(tmp_path, max_upload_mb=0.001) as c:  # 1,048 bytes
+        many = {"members": [{**MEMBER, "id": f"C{i}"} for i in range(50)]}
+        assert c.post("/v1/checks", json=many).status_code == 413
+        assert c.post("/v1/checks", json={"members": [MEMBER]}).status_code == 200
+
+
+# ----------------------------------------------------------------------------- sections
+
+
+def test_sections_of_a_family_with_depth(client: TestClient) -> None:
+    r = client.get("/v1/sections", params={"family": "W14"})
+    assert r.status_code == 200
+    body = r.json()
+    names = [s["designation"] for s in body["sections"]]
+    assert "W14X48" in names and body["count"] == len(names)
+    assert all(n.startswith("W14X") for n in names)
+    w = next(s for s in body["sections"] if s["designation"] == "W14X48")
+    # AISC Shapes Database v16.0, W14X48: A = 14.1 in², d = 13.8 in, bf = 8.03 in,
+    # rx = 5.85 in, ry = 1.91 in, 48 lb/ft
+    assert (w["A"], w["d"], w["bf"], w["rx"], w["ry"], w["weight"]) == (
+        14.1, 13.8, 8.03, 5.85, 1.91, 48.0)
+    assert w["family"] == "W" and w["supported"] is True
+    assert body["units"]["A"] == "in2"
+
+
+def test_sections_unknown_family(client: TestClient) -> None:
+    r = client.get("/v1/sections", params={"family": "ZZ9"})
+    assert r.status_code == 422 and r.json()["details"][0]["loc"] == "family"
+    r = client.get("/v1/sections", params={"family": "W13"})  # a family, no such depth
+    assert r.status_code == 404 and "W13" in r.json()["error"]
+
+
+def test_sections_all(client: TestClient) -> None:
+    body = client.get("/v1/sections").json()
+    families = {s["family"] for s in body["sections"]}
+    assert {"W", "HSS", "PIPE"} <= families and body["count"] == len(body["sections"])
+
+
+# ----------------------------------------------------------------------------- auth
+
+
+def test_auth_off_everything_open(client: TestClient) -> None:
+    assert client.get("/v1/sections", params={"family": "W14"}).status_code == 200
+    assert client.get("/openapi.json").status_code == 200
+
+
+@pytest.mark.parametrize(("method", "path"), [
+    ("POST", "/v1/checks"), ("POST", "/v1/models"), ("GET", "/v1/jobs/" + "0" * 32),
+    ("GET", "/v1/jobs/x/report"), ("DELETE", "/v1/jobs/x"), ("GET", "/v1/sections"),
+    ("GET", "/openapi.json"), ("GET", "/docs"), ("GET", "/no/such/path"),
+])
+def test_auth_on_requires_the_token(authed: TestClient, method: str, path: str) -> None:
+    for headers in ({}, {"Authorization": "Bearer wrong"}, {"Authorization": TOKEN},
+                    {"Authorization": f"Basic {TOKEN}"}):
+        r = authed.request(method, path, headers=headers)
+        assert r.status_code == 401, (headers, r.status_code)
+        assert r.json() == {"error": "missing or wrong bearer token"}
+        assert r.headers["www-authenticate"] == "Bearer"
+
+
+def test_auth_on_health_open_and_token_works(authed: TestClient) -> None:
+    assert authed.get("/v1/health").status_code == 200
+    h = {"Authorization": f"Bearer {TOKEN}"}
+    assert authed.post("/v1/checks", json={"members": [MEMBER]}, headers=h).status_code == 200
+    job_id = _upload(authed, headers=h)
+    assert _wait(authed, job_id, headers=h)["status"] == "done"
+    assert authed.get(f"/v1/jobs/{job_id}/model", headers=h).status_code == 200
+    assert authed.get("/openapi.json", headers=h).status_code == 200
+    assert authed.get("/docs", headers=h).status_code == 200
+
+
+# ----------------------------------------------------------------------------- errors, docs
+
+
+def test_internal_errors_are_json_without_traceback(client, monkeypatch, caplog) -> None:
+    def explode(req):
+        raise RuntimeError("secret internals")
+
+    monkeypatch.setattr(app_mod, "check_request", explode)
+    r = client.post("/v1/checks", json={"members": [MEMBER]})
+    assert r.status_code == 500
+    assert r.json() == {"error": "internal error"}
+    assert "secret" not in r.text
+    assert "secret internals" in caplog.text  # logged server-side
+
+
+def test_openapi_lists_the_v1_routes(client: TestClient) -> None:
+    paths = client.get("/openapi.json").json()["paths"]
+    assert {"/v1/health", "/v1/checks", "/v1/models", "/v1/jobs/{job_id}",
+            "/v1/jobs/{job_id}/report", "/v1/jobs/{job_id}/model", "/v1/jobs/{job_id}/csv",
+            "/v1/sections"} <= set(paths)
+    upload = paths["/v1/models"]["post"]["requestBody"]["content"]["multipart/form-data"]
+    assert upload["schema"]["required"] == ["file"]
+    assert client.get("/docs").status_code == 200
