@@ -1,0 +1,153 @@
+"""Revision comparison: this run's report against a previous report (``--baseline``).
+
+Members are matched by ``id`` (the GlobalId for IFC models).  The comparison is added to the
+report as ``changes``:
+
+- ``new_failures``: ``fail`` now and not ``fail`` before (an added member that fails counts);
+- ``fixed``: ``fail`` before, ``pass`` now;
+- ``new_not_checked``: ``not_checked`` now and not before (added members included);
+- ``added`` / ``removed``: ids present on one side only;
+- ``utilization_changes``: members checked on both sides whose utilization moved by more than
+  the threshold (an absolute difference: 0.05 is five percentage points).
+
+Every entry carries the id, name and both sides' status, utilization and section.
+"""
+
+from __future__ import annotations
+
+import json
+from pathlib import Path
+
+from service.errors import InputError
+
+STATUSES = ("pass", "fail", "not_checked")
+DEFAULT_THRESHOLD = 0.05
+
+
+def _bad(path: Path, what: str) -> InputError:
+    return InputError(f"baseline {path}: {what}")
+
+
+def load_baseline(path: Path) -> dict:
+    """Read a previous report; InputError (one line) when it is not one.
+
+    Only what the comparison needs is required: a ``members`` list whose entries have a
+    unique string ``id``, a known ``status`` and a numeric or null ``utilization``.
+    """
+    path = Path(path)
+    try:
+        text = path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as exc:
+        raise _bad(path, f"cannot read it ({getattr(exc, 'strerror', None) or exc})") from None
+    try:
+        data = json.loads(text)
+    except json.JSONDecodeError as exc:
+        raise _bad(path, f"not valid JSON (line {exc.lineno}, column {exc.colno}: "
+                         f"{exc.msg})") from None
+    if not isinstance(data, dict) or not isinstance(data.get("members"), list):
+        raise _bad(path, "not a stanchion report (no 'members' list)")
+    seen: set[str] = set()
+    for k, m in enumerate(data["members"]):
+        if not isinstance(m, dict) or not isinstance(m.get("id"), str) or not m["id"]:
+            raise _bad(path, f"members[{k}] has no string 'id'")
+        if m.get("status") not in STATUSES:
+            raise _bad(path, f"members[{k}] ({m['id']}): status must be one of "
+                             f"{', '.join(STATUSES)}")
+        u = m.get("utilization")
+        if u is not None and (isinstance(u, bool) or not isinstance(u, int | float)):
+            raise _bad(path, f"members[{k}] ({m['id']}): utilization must be a number or null")
+        if m["id"] in seen:
+            raise _bad(path, f"member id {m['id']!r} appears twice")
+        seen.add(m["id"])
+    return data
+
+
+def _entry(ident: str, before: dict | None, after: dict | None) -> dict:
+    either = after or before or {}
+    return {
+        "id": ident,
+        "name": either.get("name", ident),
+        "status_before": before.get("status") if before else None,
+        "status_after": after.get("status") if after else None,
+        "utilization_before": before.get("utilization") if before else None,
+        "utilization_after": after.get("utilization") if after else None,
+        "section_before": before.get("section") if before else None,
+        "section_after": after.get("section") if after else None,
+    }
+
+
+def compare(baseline: dict, report: dict, threshold: float = DEFAULT_THRESHOLD,
+            baseline_name: str | None = None) -> dict:
+    """The ``changes`` object of ``report`` against ``baseline`` (see the module notes)."""
+    old = {m["id"]: m for m in baseline["members"]}
+    new = {m["id"]: m for m in report["members"]}
+    changes: dict = {
+        "baseline": baseline_name,
+        "threshold": threshold,
+        "new_failures": [], "fixed": [], "new_not_checked": [],
+        "added": [], "removed": [], "utilization_changes": [],
+    }
+    for ident, after in new.items():
+        before = old.get(ident)
+        s_after = after["status"]
+        s_before = before["status"] if before else None
+        if before is None:
+            changes["added"].append(_entry(ident, None, after))
+        if s_after == "fail" and s_before != "fail":
+            changes["new_failures"].append(_entry(ident, before, after))
+        if s_after == "not_checked" and s_before != "not_checked":
+            changes["new_not_checked"].append(_entry(ident, before, after))
+        if s_before == "fail" and s_after == "pass":
+            changes["fixed"].append(_entry(ident, before, after))
+        if before is not None:
+            u0, u1 = before.get("utilization"), after.get("utilization")
+            if u0 is not None and u1 is not None and abs(u1 - u0) > threshold:
+                entry = _entry(ident, before, after)
+                entry["change"] = round(u1 - u0, 4)
+                changes["utilization_changes"].append(entry)
+    changes["removed"] = [_entry(i, m, None) for i, m in old.items() if i not in new]
+    changes["utilization_changes"].sort(key=lambda e: -abs(e["change"]))
+    if baseline.get("design_basis") and baseline.get("design_basis") != report.get(
+            "design_basis"):
+        changes["design_basis_before"] = baseline["design_basis"]
+    changes["counts"] = {k: len(changes[k]) for k in (
+        "new_failures", "fixed", "new_not_checked", "added", "removed",
+        "utilization_changes")}
+    return changes
+
+
+def regressions(changes: dict, allow_not_checked: bool = False) -> int:
+    """How many members got worse: new failures, plus new not-checked unless allowed."""
+    n = len(changes["new_failures"])
+    return n if allow_not_checked else n + len(changes["new_not_checked"])
+
+
+def format_changes(changes: dict, limit: int = 10) -> str:
+    """Terminal lines: counts, then the first entries of each kind."""
+    c = changes["counts"]
+    lines = [
+        f"changes against {changes.get('baseline') or 'the baseline'}: "
+        f"{c['new_failures']} new failures, {c['fixed']} fixed, "
+        f"{c['new_not_checked']} newly not checked, {c['added']} added, "
+        f"{c['removed']} removed, {c['utilization_changes']} utilization changes "
+        f"> {changes['threshold']:g}"
+    ]
+    if "design_basis_before" in changes:
+        lines.append(f"  note: the baseline was checked to {changes['design_basis_before']}")
+
+    def util(x: float | None) -> str:
+        return "-" if x is None else f"{x:.3f}"
+
+    for key, label in (("new_failures", "new failure"), ("new_not_checked", "not checked"),
+                       ("fixed", "fixed"), ("utilization_changes", "changed"),
+                       ("added", "added"), ("removed", "removed")):
+        entries = changes[key]
+        for e in entries[:limit]:
+            lines.append(
+                f"  {label:<12} {e['name'][:24]:<24} {e['id'][:22]:<22} "
+                f"{util(e['utilization_before']):>6} -> {util(e['utilization_after']):<6} "
+                f"{(e['status_before'] or '-'):>11} -> {e['status_after'] or '-'}"
+            )
+        if len(entries) > limit:
+            lines.append(f"  ... and {len(entries) - limit} more {label}")
+    return "\n".join(lines)
