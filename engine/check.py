@@ -141,20 +141,26 @@ def check_members(
         limit_state = np.full(n, "", dtype=object)
         slenderness = Fcr_ = Ae = np.full(n, np.nan)
 
+    # The 0.5L exception is a strength-design (§2.3.1) rule; ASD combinations have no such
+    # option.
     combos = combinations if combinations is not None else default_combinations(
-        method, half_live=half_live)
+        method, half_live=half_live and method == "LRFD")
     gov = governing(m.loads, combos)
     given = ~np.isnan(m.required_strength)
     required = np.where(given, m.required_strength, gov.required)
-    combination = np.where(given, GIVEN_REQUIRED, gov.combination).astype(object)
+    gov_name = np.where(np.equal(gov.combination, None), "", gov.combination)
+    combination = np.where(given, GIVEN_REQUIRED, gov_name).astype(object)
 
     with np.errstate(divide="ignore", invalid="ignore"):
         utilization = required / Pa
 
     status = np.where(utilization <= 1.0, PASS, FAIL).astype(object)
     status[~ok] = NOT_CHECKED
-    for arr in (required, Pa, utilization, slenderness, Fcr_, Ae):
+    # The demand stays known where it can be computed (selection uses it even for a member
+    # whose own section is unusable); everything capacity-related is blanked.
+    for arr in (Pa, utilization, slenderness, Fcr_, Ae):
         arr[~ok] = np.nan
+    required[~ok & gov.no_loads & ~given] = np.nan
     limit_state = np.where(ok, limit_state, "").astype(object)
     combination[~ok] = ""
 

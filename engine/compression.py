@@ -135,7 +135,8 @@ def Fe_flexural_torsional(F_sym: np.ndarray, Fez_: np.ndarray, H: np.ndarray) ->
     """
     s = F_sym + Fez_
     with np.errstate(invalid="ignore", divide="ignore"):
-        root = np.sqrt(np.clip(1.0 - 4.0 * F_sym * Fez_ * H / (s * s), 0.0, None))
+        # 4·F_sym·Fez·H/(F_sym+Fez)² written with ratios <= 1, so no overflow at tiny lengths.
+        root = np.sqrt(np.clip(1.0 - 4.0 * H * (F_sym / s) * (Fez_ / s), 0.0, None))
         out = s / (2.0 * H) * (1.0 - root)
     # Both stresses infinite (zero length): no buckling.
     return np.where(np.isfinite(s), out, np.inf)

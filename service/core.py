@@ -13,6 +13,7 @@ from engine.combinations import custom_combinations
 from engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
 from engine.sections import SectionTable
 from engine.units import force_factor, length_factor, stress_factor
+from service.errors import InputError
 from service.report import build_report
 from service.request import Member, MembersRequest, Profile
 
@@ -118,8 +119,11 @@ def members_from_request(req: MembersRequest) -> MemberTable:
 def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
     """Check every member of a request."""
     members = members_from_request(req)
-    combos = (custom_combinations([c.model_dump() for c in req.combinations])
-              if req.combinations else None)
+    try:
+        combos = (custom_combinations([c.model_dump() for c in req.combinations])
+                  if req.combinations else None)
+    except ValueError as exc:
+        raise InputError(f"combinations: {exc}") from None
     results = check_members(members, req.design_method, combos,
                             half_live=req.half_live_exception, detail=req.detail)
     return members, results
@@ -128,4 +132,5 @@ def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
 def check_request(req: MembersRequest) -> dict:
     """Members request -> report (design.md §3)."""
     members, results = run_request(req)
-    return build_report(members, results, req.units.model_dump(), detail=req.detail)
+    return build_report(members, results, req.units.model_dump(), detail=req.detail,
+                        custom_combinations=bool(req.combinations))

@@ -1,0 +1,184 @@
+"""Section selection: the lightest adequate catalog sections for each member.
+
+Members × candidate shapes are evaluated as one array computation with the same Chapter E
+functions as the check itself (:func:`engine.compression.compressive_strength`), so a
+suggested section is exactly as safe as a checked one.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from engine import catalog
+from engine.compression import available_strength, compressive_strength
+from engine.sections import Kind, SectionTable
+
+DEFAULT_MAX_SUGGESTIONS = 5
+
+
+@dataclass
+class Suggestions:
+    """Per member, the passing candidates lightest first (kip, lb/ft).
+
+    Attributes:
+        index: (n, k) catalog row of each suggestion, -1 past the last one.
+        available_strength: (n, k) φc·Pn or Pn/Ωc of each suggestion.
+        utilization: (n, k) required / available.
+        weight: (n, k) nominal weight, lb/ft.
+    """
+
+    index: np.ndarray
+    available_strength: np.ndarray
+    utilization: np.ndarray
+    weight: np.ndarray
+
+    def for_member(self, i: int, table: SectionTable) -> list[dict]:
+        """Suggestions of member ``i`` as plain dicts (designation, strength, utilization)."""
+        out = []
+        for j in np.flatnonzero(self.index[i] >= 0):
+            out.append({
+                "section": str(table.designation[self.index[i, j]]),
+                "available_strength": float(self.available_strength[i, j]),
+                "utilization": float(self.utilization[i, j]),
+                "weight": float(self.weight[i, j]),
+            })
+        return out
+
+
+def candidate_indices(specs: list[str], *, min_depth: float | None = None,
+                      max_depth: float | None = None) -> np.ndarray:
+    """Catalog rows for families ("W12", "HSS") or designations, within a nominal depth range.
+
+    Raises:
+        ValueError: naming a spec that matches no catalog shape.
+    """
+    rows = []
+    for spec in specs:
+        found = catalog.family_indices(spec)
+        if len(found) == 0:
+            raise ValueError(f"candidate {spec!r} matches no catalog shape")
+        rows.append(found)
+    idx = np.unique(np.concatenate(rows)) if rows else np.empty(0, dtype=np.int64)
+    cat = catalog.load_catalog()
+    idx = idx[cat.kind[idx] != Kind.UNSUPPORTED]
+    depth = catalog.nominal_depth()[idx]
+    keep = np.ones(len(idx), dtype=bool)
+    if min_depth is not None:
+        keep &= depth >= min_depth
+    if max_depth is not None:
+        keep &= depth <= max_depth
+    return idx[keep]
+
+
+def select(
+    required: np.ndarray,
+    Fy: np.ndarray,
+    Lcx: np.ndarray,
+    Lcy: np.ndarray,
+    Lcz: np.ndarray,
+    candidates: np.ndarray,
+    *,
+    allowed: np.ndarray | None = None,
+    method: str = "LRFD",
+    max_utilization: np.ndarray | float = 1.0,
+    max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
+    E: np.ndarray | float = 29000.0,
+    G: np.ndarray | float = 11200.0,
+) -> Suggestions:
+    """Lightest passing candidates for every member (one members × candidates computation).
+
+    Args:
+        required: (n,) required strength, kip (NaN: no suggestion).
+        Fy, Lcx, Lcy, Lcz: (n,) yield stress (ksi) and effective lengths (in).
+        candidates: (m,) catalog rows to try.
+        allowed: optional (n, m) mask of the candidates each member may take.
+        method: "LRFD" or "ASD".
+        max_utilization: the reserve margin: a candidate passes when
+            required / available <= max_utilization.
+        max_suggestions: at most this many per member.
+
+    Order: lightest (catalog weight per length) first; equal weights by higher available
+    strength.
+    """
+    cat = catalog.load_catalog()
+    n, m = len(required), len(candidates)
+    k = max(0, min(max_suggestions, m))
+    if n == 0 or m == 0 or k == 0:
+        empty = np.full((n, k), np.nan)
+        return Suggestions(np.full((n, k), -1), empty, empty.copy(), empty.copy())
+
+    sec = cat.take(np.tile(candidates, n))
+    rep = np.repeat
+    E_ = rep(np.broadcast_to(np.asarray(E, float), (n,)), m)
+    G_ = rep(np.broadcast_to(np.asarray(G, float), (n,)), m)
+    res = compressive_strength(sec, rep(Fy, m), rep(Lcx, m), rep(Lcy, m), rep(Lcz, m), E_, G_)
+    avail = available_strength(res.Pn, method).reshape(n, m)
+    in_scope = res.in_scope.reshape(n, m)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        util = required[:, None] / avail
+    limit = np.broadcast_to(np.asarray(max_utilization, float), (n,))[:, None]
+    ok = in_scope & (util <= limit) & np.isfinite(util)
+    if allowed is not None:
+        ok &= allowed
+    weight = np.broadcast_to(cat.weight[candidates], (n, m))
+    key_weight = np.where(ok, weight, np.inf)
+    order = np.lexsort((-avail, key_weight), axis=-1)[:, :k]
+    picked_ok = np.take_along_axis(ok, order, axis=1)
+    index = np.where(picked_ok, candidates[order], -1)
+
+    def pick(a: np.ndarray) -> np.ndarray:
+        return np.where(picked_ok, np.take_along_axis(a, order, axis=1), np.nan)
+
+    return Suggestions(index=index, available_strength=pick(avail), utilization=pick(util),
+                       weight=pick(weight))
+
+
+def suggest_for_members(
+    m,
+    required: np.ndarray,
+    specs: list[list[str] | None],
+    *,
+    method: str = "LRFD",
+    max_utilization: np.ndarray | float = 1.0,
+    max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
+    min_depth: float | None = None,
+    max_depth: float | None = None,
+) -> tuple[Suggestions, np.ndarray]:
+    """Suggestions for the members of a :class:`~engine.members.MemberTable` that ask for them.
+
+    Args:
+        m: the member table (Fy, unbraced lengths, K factors, E, G are used).
+        required: (n,) required strength, kip.
+        specs: per member, candidate families / designations, or None for no selection.
+        method, max_utilization, max_suggestions, min_depth, max_depth: see :func:`select`.
+
+    Returns:
+        The suggestions for the selected rows and those rows' member indices.
+
+    Raises:
+        ValueError: a candidate matches no catalog shape.
+    """
+    rows = np.array([i for i, s in enumerate(specs) if s], dtype=np.int64)
+    if len(rows) == 0:
+        empty = np.empty((0, 0))
+        return Suggestions(np.empty((0, 0), dtype=np.int64), empty, empty, empty), rows
+    per_member = [candidate_indices(specs[i], min_depth=min_depth, max_depth=max_depth)
+                  for i in rows]
+    union = np.unique(np.concatenate(per_member))
+    allowed = np.zeros((len(rows), len(union)), dtype=bool)
+    for r, idx in enumerate(per_member):
+        allowed[r, np.searchsorted(union, idx)] = True
+    usable = np.isfinite(required[rows]) & (m.Fy[rows] > 0)
+    req = np.where(usable, required[rows], np.nan)
+    limit = np.broadcast_to(np.asarray(max_utilization, float), (len(m),))[rows]
+    sug = select(
+        req, np.where(usable, m.Fy[rows], 50.0),
+        np.nan_to_num(m.kx[rows] * m.lx[rows], nan=1.0),
+        np.nan_to_num(m.ky[rows] * m.ly[rows], nan=1.0),
+        np.nan_to_num(m.kz[rows] * m.lz[rows], nan=1.0),
+        union, allowed=allowed, method=method, max_utilization=limit,
+        max_suggestions=max_suggestions, E=m.E[rows], G=m.G[rows],
+    )
+    return sug, rows
