@@ -1,18 +1,30 @@
-"""``stanchion check INPUT``: check a members JSON file or an IFC model."""
+"""``stanchion check INPUT``: check a members JSON file or an IFC model.
+
+Exit codes (design.md §4): 0 every member passes; 1 any member fails or is not checked
+(``--allow-not-checked``: not-checked members are warnings; ``--fail-on new-failures``: only
+regressions against ``--baseline`` count); 2 unusable input, one line on stderr, nothing
+written.
+"""
 
 from __future__ import annotations
 
 import argparse
 import json
+import sys
 from pathlib import Path
 
 from pydantic import ValidationError
 
+from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline, regressions
 from service.core import check_request
 from service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
-from service.outputs import write_json
-from service.report import format_summary
+from service.outputs import write_outputs
+from service.progress import Progress
 from service.request import MembersRequest
+from service.terminal import format_run, warnings
+
+MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
+FAIL_ON = ("any", "new-failures")
 
 
 def load_members_request(path: Path, method: str | None = None) -> MembersRequest:
@@ -36,35 +48,116 @@ def load_members_request(path: Path, method: str | None = None) -> MembersReques
         raise InputError(f"{path}: {validation_message(exc)}") from None
 
 
-def exit_code(report: dict, allow_not_checked: bool = False) -> int:
-    """0 when every member passes (not-checked members allowed on request), else 1."""
+def exit_code(report: dict, allow_not_checked: bool = False, fail_on: str = "any") -> int:
+    """The exit code of a finished check.
+
+    ``fail_on="any"``: 1 when any member fails or is not checked (not-checked members allowed
+    on request), else 0.  ``fail_on="new-failures"``: 1 only for regressions against the
+    baseline (``report["changes"]``): new failures, and newly not-checked members unless
+    allowed.
+    """
+    if fail_on == "new-failures":
+        changes = report.get("changes")
+        if changes is None:
+            raise InputError("--fail-on new-failures needs --baseline")
+        return EXIT_FAILURES if regressions(changes, allow_not_checked) else EXIT_OK
     s = report["summary"]
     bad = s["fail"] + (0 if allow_not_checked else s["not_checked"])
     return EXIT_FAILURES if bad else EXIT_OK
 
 
+def _check_options(args: argparse.Namespace, is_model: bool) -> None:
+    """Refuse option combinations that cannot work, before anything is read or written."""
+    if args.fail_on == "new-failures" and not args.baseline:
+        raise InputError("--fail-on new-failures needs --baseline")
+    if not args.change_threshold >= 0:
+        raise InputError("--change-threshold must be zero or positive")
+    if not is_model:
+        for option, value in (("--out", args.out), ("--loads", args.loads),
+                              ("--include-members", args.include_members),
+                              ("--units", args.units)):
+            if value:
+                raise InputError(f"{option} applies to IFC models; a members file carries "
+                                 "its own loads and units")
+
+
+def _check_members_file(path: Path, args: argparse.Namespace) -> dict:
+    from service.model_check import check_output_paths
+
+    check_output_paths(path, {"--report": args.report, "--csv": args.csv,
+                              "--junit": args.junit})
+    base = load_baseline(Path(args.baseline)) if args.baseline else None
+    req = load_members_request(path, args.method)
+    report = check_request(req)
+    report["source"] = {"file": path.name, "members": len(report["members"])}
+    if base is not None:
+        report["changes"] = compare(base, report, args.change_threshold,
+                                    Path(args.baseline).name)
+    write_outputs(report, report_path=args.report, csv_path=args.csv, junit_path=args.junit,
+                  allow_not_checked=args.allow_not_checked)
+    return report
+
+
 def run_check(args: argparse.Namespace) -> int:
     """Run the check verb."""
     path = Path(args.input)
-    if path.suffix.lower() == ".ifc":
+    is_model = path.suffix.lower() in MODEL_SUFFIXES
+    _check_options(args, is_model)
+    if is_model:
         from service.model_check import check_model_file
 
+        if not args.quiet:
+            args.progress = Progress(sys.stderr)
         report = check_model_file(path, args)
     else:
-        report = check_request(load_members_request(path, args.method))
-    if args.report:
-        write_json(Path(args.report), report)
+        report = _check_members_file(path, args)
+    code = exit_code(report, args.allow_not_checked, args.fail_on)
     if not args.quiet:
-        print(format_summary(report))
-    return exit_code(report, getattr(args, "allow_not_checked", False))
+        print(format_run(report, fail_on=args.fail_on,
+                         allow_not_checked=args.allow_not_checked))
+        for line in warnings(report, args.allow_not_checked):
+            print(f"stanchion: warning: {line}", file=sys.stderr)
+    return code
 
 
 def add_parser(sub: argparse._SubParsersAction) -> None:
     """Register ``check``."""
-    c = sub.add_parser("check", help="check the members of a members JSON file or IFC model")
-    c.add_argument("input", help="members .json file or .ifc model")
+    c = sub.add_parser(
+        "check", help="check the members of a members JSON file or IFC model",
+        description="Check the columns of an IFC model (.ifc, .ifczip, .ifcxml) or a members "
+        "JSON file. Exit 0: every member passes; 1: a member fails or is not checked; 2: "
+        "unusable input.")
+    c.add_argument("input", help="members .json file or IFC model")
     c.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"],
-                   help="design method (overrides the file)")
-    c.add_argument("--report", metavar="R.json", help="write the JSON report here")
-    c.add_argument("--quiet", action="store_true", help="print nothing but errors")
-    c.set_defaults(func=run_check)
+                   help="design method (overrides the file; default LRFD)")
+    out = c.add_argument_group("outputs")
+    out.add_argument("--out", metavar="CHECKED.ifc",
+                     help="write a copy of the model with a Stanchion_ColumnCheck property "
+                     "set on every column (IFC input; the input is never modified)")
+    out.add_argument("--report", metavar="R.json", help="write the JSON report here")
+    out.add_argument("--csv", metavar="R.csv", help="write one CSV row per member here")
+    out.add_argument("--junit", metavar="J.xml",
+                     help="write JUnit XML here: one test case per member, a suite per storey")
+    out.add_argument("--units", choices=["us", "si"],
+                     help="report units for IFC input: us = kip/ft/ksi (default), "
+                     "si = kN/m/MPa")
+    inp = c.add_argument_group("IFC input")
+    inp.add_argument("--loads", metavar="LOADS.csv",
+                     help="CSV load table: element,D,L,... (element = GlobalId, Tag or Name)")
+    inp.add_argument("--include-members", action="store_true",
+                     help="also check IfcMember elements")
+    gate = c.add_argument_group("pass / fail")
+    gate.add_argument("--baseline", metavar="OLD.json",
+                      help="compare with a previous report: new failures, fixed, added, "
+                      "removed, utilization changes")
+    gate.add_argument("--change-threshold", type=float, default=DEFAULT_THRESHOLD,
+                      metavar="X", help="report utilization changes larger than X "
+                      f"(absolute; default {DEFAULT_THRESHOLD})")
+    gate.add_argument("--fail-on", choices=FAIL_ON, default="any",
+                      help="any (default): exit 1 on any failing or not-checked member; "
+                      "new-failures: exit 1 only on regressions against --baseline")
+    gate.add_argument("--allow-not-checked", action="store_true",
+                      help="not-checked members are warnings, not failures")
+    c.add_argument("--quiet", action="store_true",
+                   help="print nothing but errors (no progress, summary or warnings)")
+    c.set_defaults(func=run_check, progress=None)

@@ -118,10 +118,13 @@ def _case_detail(member: dict, force_unit: str) -> str:
         f"id: {member['id']}",
         f"section: {member.get('section') or 'n/a'}",
         f"status: {member['status']}",
-        f"utilization: {_fmt(member.get('utilization'))}",
-        f"required strength: {_fmt(member.get('required_strength'))} {force_unit}",
-        f"available strength: {_fmt(member.get('available_strength'))} {force_unit}",
     ]
+    if member.get("utilization") is not None:
+        lines += [
+            f"utilization: {_fmt(member['utilization'])}",
+            f"required strength: {_fmt(member.get('required_strength'))} {force_unit}",
+            f"available strength: {_fmt(member.get('available_strength'))} {force_unit}",
+        ]
     for key, label in (("limit_state", "limit state"), ("combination", "combination"),
                        ("reason", "reason")):
         if member.get(key):
@@ -182,7 +185,13 @@ def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
 def write_junit(path: Path, report: dict, allow_not_checked: bool = False) -> None:
     """Write the JUnit XML of :func:`junit_tree`, atomically."""
     tree = junit_tree(report, allow_not_checked)
-    write_atomic(path, lambda tmp: tree.write(tmp, encoding="utf-8", xml_declaration=True))
+
+    def _w(tmp: Path) -> None:
+        tree.write(tmp, encoding="utf-8", xml_declaration=True)
+        with open(tmp, "a", encoding="utf-8") as fh:
+            fh.write("\n")
+
+    write_atomic(path, _w)
 
 
 # ---------------------------------------------------------------------------- IFC models
@@ -204,3 +213,40 @@ def write_model(path: Path, model) -> None:
         write_atomic(path, _zip)
     else:
         write_atomic(path, lambda tmp: model.write(str(tmp), format=".ifc"))
+
+
+def write_model_checked(path: Path, model) -> None:
+    """:func:`write_model`, with a file-system failure as one-line InputError."""
+    from service.errors import InputError
+
+    try:
+        write_model(path, model)
+    except OSError as exc:
+        raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
+
+
+def write_outputs(
+    report: dict,
+    *,
+    report_path: Path | None = None,
+    csv_path: Path | None = None,
+    junit_path: Path | None = None,
+    allow_not_checked: bool = False,
+) -> None:
+    """Write whichever of the JSON report, CSV and JUnit XML files are asked for.
+
+    Raises:
+        InputError: a file cannot be written (one line naming it).
+    """
+    from service.errors import InputError
+
+    jobs = [(report_path, lambda p: write_json(p, report)),
+            (csv_path, lambda p: write_csv(p, report)),
+            (junit_path, lambda p: write_junit(p, report, allow_not_checked))]
+    for path, write in jobs:
+        if path is None:
+            continue
+        try:
+            write(Path(path))
+        except OSError as exc:
+            raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None

@@ -1,0 +1,224 @@
+"""Checking an IFC model end to end: read, check, report, write the checked copy.
+
+:func:`check_model` is the core used by both the command line and the HTTP job worker (no
+argparse here); :func:`check_model_file` is the thin glue for ``stanchion check model.ifc``.
+
+The input file is only ever opened for reading.  The checked model is written to a temporary
+file in the target folder and renamed into place (:func:`service.outputs.write_atomic`); every
+output path is refused when it names the input.  Unusable input -- an unreadable model, a bad
+load table, a malformed baseline -- raises :class:`service.errors.InputError` before anything
+is written.
+"""
+
+from __future__ import annotations
+
+import argparse
+import math
+import os
+from datetime import datetime
+from pathlib import Path
+
+import numpy as np
+
+from engine.check import check_members
+from engine.units import length_factor
+from ifc_bridge.model import ModelReadError, open_model
+from ifc_bridge.write import checked_now, write_results
+from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
+from service.errors import InputError
+from service.outputs import write_model_checked, write_outputs
+from service.progress import Progress, Silent
+from service.report import DISCLAIMER, build_report
+
+#: Report units for IFC models (``--units``).
+UNIT_SYSTEMS: dict[str, dict[str, str]] = {
+    "us": {"force": "kip", "length": "ft", "stress": "ksi"},
+    "si": {"force": "kN", "length": "m", "stress": "MPa"},
+}
+#: Member-table columns copied into the report rows when the reader provides them.
+EXTRA_FIELDS = ("tag", "ifc_class", "profile_source", "length_source", "load_source",
+                "fy_source")
+MODEL_SUFFIXES = (".ifc", ".ifczip")
+
+
+def _same_file(a: Path, b: Path) -> bool:
+    try:
+        if a.exists() and b.exists():
+            return a.samefile(b)
+    except OSError:
+        pass
+    return a.resolve() == b.resolve()
+
+
+def check_output_paths(source: Path, outputs: dict[str, Path | None]) -> None:
+    """Refuse outputs that would overwrite the input or each other (InputError)."""
+    given = {k: Path(v) for k, v in outputs.items() if v is not None}
+    for option, out in given.items():
+        if _same_file(out, source):
+            raise InputError(f"{option} {out} is the input file; the input is never "
+                             "overwritten, choose another name")
+        if out.is_dir():
+            raise InputError(f"{option} {out} is a directory")
+        folder = out.absolute().parent
+        while not folder.exists() and folder != folder.parent:
+            folder = folder.parent
+        if not folder.is_dir() or not os.access(folder, os.W_OK | os.X_OK):
+            raise InputError(f"{option} {out}: cannot write in {folder}")
+    names = list(given.items())
+    for i, (opt_a, a) in enumerate(names):
+        for opt_b, b in names[i + 1:]:
+            if _same_file(a, b):
+                raise InputError(f"{opt_a} and {opt_b} name the same file {a}")
+    model_out = given.get("--out")
+    if model_out is not None and model_out.suffix.lower() not in MODEL_SUFFIXES:
+        raise InputError(f"--out {model_out}: the checked model must end in .ifc or .ifczip")
+
+
+def _read(path: Path, include_members: bool, loads_table: Path | None):
+    from ifc_bridge.read import read_columns
+
+    try:
+        model = open_model(path)
+        return model, read_columns(model, include_members=include_members,
+                                   loads_table=loads_table)
+    except ModelReadError as exc:
+        raise InputError(str(exc)) from None
+
+
+def _add_extra_fields(report: dict, members, length_unit_factor: float) -> None:
+    """Copy reader columns (tag, IFC class, plan position, input sources) into the rows.
+
+    Plan coordinates ``x``, ``y`` come in the model's length unit and are given in the
+    report's length unit.
+    """
+    rows = report["members"]
+    for key in EXTRA_FIELDS:
+        column = members.extra.get(key)
+        if column is not None:
+            for row, value in zip(rows, column.tolist(), strict=True):
+                row[key] = None if value is None else str(value)
+    to_report = length_unit_factor / length_factor(report["units"]["length"])
+    for key in ("x", "y"):
+        column = members.extra.get(key)
+        if column is not None:
+            values = np.asarray(column, dtype=float) * to_report
+            for row, value in zip(rows, values.tolist(), strict=True):
+                row[key] = round(value, 4) if math.isfinite(value) else None
+
+
+def check_model(
+    path: Path,
+    *,
+    method: str = "LRFD",
+    loads_table: Path | None = None,
+    include_members: bool = False,
+    units: str = "us",
+    out_model: Path | None = None,
+    out_report: Path | None = None,
+    out_csv: Path | None = None,
+    out_junit: Path | None = None,
+    baseline: Path | dict | None = None,
+    change_threshold: float = DEFAULT_THRESHOLD,
+    allow_not_checked: bool = False,
+    checked_at: datetime | str | None = "now",
+    progress: Progress | None = None,
+) -> dict:
+    """Check every column of an IFC model and write the requested outputs.
+
+    Args:
+        path: the model (``.ifc``, ``.ifczip``, ``.ifcxml``); never modified.
+        method: "LRFD" or "ASD".
+        loads_table: CSV load table (design.md §5), or None.
+        include_members: also check IfcMember elements.
+        units: report units, "us" (kip / ft / ksi) or "si" (kN / m / MPa).
+        out_model, out_report, out_csv, out_junit: output files (None: not written).
+        baseline: a previous report (path or dict) to compare with; adds ``changes``.
+        change_threshold: utilization change reported against the baseline (absolute).
+        allow_not_checked: JUnit lists not-checked members as skipped instead of failed.
+        checked_at: CheckedAt written into the model: "now" (default), a time, or None.
+        progress: phase reporter (default: silent).
+
+    Returns:
+        The report dict (design.md §3) with ``source`` (and ``changes`` with a baseline).
+
+    Raises:
+        InputError: unreadable model or load table, malformed baseline, bad output paths.
+    """
+    path = Path(path)
+    if units not in UNIT_SYSTEMS:
+        raise InputError(f"units must be one of {', '.join(UNIT_SYSTEMS)}, not {units!r}")
+    check_output_paths(path, {"--out": out_model, "--report": out_report, "--csv": out_csv,
+                              "--junit": out_junit})
+    if loads_table is not None and _same_file(Path(loads_table), path):
+        raise InputError("--loads names the model itself")
+    base = baseline
+    if isinstance(baseline, str | Path):
+        base = load_baseline(Path(baseline))
+    progress = progress or Silent()
+    try:
+        progress.consider(size=path.stat().st_size)
+    except OSError:
+        pass  # open_model names the problem
+
+    with progress.phase(f"reading {path.name}"):
+        model, read = _read(path, include_members, Path(loads_table) if loads_table else None)
+    members = read.members
+    progress.consider(items=len(members))
+    with progress.phase(f"checking {len(members):,} members"):
+        results = check_members(members, method)
+
+    report = build_report(members, results, dict(UNIT_SYSTEMS[units]),
+                          messages=list(read.messages))
+    _add_extra_fields(report, members, read.length_unit_factor)
+    report["source"] = {
+        "file": path.name,
+        "schema": model.schema_identifier,
+        "columns": len(model.by_type("IfcColumn")),
+        "members": len(members),
+        "include_members": include_members,
+        "loads_table": Path(loads_table).name if loads_table else None,
+    }
+    if base is not None:
+        name = Path(baseline).name if isinstance(baseline, str | Path) else None
+        report["changes"] = compare(base, report, change_threshold, name)
+
+    if out_model is not None:
+        stamp = checked_now() if checked_at == "now" else checked_at
+        with progress.phase(f"writing results into {len(members):,} elements"):
+            summary = write_results(
+                model, members, results, design_basis=report["design_basis"],
+                disclaimer=DISCLAIMER, force_unit_factor=read.force_unit_factor,
+                checked_at=stamp, progress=progress.count)
+        if summary.added_force_unit:
+            report["messages"].append(
+                f"the model declared no force unit; {summary.force_unit} was added to its "
+                "units and the strengths are written in it")
+        if summary.missing:
+            report["messages"].append(
+                f"{len(summary.missing)} members have no element in the model; nothing "
+                "written for them")
+        with progress.phase(f"writing {Path(out_model).name}"):
+            write_model_checked(Path(out_model), model)
+    write_outputs(report, report_path=out_report, csv_path=out_csv, junit_path=out_junit,
+                  allow_not_checked=allow_not_checked)
+    return report
+
+
+def check_model_file(path: Path, args: argparse.Namespace) -> dict:
+    """``stanchion check model.ifc``: :func:`check_model` with the command-line options."""
+    return check_model(
+        Path(path),
+        method=args.method or "LRFD",
+        loads_table=getattr(args, "loads", None),
+        include_members=getattr(args, "include_members", False),
+        units=getattr(args, "units", None) or "us",
+        out_model=getattr(args, "out", None),
+        out_report=getattr(args, "report", None),
+        out_csv=getattr(args, "csv", None),
+        out_junit=getattr(args, "junit", None),
+        baseline=getattr(args, "baseline", None),
+        change_threshold=getattr(args, "change_threshold", DEFAULT_THRESHOLD),
+        allow_not_checked=getattr(args, "allow_not_checked", False),
+        progress=getattr(args, "progress", None),
+    )
+

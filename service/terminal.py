@@ -1,0 +1,98 @@
+"""What ``stanchion check`` prints for a person: source, counts, worst members, changes.
+
+Builds on :func:`service.report.format_summary` (counts and the highest utilizations) and adds
+the input line, a per-storey table for models, the baseline comparison and a closing verdict
+that matches the exit code.
+"""
+
+from __future__ import annotations
+
+from collections import Counter
+
+from service.baseline import format_changes, regressions
+from service.report import format_summary
+
+MAX_STOREYS = 20
+MAX_MESSAGES = 5
+
+
+def _source_line(report: dict) -> str | None:
+    src = report.get("source")
+    if not src:
+        return None
+    if "schema" in src:
+        kind = "columns and members" if src.get("include_members") else "columns"
+        loads = f", loads from {src['loads_table']}" if src.get("loads_table") else ""
+        return (f"{src['file']} ({src['schema']}): {src['columns']:,} IfcColumn, "
+                f"{src['members']:,} {kind} checked{loads}")
+    return f"{src['file']}: {src['members']:,} members"
+
+
+def storey_table(report: dict) -> list[str]:
+    """Rows of counts per storey (models only; empty when no member has a storey)."""
+    rows = report["members"]
+    if not any("storey" in r for r in rows):
+        return []
+    table: dict[str, Counter] = {}
+    worst: dict[str, float] = {}
+    for r in rows:
+        key = r.get("storey") or "(no storey)"
+        table.setdefault(key, Counter())[r["status"]] += 1
+        if r.get("utilization") is not None:
+            worst[key] = max(worst.get(key, 0.0), r["utilization"])
+    lines = [f"  {'storey':<24} {'members':>7} {'pass':>6} {'fail':>6} {'n/c':>6} "
+             f"{'max util':>8}"]
+    for key, c in list(table.items())[:MAX_STOREYS]:
+        u = f"{worst[key]:.3f}" if key in worst else "-"
+        lines.append(f"  {key[:24]:<24} {sum(c.values()):>7} {c['pass']:>6} {c['fail']:>6} "
+                     f"{c['not_checked']:>6} {u:>8}")
+    if len(table) > MAX_STOREYS:
+        lines.append(f"  ... and {len(table) - MAX_STOREYS} more storeys")
+    return lines
+
+
+def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False) -> str:
+    """The closing line; agrees with :func:`service.cmd_check.exit_code`."""
+    s = report["summary"]
+    if fail_on == "new-failures" and "changes" in report:
+        n = regressions(report["changes"], allow_not_checked)
+        return (f"result: FAIL ({n} regressions against the baseline)" if n
+                else "result: PASS (no regressions against the baseline)")
+    nc = 0 if allow_not_checked else s["not_checked"]
+    if s["fail"] or nc:
+        parts = [f"{s['fail']} failing"] + ([f"{nc} not checked"] if nc else [])
+        return f"result: FAIL ({', '.join(parts)})"
+    return "result: PASS"
+
+
+def format_run(report: dict, fail_on: str = "any", allow_not_checked: bool = False) -> str:
+    """The full terminal text of one check run."""
+    lines = []
+    source = _source_line(report)
+    if source:
+        lines.append(source)
+    lines.append(format_summary(report))
+    table = storey_table(report)
+    if table:
+        lines.append("by storey:")
+        lines.extend(table)
+    messages = report.get("messages") or []
+    for m in messages[:MAX_MESSAGES]:
+        lines.append(f"note: {m}")
+    if len(messages) > MAX_MESSAGES:
+        lines.append(f"note: ... and {len(messages) - MAX_MESSAGES} more (see the report)")
+    if "changes" in report:
+        lines.append(format_changes(report["changes"]))
+    lines.append(verdict(report, fail_on, allow_not_checked))
+    return "\n".join(lines)
+
+
+def warnings(report: dict, allow_not_checked: bool = False) -> list[str]:
+    """Warnings for stderr: not-checked members when they are allowed (with reason counts)."""
+    if not allow_not_checked or not report["summary"]["not_checked"]:
+        return []
+    reasons = Counter(m.get("reason") or "no reason given" for m in report["members"]
+                      if m["status"] == "not_checked")
+    top = "; ".join(f"{n} x {r}" for r, n in reasons.most_common(3))
+    more = f"; {len(reasons) - 3} other reasons" if len(reasons) > 3 else ""
+    return [f"{report['summary']['not_checked']} members not checked (allowed): {top}{more}"]
