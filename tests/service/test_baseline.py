@@ -1,0 +1,105 @@
+"""Revision comparison against a previous report: what counts as new, fixed, changed.
+
+Reports here are small hand-made dicts; utilizations are arbitrary test numbers (common
+practice, no source) chosen on either side of the 0.05 threshold.
+"""
+
+from __future__ import annotations
+
+import json
+import re
+
+import pytest
+
+from service.baseline import compare, format_changes, load_baseline, regressions
+from service.errors import InputError
+
+
+def _report(*members: tuple[str, str, float | None], basis: str = "basis A") -> dict:
+    return {
+        "design_basis": basis,
+        "members": [{"id": i, "name": f"name-{i}", "section": "W14X48", "status": s,
+                     "utilization": u} for i, s, u in members],
+    }
+
+
+OLD = _report(("A", "pass", 0.70), ("B", "fail", 1.20), ("C", "pass", 0.50),
+              ("D", "not_checked", None), ("E", "pass", 0.90))
+NEW = _report(("A", "pass", 0.76), ("B", "pass", 0.95), ("C", "fail", 1.05),
+              ("D", "not_checked", None), ("F", "fail", 1.10), ("G", "not_checked", None))
+
+
+def _ids(entries: list[dict]) -> list[str]:
+    return [e["id"] for e in entries]
+
+
+def test_compare_finds_every_kind_of_change() -> None:
+    ch = compare(OLD, NEW, threshold=0.05, baseline_name="old.json")
+    assert _ids(ch["new_failures"]) == ["C", "F"]  # C got worse, F is new and fails
+    assert _ids(ch["fixed"]) == ["B"]
+    assert _ids(ch["new_not_checked"]) == ["G"]  # D was already not checked
+    assert _ids(ch["added"]) == ["F", "G"]
+    assert _ids(ch["removed"]) == ["E"]
+    # |0.76-0.70| = 0.06 > 0.05; |0.95-1.20| = 0.25; |1.05-0.50| = 0.55 (largest first)
+    assert _ids(ch["utilization_changes"]) == ["C", "B", "A"]
+    a = ch["utilization_changes"][2]
+    assert a["change"] == pytest.approx(0.06)
+    assert a["utilization_before"] == 0.70 and a["utilization_after"] == 0.76
+    assert ch["counts"]["new_failures"] == 2 and ch["baseline"] == "old.json"
+
+
+def test_threshold_is_an_absolute_difference() -> None:
+    ch = compare(_report(("A", "pass", 0.70)), _report(("A", "pass", 0.74)), threshold=0.05)
+    assert ch["utilization_changes"] == []
+    ch = compare(_report(("A", "pass", 0.70)), _report(("A", "pass", 0.74)), threshold=0.03)
+    assert _ids(ch["utilization_changes"]) == ["A"]
+
+
+def test_regressions_count_new_not_checked_unless_allowed() -> None:
+    ch = compare(OLD, NEW)
+    assert regressions(ch) == 3  # C, F new failures + G newly not checked
+    assert regressions(ch, allow_not_checked=True) == 2
+    same = compare(OLD, OLD)
+    assert regressions(same) == 0 and same["counts"]["utilization_changes"] == 0
+
+
+def test_design_basis_change_is_noted() -> None:
+    ch = compare(OLD, _report(("A", "pass", 0.70), basis="basis B"))
+    assert ch["design_basis_before"] == "basis A"
+    assert "basis A" in format_changes(ch)
+
+
+def test_format_changes_names_members_and_counts() -> None:
+    text = format_changes(compare(OLD, NEW, baseline_name="old.json"))
+    assert "old.json" in text and "2 new failures" in text and "1 fixed" in text
+    assert "name-C" in text and "name-E" in text
+
+
+@pytest.mark.parametrize("content, expected", [
+    ("not json", "not valid JSON"),
+    ("[1, 2]", "no 'members' list"),
+    ('{"members": {}}', "no 'members' list"),
+    ('{"members": [{"status": "pass"}]}', "members[0] has no string 'id'"),
+    ('{"members": [{"id": "A", "status": "ok"}]}', "status must be one of"),
+    ('{"members": [{"id": "A", "status": "pass", "utilization": "high"}]}',
+     "utilization must be a number"),
+    ('{"members": [{"id": "A", "status": "pass"}, {"id": "A", "status": "fail"}]}',
+     "appears twice"),
+])
+def test_malformed_baselines_are_refused_in_one_line(tmp_path, content, expected) -> None:
+    p = tmp_path / "old.json"
+    p.write_text(content)
+    with pytest.raises(InputError, match=re.escape(expected)) as info:
+        load_baseline(p)
+    assert "\n" not in str(info.value) and str(p) in str(info.value)
+
+
+def test_missing_baseline_is_refused(tmp_path) -> None:
+    with pytest.raises(InputError, match="cannot read"):
+        load_baseline(tmp_path / "nope.json")
+
+
+def test_a_real_report_loads(tmp_path) -> None:
+    p = tmp_path / "old.json"
+    p.write_text(json.dumps(OLD))
+    assert load_baseline(p)["members"][0]["id"] == "A"
