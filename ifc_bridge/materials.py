@@ -91,12 +91,28 @@ def _from_select(select: Entity) -> MaterialInfo:
     return MaterialInfo(tuple(materials), profile, "", tuple(notes), problem)
 
 
-def element_material(element: Entity, etype: Entity | None, index: RelationIndex) -> MaterialInfo:
-    """Material of an occurrence, else of its type; a profile set on either is used."""
-    own = index.material.get(element.id())
-    typed = index.material.get(etype.id()) if etype is not None else None
-    a = _from_select(own) if own is not None else None
-    b = _from_select(typed) if typed is not None else None
+def element_material(
+    element: Entity, etype: Entity | None, index: RelationIndex,
+    cache: dict[int, MaterialInfo] | None = None,
+) -> MaterialInfo:
+    """Material of an occurrence, else of its type; a profile set on either is used.
+
+    Args:
+        element, etype: the occurrence and its type (or None).  index: relationship maps.
+        cache: optional {material select id: MaterialInfo} shared between calls.
+    """
+    cache = {} if cache is None else cache
+
+    def unpack(select: Entity | None) -> MaterialInfo | None:
+        if select is None:
+            return None
+        key = select.id()
+        if key not in cache:
+            cache[key] = _from_select(select)
+        return cache[key]
+
+    a = unpack(index.material.get(element.id()))
+    b = unpack(index.material.get(etype.id())) if etype is not None else None
     if a is None and b is None:
         return MaterialInfo()
     if a is None or (a.profile is None and not a.materials):

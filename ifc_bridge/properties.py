@@ -28,6 +28,7 @@ from dataclasses import dataclass, field
 import ifcopenshell
 
 from engine.members import LOAD_TYPES
+from ifc_bridge.access import get, get_opt
 from ifc_bridge.units import ModelUnits
 
 Entity = ifcopenshell.entity_instance
@@ -61,7 +62,7 @@ class PropertyValue:
 def find_definition(definitions: list[Entity], name: str) -> Entity | None:
     """First property set / element quantity called ``name``."""
     for d in definitions:
-        if getattr(d, "Name", None) == name:
+        if get_opt(d, "Name") == name:
             return d
     return None
 
@@ -71,14 +72,15 @@ def single_values(pset: Entity | None) -> dict[str, PropertyValue]:
     out: dict[str, PropertyValue] = {}
     if pset is None or not pset.is_a("IfcPropertySet"):
         return out
-    for prop in pset.HasProperties or ():
+    for prop in get(pset, "HasProperties") or ():
         if not prop.is_a("IfcPropertySingleValue"):
             continue
-        nominal = prop.NominalValue
+        nominal = get(prop, "NominalValue")
+        name, unit = get(prop, "Name"), get(prop, "Unit")
         if nominal is None:
-            out[prop.Name] = PropertyValue(None, None, prop.Unit)
-        else:
-            out[prop.Name] = PropertyValue(nominal.wrappedValue, nominal.is_a(), prop.Unit)
+            out[name] = PropertyValue(None, None, unit)
+        else:  # a typed value wrapper: its only argument is the value
+            out[name] = PropertyValue(nominal.get_argument(0), nominal.is_a(), unit)
     return out
 
 
@@ -162,19 +164,19 @@ class DesignInputs:
     problems: list[str] = field(default_factory=list)
 
 
-def _merged(occurrence: list[Entity], type_defs: list[Entity], name: str):
-    """Single values of set ``name``: the type's, overridden property by property."""
-    values = single_values(find_definition(type_defs, name))
-    values.update(single_values(find_definition(occurrence, name)))
-    return values
-
-
 def design_inputs(
-    occurrence: list[Entity], type_defs: list[Entity], units: ModelUnits
+    occurrence: dict[str, PropertyValue], type_values: dict[str, PropertyValue],
+    units: ModelUnits,
 ) -> DesignInputs:
-    """Read Stanchion_Design from an occurrence and its type (occurrence wins)."""
+    """Read Stanchion_Design (occurrence values win property by property over the type's).
+
+    Args:
+        occurrence, type_values: :func:`single_values` of the occurrence's and the type's
+            Stanchion_Design ({} when absent).
+        units: the model's units.
+    """
     out = DesignInputs()
-    values = _merged(occurrence, type_defs, DESIGN_PSET)
+    values = {**type_values, **occurrence}
     wanted = [(f"K{a}", "ratio", out.k, a) for a in AXES]
     wanted += [(f"UnbracedLength{a}", "length", out.unbraced, a) for a in AXES]
     for prop, quantity, target, axis in wanted:
@@ -208,16 +210,19 @@ def design_inputs(
 
 
 def pset_loads(
-    occurrence: list[Entity], units: ModelUnits
+    values: dict[str, PropertyValue], units: ModelUnits
 ) -> tuple[dict[str, float], list[str], list[str]]:
     """Stanchion_Loads on the column.
+
+    Args:
+        values: :func:`single_values` of the column's Stanchion_Loads ({} when absent).
+        units: the model's units.
 
     Returns:
         ({load type: kip}, member notes, problems).  A load value that cannot be read (text,
         a measure of another quantity) is a problem -- the member is not checked rather than
         checked without that load.
     """
-    values = single_values(find_definition(occurrence, LOADS_PSET))
     loads: dict[str, float] = {}
     notes: list[str] = []
     problems: list[str] = []

@@ -12,6 +12,8 @@ from dataclasses import dataclass, field
 
 import ifcopenshell
 
+from ifc_bridge.access import get
+
 Entity = ifcopenshell.entity_instance
 
 
@@ -58,8 +60,8 @@ class RelationIndex:
         """Scan each relationship class once."""
         index = cls()
         for rel in model.by_type("IfcRelContainedInSpatialStructure"):
-            structure = rel.RelatingStructure
-            for obj in rel.RelatedElements or ():
+            structure = get(rel, "RelatingStructure")
+            for obj in get(rel, "RelatedElements") or ():
                 index.container.setdefault(obj.id(), structure)
         for rel_class, whole_attr, parts_attr in (
             ("IfcRelAggregates", "RelatingObject", "RelatedObjects"),
@@ -70,16 +72,16 @@ class RelationIndex:
                 for part in getattr(rel, parts_attr) or ():
                     index.parent.setdefault(part.id(), whole)
         for rel in model.by_type("IfcRelDefinesByProperties"):
-            defs = _as_list(rel.RelatingPropertyDefinition)
-            for obj in _as_list(rel.RelatedObjects):
+            defs = _as_list(get(rel, "RelatingPropertyDefinition"))
+            for obj in _as_list(get(rel, "RelatedObjects")):
                 index.definitions[obj.id()].extend(defs)
         for rel in model.by_type("IfcRelDefinesByType"):
             rtype = rel.RelatingType
             for obj in rel.RelatedObjects or ():
                 index.type_of[obj.id()] = rtype
         for rel in model.by_type("IfcRelAssociatesMaterial"):
-            mat = rel.RelatingMaterial
-            for obj in rel.RelatedObjects or ():
+            mat = get(rel, "RelatingMaterial")
+            for obj in get(rel, "RelatedObjects") or ():
                 index.material.setdefault(obj.id(), mat)
         for rel in model.by_type("IfcRelAssignsToProduct"):
             product = rel.RelatingProduct

@@ -19,6 +19,8 @@ from dataclasses import dataclass
 
 import ifcopenshell
 
+from ifc_bridge.access import get
+
 Entity = ifcopenshell.entity_instance
 
 #: RepresentationType values of solid-model representations (IFC4 ADD2 TC1 list).
@@ -97,14 +99,14 @@ class ShapeReader:
 
     def read(self, product: Entity) -> ShapeInfo:
         """Extrusions and axis length of ``product`` (empty info when it has no shape)."""
-        shape = getattr(product, "Representation", None)
+        shape = get(product, "Representation")
         if shape is None:
             return ShapeInfo()
-        reps = list(shape.Representations or ())
-        body_reps = [r for r in reps if r.RepresentationIdentifier == "Body"]
-        body_reps += [r for r in reps if r.RepresentationIdentifier != "Body"
-                      and r.RepresentationIdentifier != "Axis"
-                      and r.RepresentationType in SOLID_TYPES]
+        reps = [(get(r, "RepresentationIdentifier"), r) for r in get(shape, "Representations")
+                or ()]
+        body_reps = [r for ident, r in reps if ident == "Body"]
+        body_reps += [r for ident, r in reps if ident not in ("Body", "Axis")
+                      and get(r, "RepresentationType") in SOLID_TYPES]
         extrusions: tuple[Extrusion, ...] = ()
         notes: tuple[str, ...] = ()
         for rep in body_reps:
@@ -112,12 +114,26 @@ class ShapeReader:
             if extrusions:
                 break
         axis_length = None
-        for rep in reps:
-            if rep.RepresentationIdentifier == "Axis":
+        for ident, rep in reps:
+            if ident == "Axis":
                 axis_length = self._axis_of(rep)
                 if axis_length:
                     break
         return ShapeInfo(extrusions, axis_length, notes)
+
+    def read_type(self, etype: Entity | None) -> ShapeInfo:
+        """Extrusions of an element type's Body representation maps (occurrences that carry
+        no representation of their own)."""
+        maps = getattr(etype, "RepresentationMaps", None) if etype is not None else None
+        for rmap in maps or ():
+            rep = rmap.MappedRepresentation
+            if rep is None or rep.RepresentationIdentifier not in ("Body", None):
+                continue
+            extrusions, notes = self._body_of(rep)
+            if extrusions:
+                return ShapeInfo(extrusions, None, notes + ("shape taken from the element "
+                                                            "type's representation map",))
+        return ShapeInfo()
 
     # ------------------------------------------------------------------ body
 
@@ -126,7 +142,7 @@ class ShapeReader:
         if key not in self._body:
             found: list[Extrusion] = []
             notes: list[str] = []
-            for item in rep.Items or ():
+            for item in get(rep, "Items") or ():
                 self._walk(item, 1.0, found, notes, 0)
             self._body[key] = (tuple(found), tuple(dict.fromkeys(notes)))
         return self._body[key]
@@ -136,13 +152,15 @@ class ShapeReader:
         if item is None or level > _MAX_DEPTH:
             return
         if item.is_a("IfcExtrudedAreaSolid"):
-            ratios = item.ExtrudedDirection.DirectionRatios if item.ExtrudedDirection else None
+            direction = get(item, "ExtrudedDirection")
+            ratios = get(direction, "DirectionRatios") if direction is not None else None
             oblique = False
             if ratios:
                 norm = math.sqrt(sum(float(r) ** 2 for r in ratios)) or 1.0
                 oblique = abs(float(ratios[2]) / norm) < 0.9999 if len(ratios) > 2 else True
-            depth = float(item.Depth) * scale if item.Depth is not None else float("nan")
-            found.append(Extrusion(item.SweptArea, depth, scale, oblique,
+            raw = get(item, "Depth")
+            depth = float(raw) * scale if raw is not None else float("nan")
+            found.append(Extrusion(get(item, "SweptArea"), depth, scale, oblique,
                                    item.is_a("IfcExtrudedAreaSolidTapered")))
         elif item.is_a("IfcMappedItem"):
             s, note = _mapping_scale(item.MappingTarget)

@@ -320,7 +320,7 @@ class ModelBuilder:
         if axis and length is not None:
             reps.append(ifcopenshell.api.geometry.add_axis_representation(
                 self.model, context=self.axis,
-                axis=[(0.0, 0.0, 0.0), (0.0, 0.0, self.L(length))]))
+                axis=[(0.0, 0.0, 0.0), (0.0, 0.0, length * 0.0254)]))  # api takes metres
         for rep in reps:
             ifcopenshell.api.geometry.assign_representation(
                 self.model, product=col, representation=rep)

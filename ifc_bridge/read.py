@@ -1,0 +1,452 @@
+"""IFC model -> engine member table: every IfcColumn (optionally STRUT / POST members).
+
+:func:`read_columns` walks each element once, using relationship maps built in one pass
+(:class:`~ifc_bridge.relations.RelationIndex`) and caches for everything shared between
+elements (profiles, mapped representations, materials, load cases).  The section rows are
+then resolved in one vectorized step (:func:`~ifc_bridge.sections.resolve_sections`).
+
+Per member, the extra columns say where each input came from:
+
+* ``profile_source``: ``profile_set/catalog``, ``body/dimensions`` ... (where the profile was
+  found / what the properties are based on), or ``none``;
+* ``length_source``: ``axis``, ``extrusion``, ``quantity``, ``analytical`` or ``none``;
+* ``load_source``: ``analysis``, ``table``, ``pset`` joined with ``+``, or ``none``;
+* ``fy_source``: ``override``, ``material``, ``grade`` or ``none``.
+
+Anything missing makes only that member "not checked" (``reason``), never the whole read.
+"""
+
+from __future__ import annotations
+
+import gc
+import math
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import ifcopenshell
+import ifcopenshell.util.placement
+import numpy as np
+
+from engine.members import LOAD_TYPES, MemberTable
+from engine.sections import SectionTable
+from ifc_bridge.access import get
+from ifc_bridge.grades import match_grade
+from ifc_bridge.lengths import analytical_length, choose_length
+from ifc_bridge.load_cases import AnalysisLoads
+from ifc_bridge.loads import match_table, merge_loads, read_load_table
+from ifc_bridge.materials import MaterialInfo, YieldReader, element_material
+from ifc_bridge.profiles import ProfileSpec, profile_spec
+from ifc_bridge.properties import (
+    AXES,
+    DESIGN_PSET,
+    LOADS_PSET,
+    DesignInputs,
+    PropertyValue,
+    design_inputs,
+    find_definition,
+    pset_loads,
+    quantity_length,
+    single_values,
+)
+from ifc_bridge.relations import RelationIndex
+from ifc_bridge.representation import ShapeInfo, ShapeReader
+from ifc_bridge.sections import SectionRequest, resolve_sections
+from ifc_bridge.units import ModelUnits, read_units
+
+Entity = ifcopenshell.entity_instance
+
+MEMBER_TYPES = ("STRUT", "POST")  # IfcMember predefined types read with include_members
+NO_YIELD = "no yield strength"
+_A1085 = "A1085"
+
+
+@dataclass
+class ReadResult:
+    """What the reader found.
+
+    Attributes:
+        members: the member table (kip, inch, ksi); ``id`` is the GlobalId.
+        messages: model-level warnings (undeclared units, ignored load cases, unmatched
+            load-table rows, "model has no IfcColumn" ...).
+        force_unit_factor: model force unit -> kip (for writing results back).
+        length_unit_factor: model length unit -> inch.
+        pressure_unit_factor: model pressure unit -> ksi.
+        schema: the model's schema identifier.
+        unit_names: human names of the model units (or the assumed SI unit).
+    """
+
+    members: MemberTable
+    messages: list[str]
+    force_unit_factor: float
+    length_unit_factor: float
+    pressure_unit_factor: float = 1.0
+    schema: str = ""
+    unit_names: dict[str, str] = field(default_factory=dict)
+
+
+@dataclass
+class _Row:
+    """Everything gathered for one element before the vectorized steps."""
+
+    element: Entity
+    gid: str
+    name: str
+    tag: str
+    storey: str
+    x: float
+    y: float
+    spec: ProfileSpec | None
+    profile_origin: str
+    material: MaterialInfo
+    length: float
+    length_source: str
+    design: DesignInputs
+    analysis: dict[str, float]
+    pset: dict[str, float]
+    notes: list[str]
+    reasons: list[str]
+
+
+def _predefined(element: Entity, etype: Entity | None) -> str | None:
+    value = getattr(element, "PredefinedType", None)
+    if value in (None, "NOTDEFINED", "USERDEFINED") and etype is not None:
+        value = getattr(etype, "PredefinedType", None) or value
+    return value
+
+
+def select_elements(model: ifcopenshell.file, index: RelationIndex,
+                    include_members: bool) -> list[Entity]:
+    """Every IfcColumn (subtypes included), then STRUT / POST IfcMembers if asked."""
+    elements = list(model.by_type("IfcColumn"))
+    if include_members:
+        for m in model.by_type("IfcMember"):
+            if _predefined(m, index.type_of.get(m.id())) in MEMBER_TYPES:
+                elements.append(m)
+    return elements
+
+
+class _Placements:
+    """Plan position of elements, parent placements cached (util.placement)."""
+
+    def __init__(self) -> None:
+        self._parents: dict[int, np.ndarray] = {}
+
+    def xy(self, element: Entity) -> tuple[float, float]:
+        placement = get(element, "ObjectPlacement")
+        if placement is None:
+            return math.nan, math.nan
+        try:
+            if placement.is_a("IfcLocalPlacement"):
+                location = get(get(placement, "RelativePlacement"), "Location")
+                coords = list(get(location, "Coordinates"))
+                parent = get(placement, "PlacementRelTo")
+                point = np.array((coords + [0.0, 0.0, 0.0])[:3] + [1.0])
+                if parent is None:
+                    return float(point[0]), float(point[1])
+                key = parent.id()
+                if key not in self._parents:
+                    self._parents[key] = ifcopenshell.util.placement.get_local_placement(parent)
+                world = self._parents[key] @ point
+                return float(world[0]), float(world[1])
+            matrix = ifcopenshell.util.placement.get_local_placement(placement)
+            return float(matrix[0, 3]), float(matrix[1, 3])
+        except Exception:  # grid / linear placements this reader does not evaluate
+            return math.nan, math.nan
+
+
+class _Reader:
+    """State shared while reading one model."""
+
+    def __init__(self, model: ifcopenshell.file, units: ModelUnits) -> None:
+        self.model = model
+        self.units = units
+        self.index = RelationIndex.build(model)
+        self.shapes = ShapeReader()
+        self.placements = _Placements()
+        self.analysis = AnalysisLoads(self.index, units)
+        self.yields = YieldReader(model, self.index, units)
+        self._specs: dict[tuple[int, float], ProfileSpec] = {}
+        self._values: dict[int, dict[str, PropertyValue]] = {}
+        self._designs: dict[tuple[int, int], DesignInputs] = {}
+        self._materials: dict[int, MaterialInfo] = {}
+
+    def values(self, definitions: list[Entity], name: str) -> tuple[int, dict]:
+        """(pset id or 0, single values) of the set ``name`` (cached per property set)."""
+        pset = find_definition(definitions, name)
+        if pset is None:
+            return 0, {}
+        key = pset.id()
+        if key not in self._values:
+            self._values[key] = single_values(pset)
+        return key, self._values[key]
+
+    def design(self, occ_defs: list[Entity], type_defs: list[Entity]) -> DesignInputs:
+        """Stanchion_Design inputs, computed once per (occurrence set, type set) pair."""
+        occ_key, occ = self.values(occ_defs, DESIGN_PSET)
+        type_key, typed = self.values(type_defs, DESIGN_PSET)
+        key = (occ_key, type_key)
+        if key not in self._designs:
+            self._designs[key] = design_inputs(occ, typed, self.units)
+        return self._designs[key]
+
+    def spec(self, profile: Entity, scale: float) -> ProfileSpec:
+        key = (profile.id(), scale)
+        if key not in self._specs:
+            self._specs[key] = profile_spec(profile, self.units.length, scale)
+        return self._specs[key]
+
+    def row(self, element: Entity) -> _Row:
+        eid = element.id()
+        etype = self.index.type_of.get(eid)
+        notes: list[str] = []
+        reasons: list[str] = []
+        storey = self.index.storey_of(element)
+        x, y = self.placements.xy(element)
+        occ_defs = self.index.definitions.get(eid, [])
+        type_defs = self.index.property_definitions(etype) if etype is not None else []
+
+        shape = self.shapes.read(element)
+        if not shape.extrusions and etype is not None:
+            shape = ShapeInfo(self.shapes.read_type(etype).extrusions, shape.axis_length,
+                              shape.notes + self.shapes.read_type(etype).notes)
+        notes.extend(shape.notes)
+        material = element_material(element, etype, self.index, self._materials)
+        notes.extend(material.notes)
+        spec, origin = self._profile(material, shape, notes, reasons)
+
+        quantity, qnote = quantity_length(occ_defs, self.units)
+        if quantity is None and type_defs:
+            quantity, qnote = quantity_length(type_defs, self.units)
+        linked = [o for o in self.index.linked.get(eid, ())
+                  if o.is_a("IfcStructuralCurveMember")]
+        length, length_source, lnotes = choose_length(
+            shape, quantity, analytical_length(linked), self.units.length)
+        notes.extend(lnotes)
+        if length_source == "quantity" and qnote:
+            notes.append(qnote)
+
+        design = self.design(occ_defs, type_defs)
+        notes.extend(design.notes)
+        reasons.extend(design.problems)
+        analysis, anotes = self.analysis.for_column(element, linked)
+        notes.extend(anotes)
+        pset, pnotes, pproblems = pset_loads(self.values(occ_defs, LOADS_PSET)[1], self.units)
+        notes.extend(pnotes)
+        reasons.extend(pproblems)
+        gid, name = get(element, "GlobalId"), get(element, "Name")
+        return _Row(
+            element=element, gid=gid, name=name or gid, tag=get(element, "Tag") or "",
+            storey=(get(storey, "Name") or "") if storey else "",
+            x=x, y=y, spec=spec, profile_origin=origin, material=material, length=length,
+            length_source=length_source, design=design, analysis=analysis, pset=pset,
+            notes=notes, reasons=reasons,
+        )
+
+    def _profile(self, material: MaterialInfo, shape: ShapeInfo, notes: list[str],
+                 reasons: list[str]) -> tuple[ProfileSpec | None, str]:
+        if material.problem:
+            reasons.append(material.problem)
+        main = shape.main
+        if material.profile is not None:
+            return self.spec(material.profile, 1.0), "profile_set"
+        if main is not None:
+            if main.tapered:
+                reasons.append("tapered extrusion (IfcExtrudedAreaSolidTapered) is not "
+                               "supported")
+            if main.oblique:
+                notes.append("Body extrusion is oblique to its profile; the profile is taken "
+                             "as the cross-section")
+            if len(shape.extrusions) > 1:
+                notes.append(f"Body has {len(shape.extrusions)} extruded solids; the longest "
+                             "is the column")
+            if main.profile is None:
+                return None, "body"
+            return self.spec(main.profile, main.scale), "body"
+        return None, "none"
+
+    def fy(self, row: _Row, family: str | None, thickness: float | None
+           ) -> tuple[float, str, list[str]]:
+        """Yield stress (ksi), its source and notes -- precedence in ifc_bridge.materials."""
+        notes: list[str] = []
+        if row.design.fy is not None:
+            notes.append(f"Fy = {row.design.fy:.4g} ksi from Stanchion_Design.YieldStress "
+                         "(override)")
+            return row.design.fy, "override", notes
+        for mat in row.material.materials:
+            value, where, mnotes = self.yields.material_yield(mat)
+            notes.extend(mnotes)
+            if value is not None:
+                notes.append(f"Fy = {value:.4g} ksi from {where}")
+                return value, "material", notes
+        for mat in row.material.materials:
+            text = " ".join(t for t in (mat.Name, getattr(mat, "Description", None)) if t)
+            found, gnotes = match_grade(text, family, thickness)
+            notes.extend(gnotes)
+            if found is not None:
+                notes.append(found.note)
+                return found.fy, "grade", notes
+        return math.nan, "none", notes
+
+
+def _default_note(design: DesignInputs) -> str | None:
+    parts = []
+    k_missing = [f"K{a}" for a in AXES if a not in design.k]
+    l_missing = [f"L{a.lower()}" for a in AXES if a not in design.unbraced]
+    if k_missing:
+        parts.append(" = ".join(k_missing) + " = 1.0")
+    if l_missing:
+        parts.append(" = ".join(l_missing) + " = member length")
+    return ("defaults used (no Stanchion_Design value): " + "; ".join(parts)) if parts else None
+
+
+def _material_text(info: MaterialInfo) -> str:
+    return " ".join(t for m in info.materials for t in (m.Name, getattr(m, "Description", None))
+                    if t)
+
+
+EXTRA_COLUMNS = ("global_id", "tag", "storey", "x", "y", "ifc_class", "length_source",
+                 "profile_source", "load_source", "fy_source")
+
+
+def _extra_arrays(extra: dict[str, list]) -> dict[str, np.ndarray]:
+    return {key: np.array(extra[key], dtype=float if key in ("x", "y") else object)
+            for key in EXTRA_COLUMNS}
+
+
+def read_columns(
+    model: ifcopenshell.file,
+    *,
+    include_members: bool = False,
+    loads_table: str | Path | None = None,
+) -> ReadResult:
+    """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
+
+    Args:
+        model: an opened model (:func:`ifc_bridge.model.open_model`); not modified.
+        include_members: also read IfcMember elements whose predefined type (own or of
+            their type) is STRUT or POST.
+        loads_table: optional CSV load table (see :mod:`ifc_bridge.loads`).
+
+    Returns:
+        :class:`ReadResult`.
+
+    Raises:
+        LoadTableError: the load table cannot be used (a :class:`ModelReadError`).
+    """
+    # The read creates many small, acyclic objects; the cyclic garbage collector's repeated
+    # scans of them would cost about a third of the run on large models.
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        return _read(model, include_members, loads_table)
+    finally:
+        if was_enabled:
+            gc.enable()
+
+
+def _read(model: ifcopenshell.file, include_members: bool,
+          loads_table: str | Path | None) -> ReadResult:
+    units = read_units(model)
+    table = read_load_table(loads_table, units) if loads_table is not None else None
+    reader = _Reader(model, units)
+    elements = select_elements(model, reader.index, include_members)
+    messages: list[str] = []
+    if not elements:
+        what = "IfcColumn or STRUT / POST IfcMember" if include_members else "IfcColumn"
+        messages.append(f"model has no {what}")
+    else:
+        units.note_use("length")
+    rows = [reader.row(e) for e in elements]
+
+    requests = []
+    for r in rows:
+        spec = r.spec or ProfileSpec("none", None, None, problem="no profile")
+        requests.append(SectionRequest(spec, _A1085 in _material_text(r.material).upper()))
+    res = resolve_sections(requests)
+
+    matched = None
+    if table is not None:
+        matched = match_table(table, [r.gid for r in rows], [r.tag for r in rows],
+                              [r.element.Name for r in rows])
+        if table.used_model_unit and table.rows:
+            units.note_use("force")
+    n = len(rows)
+    fy = np.full(n, math.nan)
+    length = np.full(n, math.nan)
+    k = {a: np.ones(n) for a in AXES}
+    unbraced = {a: np.full(n, math.nan) for a in AXES}
+    loads = np.full((n, len(LOAD_TYPES)), math.nan)
+    reasons: list[str | None] = []
+    member_messages: list[list[str]] = []
+    extra: dict[str, list] = {key: [] for key in EXTRA_COLUMNS}
+    for i, r in enumerate(rows):
+        notes = list(r.notes)
+        why = list(r.reasons)
+        if r.spec is None:
+            why.insert(0, "no profile (no material profile set and no Body extrusion found)")
+        elif res.reasons[i]:
+            why.insert(0, res.reasons[i])
+        notes.extend(res.notes[i])
+        family = r.spec.family if r.spec is not None else None
+        value, fy_source, fnotes = reader.fy(r, family, res.thickness[i])
+        notes.extend(fnotes)
+        fy[i] = value
+        if fy_source == "none":
+            why.append(f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield "
+                       "stress and no recognised grade in the material name)")
+        length[i] = r.length
+        for a in AXES:
+            k[a][i] = r.design.k.get(a, 1.0)
+            unbraced[a][i] = r.design.unbraced.get(a, r.length)
+        if not all(math.isfinite(unbraced[a][i]) for a in AXES):
+            why.append("no length (no Axis or Body extrusion, no Length quantity and no "
+                       "analysis member)")
+        default = _default_note(r.design)
+        if default:
+            notes.append(default)
+        by_source = {"analysis": r.analysis, "pset": r.pset}
+        if matched is not None:
+            by_source["table"] = matched.by_member.get(i, {})
+        values, used, lnotes = merge_loads(by_source)
+        loads[i] = values
+        notes.extend(lnotes)
+        if not used:
+            why.append("no loads (no analysis results, load table row or Stanchion_Loads)")
+        basis = res.basis[i] if res.index[i] >= 0 else ""
+        extra["global_id"].append(r.gid)
+        extra["tag"].append(r.tag)
+        extra["storey"].append(r.storey)
+        extra["x"].append(r.x)
+        extra["y"].append(r.y)
+        extra["ifc_class"].append(r.element.is_a())
+        extra["length_source"].append(r.length_source)
+        extra["profile_source"].append(
+            f"{r.profile_origin}/{basis}" if basis else r.profile_origin)
+        extra["load_source"].append("+".join(used) if used else "none")
+        extra["fy_source"].append(fy_source)
+        reasons.append("; ".join(dict.fromkeys(why)) if why else None)
+        member_messages.append(list(dict.fromkeys(notes)))
+
+    if matched is not None:
+        messages.extend(matched.messages)
+    messages.extend(reader.analysis.model_messages)
+    messages.extend(units.warnings)
+    if n == 0:
+        members = MemberTable.build([], SectionTable.empty(), np.zeros(0, dtype=np.int64),
+                                    np.zeros(0), np.zeros(0), extra=_extra_arrays(extra))
+    else:
+        members = MemberTable.build(
+            [r.gid for r in rows], res.sections, res.index, fy, length,
+            name=[r.name for r in rows],
+            section_label=[r.spec.label if r.spec is not None else "" for r in rows],
+            lx=unbraced["X"], ly=unbraced["Y"], lz=unbraced["Z"],
+            kx=k["X"], ky=k["Y"], kz=k["Z"],
+            loads=loads, reason=reasons, messages=member_messages,
+            extra=_extra_arrays(extra),
+        )
+    return ReadResult(
+        members=members, messages=messages, force_unit_factor=units.force,
+        length_unit_factor=units.length, pressure_unit_factor=units.pressure,
+        schema=model.schema_identifier if hasattr(model, "schema_identifier") else model.schema,
+        unit_names=dict(units.names),
+    )
