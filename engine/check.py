@@ -126,10 +126,9 @@ def check_members(
     E = np.where(ok, m.E, 29000.0)
     G = np.where(ok, m.G, 11200.0)
 
-    messages = [list(x) for x in m.messages]
+    messages = list(m.messages)  # rows that gain a message get a new list (_advisories)
     if len(m.sections) and ok.any():
-        sec = m.sections.take(idx)
-        comp = compressive_strength(sec, Fy, kx * lx, ky * ly, kz * lz, E, G)
+        comp = compressive_strength(m.sections, Fy, kx * lx, ky * ly, kz * lz, E, G, index=idx)
         out_of_scope = ok & ~comp.in_scope
         reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
         ok &= comp.in_scope
@@ -194,9 +193,8 @@ def _advisories(
 ) -> None:
     """Append warnings that do not change the status (loops only over flagged members)."""
     for i in np.flatnonzero(ok & (slenderness > SLENDERNESS_ADVISORY)):
-        messages[i].append(
-            f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "
-            "(AISC 360-22 E2 user note); review the member"
-        )
+        messages[i] = [*messages[i],
+                       f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "
+                       "(AISC 360-22 E2 user note); review the member"]
     for i in np.flatnonzero(ok & ~given & (gov_index < 0)):
-        messages[i].append("no load combination produces compression")
+        messages[i] = [*messages[i], "no load combination produces compression"]

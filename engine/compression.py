@@ -26,7 +26,8 @@ from engine.sections import Kind, SectionTable, class_coefficients
 
 PHI_C = 0.90  # AISC 360-22 E1, LRFD resistance factor for compression
 OMEGA_C = 1.67  # AISC 360-22 E1, ASD safety factor for compression
-SLENDERNESS_ADVISORY = 200.0  # AISC 360-22 E2 user note: Lc/r preferably not over 200
+SLENDERNESS_ADVISORY = 200.0
+_LN_0658 = float(np.log(0.658))  # AISC 360-22 E2 user note: Lc/r preferably not over 200
 
 
 class LimitState(IntEnum):
@@ -59,8 +60,11 @@ def Fe_flexural(E: np.ndarray, Lc_r: np.ndarray) -> np.ndarray:
 
 
 def Fcr_inelastic(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
-    """Critical stress when Fy/Fe <= 2.25: Fcr = 0.658^(Fy/Fe) · Fy.  AISC 360-22 Eq. E3-2."""
-    return np.power(0.658, Fy / Fe) * Fy
+    """Critical stress when Fy/Fe <= 2.25: Fcr = 0.658^(Fy/Fe) · Fy.  AISC 360-22 Eq. E3-2.
+
+    Evaluated as exp(ln 0.658 · Fy/Fe), the same number, faster than a power.
+    """
+    return np.exp(_LN_0658 * (Fy / Fe)) * Fy
 
 
 def Fcr_elastic(Fe: np.ndarray) -> np.ndarray:
@@ -74,8 +78,11 @@ def Fcr(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
     AISC 360-22 Section E3(a)/(b); also used by E4 and E7 with the governing Fe.
     """
     with np.errstate(divide="ignore", invalid="ignore"):
-        ratio = Fy / Fe
-        return np.where(ratio <= 2.25, Fcr_inelastic(Fy, Fe), Fcr_elastic(Fe))
+        out = Fcr_inelastic(Fy, Fe)
+        elastic = np.flatnonzero(Fy > 2.25 * Fe)
+        if len(elastic):
+            out[elastic] = Fcr_elastic(np.take(Fe, elastic))
+        return out
 
 
 def Pn(Fcr_: np.ndarray, area: np.ndarray) -> np.ndarray:
@@ -175,21 +182,22 @@ def be_reduced(b: np.ndarray, c1: np.ndarray, Fel_: np.ndarray, Fcr_: np.ndarray
 
 
 def element_deduction(
-    b: np.ndarray, t: np.ndarray, n: np.ndarray, cls: np.ndarray,
-    E: np.ndarray, Fy: np.ndarray, Fcr_: np.ndarray,
+    b: np.ndarray, t: np.ndarray, n: np.ndarray, k: np.ndarray, c1: np.ndarray,
+    c2: np.ndarray, E: np.ndarray, Fy: np.ndarray, Fcr_: np.ndarray,
 ) -> np.ndarray:
     """Area lost to local buckling by one element group: n·(b − be)·t.
 
-    AISC 360-22 Section E7.1: Ae is Ag less the ineffective part of each slender element.
+    AISC 360-22 Section E7.1: Ae is Ag less the ineffective part of each slender element;
+    ``k``, ``c1``, ``c2`` are the element's λr coefficient (Table B4.1a) and Table E7.1
+    factors.  be follows E7-3 where λ > λr·√(Fy/Fcr), else E7-2 (no deduction).
     """
-    k, c1, c2 = class_coefficients(cls)
     with np.errstate(divide="ignore", invalid="ignore"):
         lam = b / t
         lam_r = lambda_r(k, E, Fy)
-        slender = (n > 0) & np.isfinite(lam_r) & (lam > lam_r * np.sqrt(Fy / Fcr_))
-        be = np.where(slender, be_reduced(b, c1, Fel(c2, lam_r, lam, Fy), Fcr_), be_full(b))
-    be = np.minimum(be, b)
-    return np.where(slender, n * (b - be) * t, 0.0)
+        slender = (n > 0) & (lam > lam_r * np.sqrt(Fy / Fcr_))
+        be = np.minimum(be_reduced(b, c1, Fel(c2, lam_r, lam, Fy), Fcr_), be_full(b))
+        lost = n * (b - be) * t
+    return np.where(slender, lost, 0.0)
 
 
 def Ae_round_compact(Ag: np.ndarray) -> np.ndarray:
@@ -249,6 +257,37 @@ class CompressionResult:
         return np.where(self.slender, names + " (slender elements)", names)
 
 
+CHUNK = 65536  # members per block: keeps the temporaries in cache
+
+
+@dataclass
+class _RowConstants:
+    """Per-section-row constants used by every block (computed once per call)."""
+
+    kind: np.ndarray  # int8 Kind codes
+    inv_rx: np.ndarray  # 1/rx, 1/ry
+    inv_ry: np.ndarray
+    ro2: np.ndarray  # r̄o² (E4-9) and H (E4-8), for tees and channels
+    H: np.ndarray
+    groups: tuple[tuple[np.ndarray, ...], ...]  # per element group: (λ, λ², k², k, c1, c2)
+    round_: np.ndarray
+
+    @classmethod
+    def of(cls, sec: SectionTable) -> _RowConstants:
+        with np.errstate(divide="ignore", invalid="ignore"):
+            inv_rx, inv_ry = 1.0 / sec.rx, 1.0 / sec.ry
+            ro2 = ro_bar_squared(sec.xo, sec.yo, sec.Ix, sec.Iy, sec.A)
+            H = H_flexural_constant(sec.xo, sec.yo, ro2)
+        groups = []
+        for b, t, n, c in ((sec.b1, sec.t1, sec.n1, sec.cls1), (sec.b2, sec.t2, sec.n2, sec.cls2)):
+            with np.errstate(divide="ignore", invalid="ignore"):
+                lam = np.where(n > 0, b / t, 0.0)
+            k, c1, c2 = class_coefficients(c)
+            groups.append((lam, lam * lam, k * k, k, c1, c2))
+        return cls(sec.kind.astype(np.int8), inv_rx, inv_ry, ro2, H, tuple(groups),
+                   sec.kind == Kind.ROUND_HSS)
+
+
 def compressive_strength(
     sec: SectionTable,
     Fy: np.ndarray,
@@ -257,78 +296,116 @@ def compressive_strength(
     Lcz: np.ndarray,
     E: np.ndarray | float = 29000.0,
     G: np.ndarray | float = 11200.0,
+    index: np.ndarray | None = None,
 ) -> CompressionResult:
     """Nominal compressive strength Pn of every member (AISC 360-22 Chapter E).
 
     Args:
-        sec: section rows, one per member (``catalog.take(index)``).
+        sec: section rows: one per member, or (with ``index``) the table members point into.
         Fy: yield stress, ksi.
         Lcx, Lcy, Lcz: effective lengths K·L for x, y and torsion, in.
         E, G: moduli, ksi.
+        index: optional row of ``sec`` for each member (avoids gathering whole rows).
+
+    Members are processed in blocks of :data:`CHUNK`; within a block every limit state is
+    evaluated on the members it applies to (E4 on open shapes, E4-3 on tees and channels,
+    E7 on members whose elements exceed λr) with the equation functions above.
     """
     Fy = np.asarray(Fy, dtype=float)
-    n = len(sec)
+    n = len(Fy)
     E = np.broadcast_to(np.asarray(E, dtype=float), (n,))
     G = np.broadcast_to(np.asarray(G, dtype=float), (n,))
-    kind = sec.kind
-    Ag = sec.A
+    Lcx, Lcy, Lcz = (np.broadcast_to(np.asarray(a, dtype=float), (n,)) for a in (Lcx, Lcy, Lcz))
+    limits = _RowConstants.of(sec)
+    out = CompressionResult(
+        Pn=np.empty(n), Fcr=np.empty(n), Fe=np.empty(n), Ae=np.empty(n), Ag=np.empty(n),
+        slenderness=np.empty(n), limit_state=np.empty(n, dtype=np.int64),
+        slender=np.empty(n, dtype=bool), in_scope=np.empty(n, dtype=bool),
+    )
+    for start in range(0, n, CHUNK):
+        sl = slice(start, min(n, start + CHUNK))
+        rows = index[sl] if index is not None else np.arange(sl.start, sl.stop)
+        _block(sec, limits, rows, Fy[sl], Lcx[sl], Lcy[sl], Lcz[sl], E[sl], G[sl], out, sl)
+    return out
 
-    with np.errstate(divide="ignore", invalid="ignore"):
-        Lcx_rx = Lcx / sec.rx
-        Lcy_ry = Lcy / sec.ry
+
+def _block(
+    sec: SectionTable, lim: _RowConstants, rows: np.ndarray, Fy: np.ndarray,
+    Lcx: np.ndarray, Lcy: np.ndarray, Lcz: np.ndarray, E: np.ndarray, G: np.ndarray,
+    out: CompressionResult, sl: slice,
+) -> None:
+    """Chapter E for one block of members (results written into ``out[sl]``).
+
+    Written for speed: integer gathers (np.take) and masked updates on the members a limit
+    state applies to, no boolean-mask copies of whole blocks.
+    """
+    take = np.take
+    kind = take(lim.kind, rows)
+    Ag = take(sec.A, rows)
+    with np.errstate(invalid="ignore"):
+        Lcx_rx = Lcx * take(lim.inv_rx, rows)
+        Lcy_ry = Lcy * take(lim.inv_ry, rows)
     Fex = Fe_flexural(E, Lcx_rx)
     Fey = Fe_flexural(E, Lcy_ry)
+    # E3: the smaller of the two axes (x wins ties).
+    Fe = np.minimum(Fex, Fey)
+    mode = (Fey < Fex).astype(np.int64)
 
-    is_i = kind == Kind.I_SHAPE
-    is_tee = kind == Kind.TEE
-    is_channel = kind == Kind.CHANNEL
-    singly = is_tee | is_channel
+    def lower(sub: np.ndarray, F: np.ndarray, code: LimitState, ties: bool = False) -> None:
+        low = np.flatnonzero(F <= take(Fe, sub) if ties else F < take(Fe, sub))
+        if len(low):
+            at = take(sub, low)
+            Fe[at] = take(F, low)
+            mode[at] = code
 
-    modes = np.full((n, 4), np.inf)
-    modes[:, LimitState.FLEXURAL_X] = Fex
-    modes[:, LimitState.FLEXURAL_Y] = Fey
-    if is_i.any():
-        modes[is_i, LimitState.TORSIONAL] = Fe_torsional(
-            E[is_i], G[is_i], sec.Cw[is_i], sec.J[is_i], Lcz[is_i], sec.Ix[is_i], sec.Iy[is_i]
-        )
-    if singly.any():
-        s = singly
-        ro2 = ro_bar_squared(sec.xo[s], sec.yo[s], sec.Ix[s], sec.Iy[s], Ag[s])
-        H = H_flexural_constant(sec.xo[s], sec.yo[s], ro2)
-        fez = Fez(E[s], G[s], sec.Cw[s], sec.J[s], Lcz[s], Ag[s], ro2)
-        f_sym = np.where(is_tee[s], Fey[s], Fex[s])
-        modes[s, LimitState.FLEXURAL_TORSIONAL] = Fe_flexural_torsional(f_sym, fez, H)
+    # E4-2: torsional buckling of doubly symmetric open shapes.
+    sub = np.flatnonzero(kind == Kind.I_SHAPE)
+    if len(sub):
+        r = take(rows, sub)
+        Ft = Fe_torsional(take(E, sub), take(G, sub), take(sec.Cw, r), take(sec.J, r),
+                          take(Lcz, sub), take(sec.Ix, r), take(sec.Iy, r))
+        lower(sub, Ft, LimitState.TORSIONAL)
 
-    governing = np.argmin(modes, axis=1)
-    Fe = np.take_along_axis(modes, governing[:, None], axis=1)[:, 0]
+    # E4-3: flexural-torsional buckling of tees (about y) and channels (about x).
+    sub = np.flatnonzero((kind == Kind.TEE) | (kind == Kind.CHANNEL))
+    if len(sub):
+        r = take(rows, sub)
+        fez = Fez(take(E, sub), take(G, sub), take(sec.Cw, r), take(sec.J, r),
+                  take(Lcz, sub), take(Ag, sub), take(lim.ro2, r))
+        f_sym = np.where(take(kind, sub) == Kind.TEE, take(Fey, sub), take(Fex, sub))
+        lower(sub, Fe_flexural_torsional(f_sym, fez, take(lim.H, r)),
+              LimitState.FLEXURAL_TORSIONAL, ties=True)
+
     Fcr_ = Fcr(Fy, Fe)
 
-    # E7: effective area.
-    is_round = kind == Kind.ROUND_HSS
-    # Round walls have class ROUND_WALL (no λr of this form): handled by E7-6/E7-7 below.
-    deduction = element_deduction(sec.b1, sec.t1, sec.n1, sec.cls1, E, Fy, Fcr_)
-    deduction += element_deduction(sec.b2, sec.t2, sec.n2, sec.cls2, E, Fy, Fcr_)
-    Ae = Ag - deduction
+    # E7: only elements beyond λr can lose area (λ > λr ⇔ λ²·Fy > k²·E).
+    EF = E / Fy
+    Ae = Ag.copy()
     in_scope = kind != Kind.UNSUPPORTED
-    if is_round.any():
-        with np.errstate(divide="ignore", invalid="ignore"):
-            D_t = sec.b1[is_round] / sec.t1[is_round]
-        Ae_r = Ae_round(E[is_round], Fy[is_round], D_t, Ag[is_round])
-        Ae[is_round] = Ae_r
-        in_scope[is_round] = np.isfinite(Ae_r)
+    groups = ((sec.b1, sec.t1, sec.n1), (sec.b2, sec.t2, sec.n2))
+    for (b, t, n), (_, lam2, k2, k, c1, c2) in zip(groups, lim.groups, strict=True):
+        sub = np.flatnonzero(take(lam2, rows) > take(k2, rows) * EF)
+        if len(sub):
+            r = take(rows, sub)
+            Ae[sub] -= element_deduction(take(b, r), take(t, r), take(n, r), take(k, r),
+                                         take(c1, r), take(c2, r), take(E, sub),
+                                         take(Fy, sub), take(Fcr_, sub))
+    sub = np.flatnonzero(take(lim.round_, rows))
+    if len(sub):
+        Ae_r = Ae_round(take(E, sub), take(Fy, sub), take(lim.groups[0][0], take(rows, sub)),
+                        take(Ag, sub))
+        Ae[sub] = Ae_r
+        in_scope[sub] = np.isfinite(Ae_r)
 
-    slender = Ae < Ag * (1.0 - 1e-12)
-    return CompressionResult(
-        Pn=Pn(Fcr_, Ae),
-        Fcr=Fcr_,
-        Fe=Fe,
-        Ae=Ae,
-        Ag=Ag,
-        slenderness=np.fmax(Lcx_rx, Lcy_ry),
-        limit_state=governing,
-        slender=slender,
-        in_scope=in_scope,
-    )
+    out.Pn[sl] = Pn(Fcr_, Ae)
+    out.Fcr[sl] = Fcr_
+    out.Fe[sl] = Fe
+    out.Ae[sl] = Ae
+    out.Ag[sl] = Ag
+    np.fmax(Lcx_rx, Lcy_ry, out=out.slenderness[sl])
+    out.limit_state[sl] = mode
+    np.less(Ae, Ag * (1.0 - 1e-12), out=out.slender[sl])
+    out.in_scope[sl] = in_scope
 
 
 def available_strength(Pn_: np.ndarray, method: str) -> np.ndarray:
