@@ -23,9 +23,12 @@ from pathlib import Path
 from typing import Annotated, Any
 
 from fastapi import Depends, FastAPI, Query, Request
+from fastapi.concurrency import run_in_threadpool
 from fastapi.exceptions import RequestValidationError
+from fastapi.openapi.utils import get_openapi
 from fastapi.responses import FileResponse, JSONResponse, Response
 from fastapi.security import HTTPBearer
+from pydantic import ValidationError
 from starlette.exceptions import HTTPException
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
@@ -64,19 +67,24 @@ def _loc(parts: tuple | list) -> str:
     return ".".join(str(p) for p in parts) or "request"
 
 
-async def _validation_error(_: Request, exc: RequestValidationError) -> JSONResponse:
+def _invalid(errors: list[dict]) -> JSONResponse:
+    """422 ``{"error", "details": [{"loc": "members.0.fy", "msg"}]}`` from pydantic errors."""
     details = []
-    for err in exc.errors():
-        msg = str(err.get("msg", "invalid value"))
+    for err in errors:
+        msg = str(err.get("msg", "invalid value")).removeprefix("Value error, ")
         if err.get("type") == "json_invalid":
             ctx = err.get("ctx") or {}
-            msg = f"the body is not valid JSON ({ctx.get('error', 'decode error')})"
-            details.append({"loc": "body", "msg": msg})
+            reason = ctx.get("error") or msg.removeprefix("Invalid JSON: ")
+            details.append({"loc": "body", "msg": f"the body is not valid JSON ({reason})"})
             continue
-        details.append({"loc": _loc(err.get("loc", ())), "msg": msg.removeprefix("Value error, ")})
+        details.append({"loc": _loc(err.get("loc", ())), "msg": msg})
     first = details[0] if details else {"loc": "request", "msg": "invalid"}
     more = f" (and {len(details) - 1} more)" if len(details) > 1 else ""
     return _error(422, f"invalid request: {first['loc']}: {first['msg']}{more}", details=details)
+
+
+async def _validation_error(_: Request, exc: RequestValidationError) -> JSONResponse:
+    return _invalid(list(exc.errors()))
 
 
 async def _http_error(_: Request, exc: HTTPException) -> JSONResponse:
@@ -230,7 +238,34 @@ def create_app(settings: Settings | None = None, *,
     app.add_exception_handler(HTTPException, _http_error)
     app.add_exception_handler(Exception, _internal_error)
     _add_routes(app)
+    app.openapi = lambda: _openapi(app)  # type: ignore[method-assign]
     return app
+
+
+def _check_body(body: bytes) -> Response:
+    """Members request JSON -> report response (422 for a malformed request)."""
+    try:
+        req = MembersRequest.model_validate_json(body)
+    except ValidationError as exc:
+        return _invalid(exc.errors())
+    try:
+        report = check_request(req)
+    except InputError as exc:
+        return _error(422, str(exc))
+    return JSONResponse(report)
+
+
+def _openapi(app: FastAPI) -> dict:
+    """The OpenAPI document, with the members request schema the checks route reads."""
+    if app.openapi_schema is None:
+        schema = get_openapi(title=app.title, version=app.version, summary=app.summary,
+                             routes=app.routes)
+        request = MembersRequest.model_json_schema(ref_template="#/components/schemas/{model}")
+        components = schema.setdefault("components", {}).setdefault("schemas", {})
+        components.update(request.pop("$defs", {}))
+        components["MembersRequest"] = request
+        app.openapi_schema = schema
+    return app.openapi_schema
 
 
 def _store(request: Request) -> JobStore:
@@ -275,13 +310,14 @@ def _add_routes(app: FastAPI) -> None:  # noqa: C901 - one place for the route t
 
     @app.post("/v1/checks", tags=["checks"], dependencies=auth,
               summary="Check a members request (design.md §2) and return the report (§3)",
+              openapi_extra={"requestBody": {"required": True, "content": {
+                  "application/json": {"schema": {
+                      "$ref": "#/components/schemas/MembersRequest"}}}}},
               responses={422: {"description": "malformed request; details name the fields"}})
-    def checks(body: MembersRequest) -> JSONResponse:
-        try:
-            report = check_request(body)
-        except InputError as exc:
-            raise HTTPException(422, str(exc)) from None
-        return JSONResponse(report)
+    async def checks(request: Request) -> Response:
+        # The raw body is validated by pydantic in one pass (model_validate_json), in the
+        # thread pool together with the check, so the event loop stays free.
+        return await run_in_threadpool(_check_body, await request.body())
 
     @app.post(
         UPLOAD_PATH, tags=["models"], dependencies=auth, status_code=202,

@@ -333,4 +333,10 @@ def test_openapi_lists_the_v1_routes(client: TestClient) -> None:
             "/v1/sections"} <= set(paths)
     upload = paths["/v1/models"]["post"]["requestBody"]["content"]["multipart/form-data"]
     assert upload["schema"]["required"] == ["file"]
+    doc = client.get("/openapi.json").json()
+    body = paths["/v1/checks"]["post"]["requestBody"]["content"]["application/json"]
+    assert body["schema"] == {"$ref": "#/components/schemas/MembersRequest"}
+    schemas = doc["components"]["schemas"]
+    assert "members" in schemas["MembersRequest"]["properties"]
+    assert {"Member", "Units", "Loads"} <= set(schemas)  # nested models resolvable
     assert client.get("/docs").status_code == 200
