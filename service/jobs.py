@@ -116,7 +116,7 @@ class JobStore:
     """The job table (``jobs.sqlite3``) and the job folders under ``data_dir``."""
 
     def __init__(self, data_dir: Path) -> None:
-        self.data_dir = Path(data_dir)
+        self.data_dir = Path(data_dir).resolve()
         self.jobs_dir = self.data_dir / "jobs"
         self.db_path = self.data_dir / "jobs.sqlite3"
         self.jobs_dir.mkdir(parents=True, exist_ok=True)
@@ -242,11 +242,17 @@ def worker_command() -> list[str]:
     return [sys.executable, "-m", "service.worker"]
 
 
-def _worker_env() -> dict[str, str]:
+#: Environment variable telling a worker its CPU-time limit (seconds), a safety net that
+#: holds even when the server that should kill it has died.
+CPU_LIMIT_ENV = "STANCHION_WORKER_CPU_LIMIT_S"
+
+
+def _worker_env(timeout_s: float) -> dict[str, str]:
     """The server's environment, with this package importable by the worker."""
     env = dict(os.environ)
     root = str(Path(service.__file__).resolve().parent.parent)
     env["PYTHONPATH"] = os.pathsep.join(p for p in (root, env.get("PYTHONPATH")) if p)
+    env[CPU_LIMIT_ENV] = str(int(timeout_s) + 30)
     return env
 
 
@@ -365,7 +371,7 @@ class JobRunner:
             logf = open(job_dir / LOG_FILE, "wb")  # noqa: SIM115
             proc = subprocess.Popen(
                 [*self.command, str(job_dir)], stdin=subprocess.DEVNULL,
-                stdout=logf, stderr=subprocess.STDOUT, env=_worker_env(),
+                stdout=logf, stderr=subprocess.STDOUT, env=_worker_env(self.timeout_s),
                 start_new_session=True,
             )
         except OSError as exc:

@@ -15,13 +15,21 @@ import argparse
 import json
 import logging
 import os
+import resource
 import sys
 import traceback
 from collections.abc import Callable, Sequence
 from pathlib import Path
 
 from service.errors import InputError
-from service.jobs import CSV_FILE, MODEL_OUT_FILE, PARAMS_FILE, REPORT_FILE, RESULT_FILE
+from service.jobs import (
+    CPU_LIMIT_ENV,
+    CSV_FILE,
+    MODEL_OUT_FILE,
+    PARAMS_FILE,
+    REPORT_FILE,
+    RESULT_FILE,
+)
 from service.outputs import write_json
 
 log = logging.getLogger("stanchion.worker")
@@ -99,6 +107,24 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
     return result
 
 
+def _limit_self() -> None:
+    """Lower this process's priority and cap its CPU time (best effort).
+
+    The server kills a worker at the job time limit; the CPU cap (from
+    ``STANCHION_WORKER_CPU_LIMIT_S``) also ends a worker whose server has died.
+    """
+    try:
+        os.nice(5)  # the server process stays responsive while models are checked
+    except OSError:  # pragma: no cover
+        pass
+    limit = os.environ.get(CPU_LIMIT_ENV, "")
+    if limit.isdigit():
+        try:
+            resource.setrlimit(resource.RLIMIT_CPU, (int(limit), int(limit) + 5))
+        except (OSError, ValueError):  # pragma: no cover - a hard limit already lower
+            pass
+
+
 def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> int:
     """Entry point of the worker process; 0 once ``result.json`` is written."""
     p = argparse.ArgumentParser(prog="python -m service.worker")
@@ -106,10 +132,7 @@ def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> 
     args = p.parse_args(argv)
     logging.basicConfig(level=logging.INFO, stream=sys.stderr,
                         format="%(asctime)s %(levelname)s %(name)s: %(message)s")
-    try:
-        os.nice(5)  # the server process stays responsive while models are checked
-    except OSError:  # pragma: no cover
-        pass
+    _limit_self()
     if not (args.job_dir / PARAMS_FILE).is_file():
         print(f"no {PARAMS_FILE} in {args.job_dir}", file=sys.stderr)
         return 2

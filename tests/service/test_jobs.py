@@ -110,6 +110,7 @@ def test_job_runs_in_a_worker_process_and_leaves_its_outputs(store, runner) -> N
     assert report["stand_in"]["method"] == "ASD"
     assert report["stand_in"]["loads"] == "element,D\nC1,10\n"
     assert report["stand_in"]["pid"] != os.getpid()  # ran in another process
+    assert report["stand_in"]["cpu_limit"] == 30 + 30  # time limit + 30 s grace, jobs.py
     assert (d / jobs.MODEL_OUT_FILE).read_bytes() == b"fine model"
     assert (d / jobs.CSV_FILE).is_file()
 

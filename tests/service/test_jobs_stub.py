@@ -12,6 +12,7 @@ succeed · anything else: succeed, echoing the method, load table and size in th
 from __future__ import annotations
 
 import os
+import resource
 import sys
 import time
 from pathlib import Path
@@ -40,6 +41,7 @@ def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None
                     "max_utilization": 0.5},
         "members": [],
         "stand_in": {"method": method, "size": len(data), "pid": os.getpid(),
+                     "cpu_limit": resource.getrlimit(resource.RLIMIT_CPU)[0],
                      "loads": loads_table.read_text() if loads_table else None},
     }
     if out_model is not None:
