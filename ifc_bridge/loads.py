@@ -77,13 +77,15 @@ def read_load_table(path: str | Path, units: ModelUnits) -> LoadTable:
     """
     label = str(path)
     try:
-        frame = pd.read_csv(path, dtype=str, keep_default_na=False, skipinitialspace=True)
+        # header=None keeps repeated column names as written (pandas would rename them)
+        frame = pd.read_csv(path, dtype=str, keep_default_na=False, skipinitialspace=True,
+                            header=None)
     except FileNotFoundError:
         raise LoadTableError(f"cannot read load table {label}: no such file") from None
     except (OSError, UnicodeDecodeError, pd.errors.ParserError, pd.errors.EmptyDataError) as exc:
         detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
         raise LoadTableError(f"cannot read load table {label}: {detail}") from None
-    columns = [str(c).strip() for c in frame.columns]
+    columns = [str(c).strip() for c in frame.iloc[0]] if len(frame) else []
     if not columns or columns[0].lower() != "element":
         raise LoadTableError(f"load table {label}: the first column must be 'element' "
                              f"(header is {','.join(columns)})")
@@ -105,7 +107,8 @@ def read_load_table(path: str | Path, units: ModelUnits) -> LoadTable:
             plan.append((pos, kind, units.force, True))
     rows: list[tuple[str, dict[str, float]]] = []
     used_model_unit = False
-    for line, values in enumerate(frame.itertuples(index=False, name=None), start=2):
+    body = frame.iloc[1:]
+    for line, values in enumerate(body.itertuples(index=False, name=None), start=2):
         element = str(values[0]).strip()
         if not element:
             raise LoadTableError(f"load table {label}, line {line}: no element")

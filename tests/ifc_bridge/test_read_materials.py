@@ -1,0 +1,175 @@
+"""Yield strength: override, material properties, grade table, none."""
+
+from __future__ import annotations
+
+import pytest
+
+from engine.units import factor
+from ifc_bridge.grades import GRADES, match_grade
+from ifc_bridge.read import read_columns
+
+W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
+KSI_PER_MPA = factor("megapascal", "ksi")  # pint (common practice, no source)
+
+
+def _column(b, material, profile=None, **kw):
+    profile = profile or b.profile("I", "W14X48", **W14X48)
+    col = b.column("C1", profile=profile, material=material, **kw)
+    b.loads(col, D=10.0)
+    return col
+
+
+def _read(b):
+    return read_columns(b.model).members
+
+
+def test_yield_from_material_properties(builder):
+    _column(builder, builder.material("Steel", fy=55.0))
+    m = _read(builder)
+    assert m.Fy[0] == pytest.approx(55.0)  # given in ksi, stored in N/mm², read back
+    assert m.extra["fy_source"][0] == "material"
+    where = ("IfcMechanicalSteelMaterialProperties" if builder.schema == "IFC2X3"
+             else "Pset_MaterialSteel")
+    assert any(where in s for s in m.messages[0])
+
+
+def test_yield_in_imperial_model(make_builder, schema):
+    b = make_builder("in_kip", schema)
+    _column(b, b.material("Steel", fy=46.0))
+    assert _read(b).Fy[0] == pytest.approx(46.0)
+
+
+def test_override_wins_over_material(builder):
+    col = _column(builder, builder.material("ASTM A992", fy=50.0))
+    builder.design(col, YieldStress=42.0)
+    m = _read(builder)
+    assert m.Fy[0] == pytest.approx(42.0)
+    assert m.extra["fy_source"][0] == "override"
+
+
+def test_override_on_the_type(builder):
+    ctype = builder.column_type("CT")
+    builder.design(ctype, YieldStress=36.0)
+    _column(builder, builder.material("no grade"), column_type=ctype)
+    assert _read(builder).Fy[0] == pytest.approx(36.0)
+
+
+def test_override_alone_without_material(builder):
+    col = _column(builder, None)
+    builder.design(col, YieldStress=50.0)
+    m = _read(builder)
+    assert m.Fy[0] == pytest.approx(50.0) and m.reason[0] is None
+
+
+def test_material_properties_win_over_grade_name(builder):
+    _column(builder, builder.material("ASTM A36", fy=50.0))
+    assert _read(builder).Fy[0] == pytest.approx(50.0)
+
+
+@pytest.mark.parametrize(
+    ("name", "expected"),
+    [
+        ("ASTM A992", 50.0),  # ASTM A992/A992M
+        ("A36", 36.0),  # ASTM A36/A36M
+        ("A572 Gr. 50", 50.0),  # ASTM A572/A572M Grade 50
+        ("A572-65", 65.0),  # ASTM A572/A572M Grade 65
+        ("ASTM A913 Grade 65", 65.0),  # ASTM A913/A913M Grade 65
+        ("S355JR", 355.0 * KSI_PER_MPA),  # EN 1993-1-1:2005 Table 3.1, t <= 40 mm
+        ("S235", 235.0 * KSI_PER_MPA),  # EN 1993-1-1:2005 Table 3.1, t <= 40 mm
+    ],
+)
+def test_yield_from_grade_in_material_name(builder, name, expected):
+    _column(builder, builder.material(name))
+    m = _read(builder)
+    assert m.Fy[0] == pytest.approx(expected)
+    assert m.extra["fy_source"][0] == "grade"
+
+
+def test_a500_round_and_rectangular(builder):
+    steel = builder.material("ASTM A500 Grade C")
+    rect = builder.profile("RHS", "HSS8X8X1/2", H=8.0, B=8.0, t=0.5)
+    rnd = builder.profile("CHS", "HSS6.625X0.280", D=6.625, t=0.280)
+    for name, prof in (("R", rect), ("O", rnd)):
+        builder.loads(builder.column(name, profile=prof, material=steel), D=1.0)
+    m = _read(builder)
+    assert m.Fy[0] == pytest.approx(50.0)  # ASTM A500 Grade C, rectangular
+    assert m.Fy[1] == pytest.approx(46.0)  # ASTM A500 Grade C, round
+
+
+def test_no_yield_strength(builder):
+    _column(builder, builder.material("Steel"))
+    m = _read(builder)
+    assert m.reason[0].startswith("no yield strength")
+    assert m.extra["fy_source"][0] == "none"
+
+
+def test_no_material_at_all(builder):
+    _column(builder, None)
+    assert _read(builder).reason[0].startswith("no yield strength")
+
+
+def test_material_on_the_type(builder):
+    ctype = builder.column_type("CT", material=builder.material("A992"))
+    _column(builder, None, column_type=ctype)
+    assert _read(builder).Fy[0] == pytest.approx(50.0)  # ASTM A992
+
+
+def test_undeclared_pressure_unit_is_warned(make_builder, schema):
+    b = make_builder("mm_only", schema)
+    _column(b, b.material("Steel", fy=50.0))
+    result = read_columns(b.model)
+    assert result.members.Fy[0] == pytest.approx(50.0)  # builder stored pascals
+    assert any(s.startswith("model declares no pressure unit") for s in result.messages)
+    assert any("pressure read in an undeclared unit" in s for s in result.members.messages[0])
+
+
+# ------------------------------------------------------------------ grade table alone
+
+
+def test_every_grade_row_cites_its_specification():
+    for grade in GRADES:
+        assert grade.source.startswith(("ASTM ", "EN ")), grade.name
+
+
+@pytest.mark.parametrize(
+    ("text", "family", "thickness", "expected"),
+    [
+        ("A992/A992M", "I", 0.6, 50.0),  # ASTM A992/A992M
+        ("A572 GRADE 42", "I", 0.6, 42.0),  # ASTM A572/A572M Grade 42
+        ("A913 Gr 70", "I", 0.6, 70.0),  # ASTM A913/A913M Grade 70
+        ("A500 Gr B", "HSS", 0.5, 46.0),  # ASTM A500/A500M Grade B, rectangular
+        ("A500 Gr B", "HSS_ROUND", 0.5, 42.0),  # ASTM A500/A500M Grade B, round
+        ("A500 Gr C", "HSS_ROUND", 0.5, 46.0),  # ASTM A500/A500M Grade C, round
+        ("A1085", "HSS", 0.5, 50.0),  # ASTM A1085/A1085M
+        ("A53 Grade B", "HSS_ROUND", 0.3, 35.0),  # ASTM A53/A53M Grade B
+        ("S275J0", "I", 0.5, 275.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
+        ("S355J2", "I", 2.0, 335.0 * KSI_PER_MPA),  # 50.8 mm: 40 < t <= 80 mm band
+        ("S460N", "I", 1.0, 460.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
+        ("EN 10025-2 S235JR", "I", 2.5, 215.0 * KSI_PER_MPA),  # 63.5 mm: second band
+    ],
+)
+def test_grade_values(text, family, thickness, expected):
+    found, _ = match_grade(text, family, thickness)
+    assert found is not None
+    assert found.fy == pytest.approx(expected)
+
+
+@pytest.mark.parametrize("text", ["A572", "A500", "Steel", "A3600", "S999", "", None])
+def test_grade_not_recognised(text):
+    assert match_grade(text, "I", 0.5)[0] is None
+
+
+def test_a500_on_a_w_shape_is_not_matched():
+    found, notes = match_grade("A500 Gr C", "I", 0.5)
+    assert found is None and "applies to HSS only" in notes[0]
+
+
+def test_en_grade_too_thick():
+    found, notes = match_grade("S355", "I", 4.0)  # 101.6 mm > 80 mm
+    assert found is None and "> 80 mm" in notes[0]
+
+
+def test_dual_grade_uses_the_lowest():
+    found, notes = match_grade("A992 / A36", "I", 0.5)
+    assert found.fy == pytest.approx(36.0)  # ASTM A36 is the lower of the two
+    assert "several grades" in notes[0]
