@@ -109,11 +109,11 @@ def select(
         empty = np.full((n, k), np.nan)
         return Suggestions(np.full((n, k), -1), empty, empty.copy(), empty.copy())
 
-    sec = cat.take(np.tile(candidates, n))
     rep = np.repeat
     E_ = rep(np.broadcast_to(np.asarray(E, float), (n,)), m)
     G_ = rep(np.broadcast_to(np.asarray(G, float), (n,)), m)
-    res = compressive_strength(sec, rep(Fy, m), rep(Lcx, m), rep(Lcy, m), rep(Lcz, m), E_, G_)
+    res = compressive_strength(cat, rep(Fy, m), rep(Lcx, m), rep(Lcy, m), rep(Lcz, m), E_, G_,
+                               index=np.tile(candidates, n))
     avail = available_strength(res.Pn, method).reshape(n, m)
     in_scope = res.in_scope.reshape(n, m)
     with np.errstate(divide="ignore", invalid="ignore"):

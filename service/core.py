@@ -12,6 +12,7 @@ from engine.check import CheckResults, check_members
 from engine.combinations import custom_combinations
 from engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
 from engine.sections import SectionTable
+from engine.selection import suggest_for_members
 from engine.units import force_factor, length_factor, stress_factor
 from service.errors import InputError
 from service.report import build_report
@@ -129,8 +130,56 @@ def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
     return members, results
 
 
+def suggestions_for(
+    members: MemberTable,
+    results: CheckResults,
+    specs: list[list[str] | None],
+    max_utilization: list[float | None],
+    *,
+    min_depth: float | None = None,
+    max_depth: float | None = None,
+    max_suggestions: int = 5,
+) -> tuple[dict[int, list[dict]], dict[int, str]]:
+    """Suggested sections (internal units) for the members whose ``specs`` ask for them.
+
+    Returns:
+        suggestions by member row, and a message by member row for unusable candidates.
+    """
+    problems: dict[int, str] = {}
+    usable: list[list[str] | None] = []
+    for i, spec in enumerate(specs):
+        if not spec:
+            usable.append(None)
+            continue
+        try:
+            for item in spec:
+                if len(catalog.family_indices(item)) == 0:
+                    raise ValueError(f"candidate {item!r} matches no catalog shape")
+        except ValueError as exc:
+            problems[i] = f"no suggestions: {exc}"
+            usable.append(None)
+            continue
+        usable.append(spec)
+    limit = np.array([1.0 if u is None else u for u in max_utilization], dtype=float)
+    sug, rows = suggest_for_members(
+        members, results.required_strength, usable, method=results.method,
+        max_utilization=limit, max_suggestions=max_suggestions,
+        min_depth=min_depth, max_depth=max_depth,
+    )
+    cat = catalog.load_catalog()
+    return {int(i): sug.for_member(j, cat) for j, i in enumerate(rows)}, problems
+
+
 def check_request(req: MembersRequest) -> dict:
     """Members request -> report (design.md §3)."""
     members, results = run_request(req)
+    suggestions, problems = suggestions_for(
+        members, results, [m.candidates for m in req.members],
+        [m.max_utilization for m in req.members],
+        min_depth=req.selection.min_depth, max_depth=req.selection.max_depth,
+        max_suggestions=req.selection.max_suggestions,
+    )
+    for i, text in problems.items():
+        results.messages[i] = [*results.messages[i], text]
     return build_report(members, results, req.units.model_dump(), detail=req.detail,
-                        custom_combinations=bool(req.combinations))
+                        custom_combinations=bool(req.combinations), suggestions=suggestions)

@@ -11,7 +11,7 @@ import numpy as np
 
 from engine.check import NOT_CHECKED, CheckResults
 from engine.members import MemberTable
-from engine.units import force_factor, stress_factor
+from engine.units import factor, force_factor, length_factor, stress_factor
 
 SCHEMA_VERSION = "1"
 DISCLAIMER = (
@@ -44,8 +44,13 @@ def build_report(
     detail: bool = False,
     custom_combinations: bool = False,
     messages: list[str] | None = None,
+    suggestions: dict[int, list[dict]] | None = None,
 ) -> dict:
-    """Assemble the report dict: summary, one entry per member, in ``units``."""
+    """Assemble the report dict: summary, one entry per member, in ``units``.
+
+    ``suggestions`` (by member row, kip and lb/ft) become each row's ``suggestions`` with
+    strengths in the report's force unit and ``weight`` in its force per length unit.
+    """
     to_force = 1.0 / force_factor(units["force"])
     to_stress = 1.0 / stress_factor(units["stress"])
     req = results.required_strength * to_force
@@ -53,6 +58,9 @@ def build_report(
     tension = (results.max_tension if results.max_tension is not None
                else np.zeros(len(results))) * to_force
     storey = members.extra.get("storey")
+    # lb/ft -> report force per report length (e.g. kip/ft, kN/m).
+    weight_factor = (factor("lbf", "kip") * to_force) / (length_factor("ft") / length_factor(
+        units["length"]))
 
     rows = []
     for i in range(len(results)):
@@ -80,6 +88,14 @@ def build_report(
             row["storey"] = None if storey[i] is None else str(storey[i])
         if results.status[i] == NOT_CHECKED:
             row["reason"] = str(results.reason[i])
+        if suggestions is not None and i in suggestions:
+            row["suggestions"] = [
+                {"section": s["section"],
+                 "available_strength": _sig(s["available_strength"] * to_force),
+                 "utilization": _sig(s["utilization"], 4),
+                 "weight": _sig(s["weight"] * weight_factor)}
+                for s in suggestions[i]
+            ]
         if detail and results.combination_values is not None:
             row["combinations"] = {
                 name: _sig(results.combination_values[i, j] * to_force)

@@ -89,8 +89,10 @@ class Member(_Strict):
     lz: float | None = None
     loads: Loads | None = None
     required_strength: float | None = None
-    candidates: list[str] | None = None
-    max_utilization: float | None = Field(None, gt=0)
+    candidates: list[str] | None = Field(
+        None, description="families (W12, HSS) or designations to suggest sections from")
+    max_utilization: float | None = Field(
+        None, gt=0, description="reserve margin for suggestions (default 1.0)")
 
 
 class CombinationSpec(_Strict):
@@ -112,6 +114,14 @@ class CombinationSpec(_Strict):
         return v
 
 
+class SelectionOptions(_Strict):
+    """Limits for section suggestions (members that carry ``candidates``)."""
+
+    min_depth: float | None = Field(None, ge=0, description="smallest nominal depth, in")
+    max_depth: float | None = Field(None, gt=0, description="largest nominal depth, in")
+    max_suggestions: int = Field(5, ge=1, le=100)
+
+
 class MembersRequest(_Strict):
     """The whole request: ``stanchion check members.json`` or ``POST /v1/checks``."""
 
@@ -125,6 +135,7 @@ class MembersRequest(_Strict):
         "(occupancies with Lo <= 100 psf other than garages and public assembly).",
     )
     detail: bool = Field(False, description="add every combination's value to each member")
+    selection: SelectionOptions = SelectionOptions()
     E: float | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
     G: float | None = Field(None, gt=0, description="shear modulus, stress unit")
 

@@ -1,0 +1,84 @@
+"""``stanchion select``: the lightest adequate sections for one load, at the terminal."""
+
+from __future__ import annotations
+
+import argparse
+
+import numpy as np
+
+from engine import catalog
+from engine.compression import OMEGA_C, PHI_C
+from engine.members import E_DEFAULT, G_DEFAULT
+from engine.selection import candidate_indices, select
+from engine.units import force_factor, length_factor, stress_factor
+from service.errors import EXIT_FAILURES, EXIT_OK, InputError
+
+
+def _families(text: str) -> list[str]:
+    items = [t.strip() for t in text.split(",") if t.strip()]
+    if not items:
+        raise argparse.ArgumentTypeError("give at least one family, e.g. W10,W12")
+    return items
+
+
+def run_select(args: argparse.Namespace) -> int:
+    """Print a small table of the lightest passing sections; exit 1 when none passes."""
+    units = {"us": ("kip", "ft", "ksi"), "si": ("kN", "m", "MPa")}[args.units]
+    fF, fL, fS = force_factor(units[0]), length_factor(units[1]), stress_factor(units[2])
+    for name, v in (("--load", args.load), ("--length", args.length), ("--fy", args.fy)):
+        if not v > 0:
+            raise InputError(f"{name} must be greater than zero (got {v})")
+    try:
+        cand = candidate_indices(args.families, min_depth=args.min_depth,
+                                 max_depth=args.max_depth)
+    except ValueError as exc:
+        raise InputError(str(exc)) from None
+    if len(cand) == 0:
+        raise InputError("no catalog shape within the given families and depth limits")
+    one = np.ones(1)
+    L = args.length * fL
+    sug = select(
+        np.array([args.load * fF]), one * args.fy * fS, one * args.kx * L, one * args.ky * L,
+        one * args.kz * L, cand, method=args.method, max_utilization=args.max_utilization,
+        max_suggestions=args.count, E=E_DEFAULT, G=G_DEFAULT,
+    )
+    rows = sug.for_member(0, catalog.load_catalog())
+    basis = (f"φc = {PHI_C}" if args.method == "LRFD" else f"Ωc = {OMEGA_C}")
+    print(f"{args.method} ({basis}), Fy = {args.fy:g} {units[2]}, L = {args.length:g} "
+          f"{units[1]} (K = {args.kx:g}/{args.ky:g}/{args.kz:g}), required {args.load:g} "
+          f"{units[0]}, utilization <= {args.max_utilization:g}")
+    if not rows:
+        print("no candidate passes; try other families or a larger depth")
+        return EXIT_FAILURES
+    head = f"{'section':<18} {'weight lb/ft':>12} {'available ' + units[0]:>14} {'util':>6}"
+    print(head)
+    print("-" * len(head))
+    for r in rows:
+        print(f"{r['section']:<18} {r['weight']:>12.1f} {r['available_strength'] / fF:>14.1f} "
+              f"{r['utilization']:>6.3f}")
+    print("AISC 360-22 Chapter E, axial compression only; results must be reviewed by a "
+          "licensed engineer.")
+    return EXIT_OK
+
+
+def add_parser(sub: argparse._SubParsersAction) -> None:
+    """Register ``select``."""
+    p = sub.add_parser("select", help="lightest catalog sections for one axial load")
+    p.add_argument("--load", type=float, required=True,
+                   help="required strength (factored for LRFD, service for ASD)")
+    p.add_argument("--length", type=float, required=True, help="member length")
+    p.add_argument("--fy", type=float, default=50.0, help="yield stress (default 50 ksi)")
+    p.add_argument("--families", type=_families, default=["W"],
+                   help="comma-separated families or designations, e.g. W10,W12,HSS")
+    p.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"], default="LRFD")
+    p.add_argument("--kx", type=float, default=1.0)
+    p.add_argument("--ky", type=float, default=1.0)
+    p.add_argument("--kz", type=float, default=1.0)
+    p.add_argument("--max-utilization", type=float, default=1.0,
+                   help="reserve margin: suggestions pass at this utilization")
+    p.add_argument("--min-depth", type=float, help="smallest nominal depth, in")
+    p.add_argument("--max-depth", type=float, help="largest nominal depth, in")
+    p.add_argument("--count", type=int, default=5, help="how many suggestions (default 5)")
+    p.add_argument("--units", choices=["us", "si"], default="us",
+                   help="us: kip, ft, ksi (default); si: kN, m, MPa")
+    p.set_defaults(func=run_select)

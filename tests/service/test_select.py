@@ -1,0 +1,64 @@
+"""`stanchion select` and suggestions in the members report."""
+
+from __future__ import annotations
+
+import json
+
+import jsonschema
+import pytest
+
+from service.cli import main
+from service.report import report_schema
+
+
+def test_select_prints_the_lightest_sections(capsys) -> None:
+    # AISC Manual Table 4-1a read-offs at Lc = 16 ft, Fy = 50 ksi, LRFD: W14X48 303 kips,
+    # W12X45 290 kips -> for 295 kips among W12/W14 the W14X48 comes first.
+    code = main(["select", "--load", "295", "--length", "16", "--families", "W12,W14",
+                 "--count", "3"])
+    out = capsys.readouterr().out
+    assert code == 0
+    table = [line.split() for line in out.splitlines() if line.startswith("W")]
+    assert table[0][0] == "W14X48"
+    assert float(table[0][2]) == pytest.approx(303.0, abs=1.0)
+    assert len(table) == 3
+    assert "licensed engineer" in out
+
+
+def test_select_without_a_passing_section_exits_1(capsys) -> None:
+    # 5,000 kips exceeds the squash load 0.9·50·A of every W8 (largest A = 19.7 in², W8X67,
+    # Shapes Database v16.0: 0.9·50·19.7 = 887 kips).
+    assert main(["select", "--load", "5000", "--length", "10", "--families", "W8"]) == 1
+    assert "no candidate passes" in capsys.readouterr().out
+
+
+def test_select_bad_family_exits_2(capsys) -> None:
+    assert main(["select", "--load", "100", "--length", "10", "--families", "Q7"]) == 2
+    assert capsys.readouterr().err.startswith("stanchion: ")
+
+
+def test_members_report_carries_suggestions_in_report_units(tmp_path) -> None:
+    data = {
+        "units": {"force": "kN", "length": "m", "stress": "MPa"},
+        "members": [
+            # 295 kips = 1312.2 kN, 16 ft = 4.8768 m, 50 ksi = 344.74 MPa (pint definitions).
+            {"id": "A", "section": "W12X45", "fy": 344.738, "length": 4.8768,
+             "required_strength": 1312.2, "candidates": ["W12", "W14"]},
+            {"id": "B", "section": "W12X45", "fy": 344.738, "length": 4.8768,
+             "required_strength": 100, "candidates": ["W13"]},
+        ],
+        "selection": {"max_suggestions": 2},
+    }
+    p = tmp_path / "m.json"
+    p.write_text(json.dumps(data))
+    out = tmp_path / "r.json"
+    assert main(["check", str(p), "--report", str(out), "--quiet"]) == 1  # A fails as W12X45
+    report = json.loads(out.read_text())
+    jsonschema.validate(report, report_schema())
+    a, b = report["members"]
+    assert a["status"] == "fail"
+    assert [s["section"] for s in a["suggestions"]] == ["W14X48", "W12X50"]
+    # 303.1 kips (Manual Table 4-1a) = 1348 kN; 48 lb/ft = 0.7005 kN/m (pint definitions).
+    assert a["suggestions"][0]["available_strength"] == pytest.approx(1348.0, rel=0.003)
+    assert a["suggestions"][0]["weight"] == pytest.approx(0.7005, rel=0.002)
+    assert "suggestions" not in b and any("W13" in m for m in b["messages"])
