@@ -30,6 +30,7 @@ import numpy as np
 from engine.members import LOAD_TYPES, MemberTable
 from engine.sections import SectionTable
 from ifc_bridge.access import get
+from ifc_bridge.elements import PlanPositions, select_elements
 from ifc_bridge.grades import match_grade
 from ifc_bridge.lengths import analytical_length, choose_length
 from ifc_bridge.load_cases import AnalysisLoads
@@ -55,8 +56,8 @@ from ifc_bridge.units import ModelUnits, read_units
 
 Entity = ifcopenshell.entity_instance
 
-MEMBER_TYPES = ("STRUT", "POST")  # IfcMember predefined types read with include_members
 NO_YIELD = "no yield strength"
+BROKEN = "error"  # profile_origin of an element the reader could not walk
 _A1085 = "A1085"
 
 
@@ -107,53 +108,6 @@ class _Row:
     reasons: list[str]
 
 
-def _predefined(element: Entity, etype: Entity | None) -> str | None:
-    value = getattr(element, "PredefinedType", None)
-    if value in (None, "NOTDEFINED", "USERDEFINED") and etype is not None:
-        value = getattr(etype, "PredefinedType", None) or value
-    return value
-
-
-def select_elements(model: ifcopenshell.file, index: RelationIndex,
-                    include_members: bool) -> list[Entity]:
-    """Every IfcColumn (subtypes included), then STRUT / POST IfcMembers if asked."""
-    elements = list(model.by_type("IfcColumn"))
-    if include_members:
-        for m in model.by_type("IfcMember"):
-            if _predefined(m, index.type_of.get(m.id())) in MEMBER_TYPES:
-                elements.append(m)
-    return elements
-
-
-class _Placements:
-    """Plan position of elements, parent placements cached (util.placement)."""
-
-    def __init__(self) -> None:
-        self._parents: dict[int, np.ndarray] = {}
-
-    def xy(self, element: Entity) -> tuple[float, float]:
-        placement = get(element, "ObjectPlacement")
-        if placement is None:
-            return math.nan, math.nan
-        try:
-            if placement.is_a("IfcLocalPlacement"):
-                location = get(get(placement, "RelativePlacement"), "Location")
-                coords = list(get(location, "Coordinates"))
-                parent = get(placement, "PlacementRelTo")
-                point = np.array((coords + [0.0, 0.0, 0.0])[:3] + [1.0])
-                if parent is None:
-                    return float(point[0]), float(point[1])
-                key = parent.id()
-                if key not in self._parents:
-                    self._parents[key] = ifcopenshell.util.placement.get_local_placement(parent)
-                world = self._parents[key] @ point
-                return float(world[0]), float(world[1])
-            matrix = ifcopenshell.util.placement.get_local_placement(placement)
-            return float(matrix[0, 3]), float(matrix[1, 3])
-        except Exception:  # grid / linear placements this reader does not evaluate
-            return math.nan, math.nan
-
-
 class _Reader:
     """State shared while reading one model."""
 
@@ -162,7 +116,7 @@ class _Reader:
         self.units = units
         self.index = RelationIndex.build(model)
         self.shapes = ShapeReader()
-        self.placements = _Placements()
+        self.placements = PlanPositions()
         self.analysis = AnalysisLoads(self.index, units)
         self.yields = YieldReader(model, self.index, units)
         self._specs: dict[tuple[int, float], ProfileSpec] = {}
@@ -207,8 +161,8 @@ class _Reader:
 
         shape = self.shapes.read(element)
         if not shape.extrusions and etype is not None:
-            shape = ShapeInfo(self.shapes.read_type(etype).extrusions, shape.axis_length,
-                              shape.notes + self.shapes.read_type(etype).notes)
+            typed = self.shapes.read_type(etype)
+            shape = ShapeInfo(typed.extrusions, shape.axis_length, shape.notes + typed.notes)
         notes.extend(shape.notes)
         material = element_material(element, etype, self.index, self._materials)
         notes.extend(material.notes)
@@ -248,7 +202,18 @@ class _Reader:
             reasons.append(material.problem)
         main = shape.main
         if material.profile is not None:
-            return self.spec(material.profile, 1.0), "profile_set"
+            spec = self.spec(material.profile, 1.0)
+            if main is not None and main.profile is not None and \
+                    main.profile.id() != material.profile.id():
+                body = self.spec(main.profile, main.scale)
+                if body.family != spec.family or any(
+                    a is not None and b is not None and abs(a - b) > 0.02 * max(abs(a), 1e-9)
+                    for (_, a), (_, b) in zip(spec.dims, body.dims, strict=False)
+                ):
+                    notes.append(f"Body extrusion profile ({body.label}) differs from the "
+                                 f"material profile set's ({spec.label}); the profile set is "
+                                 "used")
+            return spec, "profile_set"
         if main is not None:
             if main.tapered:
                 reasons.append("tapered extrusion (IfcExtrudedAreaSolidTapered) is not "
@@ -286,6 +251,21 @@ class _Reader:
                 notes.append(found.note)
                 return found.fy, "grade", notes
         return math.nan, "none", notes
+
+
+def _safe_row(reader: _Reader, element: Entity) -> _Row:
+    """One element's row; an entity the reader cannot walk gives a not-checked row."""
+    try:
+        return reader.row(element)
+    except Exception as exc:  # a broken entity must not stop the other columns
+        gid = getattr(element, "GlobalId", None) or f"#{element.id()}"
+        return _Row(
+            element=element, gid=gid, name=getattr(element, "Name", None) or gid,
+            tag=getattr(element, "Tag", None) or "", storey="", x=math.nan, y=math.nan,
+            spec=None, profile_origin=BROKEN, material=MaterialInfo(), length=math.nan,
+            length_source="none", design=DesignInputs(), analysis={}, pset={}, notes=[],
+            reasons=[f"element could not be read ({type(exc).__name__}: {exc})"],
+        )
 
 
 def _default_note(design: DesignInputs) -> str | None:
@@ -356,7 +336,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
         messages.append(f"model has no {what}")
     else:
         units.note_use("length")
-    rows = [reader.row(e) for e in elements]
+    rows = [_safe_row(reader, e) for e in elements]
 
     requests = []
     for r in rows:
@@ -382,23 +362,24 @@ def _read(model: ifcopenshell.file, include_members: bool,
     for i, r in enumerate(rows):
         notes = list(r.notes)
         why = list(r.reasons)
-        if r.spec is None:
+        broken = r.profile_origin == BROKEN
+        if r.spec is None and not broken:
             why.insert(0, "no profile (no material profile set and no Body extrusion found)")
-        elif res.reasons[i]:
+        elif res.reasons[i] and not broken:
             why.insert(0, res.reasons[i])
         notes.extend(res.notes[i])
         family = r.spec.family if r.spec is not None else None
         value, fy_source, fnotes = reader.fy(r, family, res.thickness[i])
         notes.extend(fnotes)
         fy[i] = value
-        if fy_source == "none":
+        if fy_source == "none" and not broken:
             why.append(f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield "
                        "stress and no recognised grade in the material name)")
         length[i] = r.length
         for a in AXES:
             k[a][i] = r.design.k.get(a, 1.0)
             unbraced[a][i] = r.design.unbraced.get(a, r.length)
-        if not all(math.isfinite(unbraced[a][i]) for a in AXES):
+        if not all(math.isfinite(unbraced[a][i]) for a in AXES) and not broken:
             why.append("no length (no Axis or Body extrusion, no Length quantity and no "
                        "analysis member)")
         default = _default_note(r.design)
@@ -410,7 +391,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
         values, used, lnotes = merge_loads(by_source)
         loads[i] = values
         notes.extend(lnotes)
-        if not used:
+        if not used and not broken:
             why.append("no loads (no analysis results, load table row or Stanchion_Loads)")
         basis = res.basis[i] if res.index[i] >= 0 else ""
         extra["global_id"].append(r.gid)

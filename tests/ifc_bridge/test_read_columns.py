@@ -222,3 +222,22 @@ def test_many_columns_keep_file_order(builder):
     assert all(r is None for r in m.reason)
     assert np.isclose(m.sections.A[m.section_index], W14X48_A).all()
     assert not any(math.isnan(v) for v in m.extra["x"])
+
+
+def test_an_element_that_cannot_be_walked_is_not_checked(builder, monkeypatch):
+    import ifc_bridge.read as read_module
+
+    standard_column(builder, "C1")
+    standard_column(builder, "C2")
+    original = read_module._Reader.row
+
+    def row(self, element):
+        if element.Name == "C1":
+            raise RuntimeError("corrupt entity")
+        return original(self, element)
+
+    monkeypatch.setattr(read_module._Reader, "row", row)
+    m = read_columns(builder.model).members
+    assert m.reason[0] == "element could not be read (RuntimeError: corrupt entity)"
+    assert m.extra["profile_source"][0] == "error"
+    assert m.reason[1] is None

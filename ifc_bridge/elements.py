@@ -1,0 +1,74 @@
+"""Which elements the reader reads, and where they stand in plan.
+
+Elements: every IfcColumn (subtypes such as IfcColumnStandardCase included); with
+``include_members`` also every IfcMember whose PredefinedType -- its own, or its type's when
+the occurrence's is unset / NOTDEFINED / USERDEFINED (always the type's in IFC2X3, where
+IfcMember has none) -- is STRUT or POST.
+
+Plan position: the origin of the element's IfcLocalPlacement in world coordinates, in the
+model's length unit.  The parent placement chain is evaluated with
+``ifcopenshell.util.placement.get_local_placement`` once per parent and cached; grid and
+linear placements the utility cannot evaluate give NaN.
+"""
+
+from __future__ import annotations
+
+import math
+
+import ifcopenshell
+import ifcopenshell.util.placement
+import numpy as np
+
+from ifc_bridge.access import get
+from ifc_bridge.relations import RelationIndex
+
+Entity = ifcopenshell.entity_instance
+
+MEMBER_TYPES = ("STRUT", "POST")  # IfcMember predefined types read with include_members
+
+
+def _predefined(element: Entity, etype: Entity | None) -> str | None:
+    value = getattr(element, "PredefinedType", None)
+    if value in (None, "NOTDEFINED", "USERDEFINED") and etype is not None:
+        value = getattr(etype, "PredefinedType", None) or value
+    return value
+
+
+def select_elements(model: ifcopenshell.file, index: RelationIndex,
+                    include_members: bool) -> list[Entity]:
+    """Every IfcColumn (subtypes included), then STRUT / POST IfcMembers if asked."""
+    elements = list(model.by_type("IfcColumn"))
+    if include_members:
+        for m in model.by_type("IfcMember"):
+            if _predefined(m, index.type_of.get(m.id())) in MEMBER_TYPES:
+                elements.append(m)
+    return elements
+
+
+class PlanPositions:
+    """Plan position of elements, parent placements cached (util.placement)."""
+
+    def __init__(self) -> None:
+        self._parents: dict[int, np.ndarray] = {}
+
+    def xy(self, element: Entity) -> tuple[float, float]:
+        placement = get(element, "ObjectPlacement")
+        if placement is None:
+            return math.nan, math.nan
+        try:
+            if placement.is_a("IfcLocalPlacement"):
+                location = get(get(placement, "RelativePlacement"), "Location")
+                coords = list(get(location, "Coordinates"))
+                parent = get(placement, "PlacementRelTo")
+                point = np.array((coords + [0.0, 0.0, 0.0])[:3] + [1.0])
+                if parent is None:
+                    return float(point[0]), float(point[1])
+                key = parent.id()
+                if key not in self._parents:
+                    self._parents[key] = ifcopenshell.util.placement.get_local_placement(parent)
+                world = self._parents[key] @ point
+                return float(world[0]), float(world[1])
+            matrix = ifcopenshell.util.placement.get_local_placement(placement)
+            return float(matrix[0, 3]), float(matrix[1, 3])
+        except Exception:  # grid / linear placements this reader does not evaluate
+            return math.nan, math.nan
