@@ -13,6 +13,7 @@ def run_serve(args: argparse.Namespace) -> int:
     import uvicorn
 
     from service.app import create_app
+    from service.jobs import data_dir_in_use
     from service.settings import Settings
 
     settings = Settings.from_env()  # InputError names a bad variable -> exit 2
@@ -21,6 +22,9 @@ def run_serve(args: argparse.Namespace) -> int:
     except OSError as exc:
         raise InputError(f"STANCHION_DATA_DIR={str(settings.data_dir)!r}: "
                          f"{exc.strerror or exc}") from None
+    if data_dir_in_use(settings.data_dir):
+        raise InputError(f"another stanchion server is using STANCHION_DATA_DIR="
+                         f"{str(settings.data_dir)!r}")
     logging.basicConfig(level=logging.INFO,
                         format="%(asctime)s %(levelname)s %(name)s: %(message)s")
     app = create_app(settings)

@@ -229,6 +229,20 @@ class JobStore:
         return removed
 
 
+def data_dir_in_use(data_dir: Path) -> bool:
+    """True when a running server holds the lock of ``data_dir``."""
+    lock = Path(data_dir) / "server.lock"
+    if not lock.exists():
+        return False
+    with lock.open("a") as fh:
+        try:
+            fcntl.flock(fh, fcntl.LOCK_EX | fcntl.LOCK_NB)
+        except BlockingIOError:
+            return True
+        fcntl.flock(fh, fcntl.LOCK_UN)
+    return False
+
+
 @dataclass
 class _Running:
     job_id: str
