@@ -17,7 +17,6 @@ import math
 
 import ifcopenshell
 import ifcopenshell.util.placement
-import numpy as np
 
 from ifc_bridge.access import get
 from ifc_bridge.relations import RelationIndex
@@ -49,7 +48,7 @@ class PlanPositions:
     """Plan position of elements, parent placements cached (util.placement)."""
 
     def __init__(self) -> None:
-        self._parents: dict[int, np.ndarray] = {}
+        self._parents: dict[int, tuple[tuple[float, ...], ...]] = {}  # first two matrix rows
 
     def xy(self, element: Entity) -> tuple[float, float]:
         placement = get(element, "ObjectPlacement")
@@ -60,14 +59,15 @@ class PlanPositions:
                 location = get(get(placement, "RelativePlacement"), "Location")
                 coords = list(get(location, "Coordinates"))
                 parent = get(placement, "PlacementRelTo")
-                point = np.array((coords + [0.0, 0.0, 0.0])[:3] + [1.0])
+                x, y, z = (list(map(float, coords)) + [0.0, 0.0, 0.0])[:3]
                 if parent is None:
-                    return float(point[0]), float(point[1])
+                    return x, y
                 key = parent.id()
                 if key not in self._parents:
-                    self._parents[key] = ifcopenshell.util.placement.get_local_placement(parent)
-                world = self._parents[key] @ point
-                return float(world[0]), float(world[1])
+                    m = ifcopenshell.util.placement.get_local_placement(parent)
+                    self._parents[key] = tuple(tuple(float(v) for v in m[r]) for r in (0, 1))
+                (a, b, c, d), (e, f, g, h) = self._parents[key]
+                return a * x + b * y + c * z + d, e * x + f * y + g * z + h
             matrix = ifcopenshell.util.placement.get_local_placement(placement)
             return float(matrix[0, 3]), float(matrix[1, 3])
         except Exception:  # grid / linear placements this reader does not evaluate

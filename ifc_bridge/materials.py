@@ -93,16 +93,25 @@ def _from_select(select: Entity) -> MaterialInfo:
 
 def element_material(
     element: Entity, etype: Entity | None, index: RelationIndex,
-    cache: dict[int, MaterialInfo] | None = None,
+    cache: dict | None = None,
 ) -> MaterialInfo:
     """Material of an occurrence, else of its type; a profile set on either is used.
 
     Args:
         element, etype: the occurrence and its type (or None).  index: relationship maps.
-        cache: optional {material select id: MaterialInfo} shared between calls.
+        cache: optional dict shared between calls (results per select and per
+            occurrence/type select pair).
     """
     cache = {} if cache is None else cache
+    own = index.material.get(element.id())
+    typed = index.material.get(etype.id()) if etype is not None else None
+    pair = (-(own.id() if own is not None else 0), -(typed.id() if typed is not None else 0))
+    if pair not in cache:  # negative keys: combined results; positive: single selects
+        cache[pair] = _combine(own, typed, cache)
+    return cache[pair]
 
+
+def _combine(own: Entity | None, typed: Entity | None, cache: dict) -> MaterialInfo:
     def unpack(select: Entity | None) -> MaterialInfo | None:
         if select is None:
             return None
@@ -111,8 +120,8 @@ def element_material(
             cache[key] = _from_select(select)
         return cache[key]
 
-    a = unpack(index.material.get(element.id()))
-    b = unpack(index.material.get(etype.id())) if etype is not None else None
+    a = unpack(own)
+    b = unpack(typed)
     if a is None and b is None:
         return MaterialInfo()
     if a is None or (a.profile is None and not a.materials):

@@ -18,6 +18,7 @@ Anything missing makes only that member "not checked" (``reason``), never the wh
 
 from __future__ import annotations
 
+import functools
 import gc
 import math
 from dataclasses import dataclass, field
@@ -268,15 +269,21 @@ def _safe_row(reader: _Reader, element: Entity) -> _Row:
         )
 
 
-def _default_note(design: DesignInputs) -> str | None:
+@functools.lru_cache(maxsize=64)
+def _default_text(k_given: frozenset[str], l_given: frozenset[str]) -> str | None:
     parts = []
-    k_missing = [f"K{a}" for a in AXES if a not in design.k]
-    l_missing = [f"L{a.lower()}" for a in AXES if a not in design.unbraced]
+    k_missing = [f"K{a}" for a in AXES if a not in k_given]
+    l_missing = [f"L{a.lower()}" for a in AXES if a not in l_given]
     if k_missing:
         parts.append(" = ".join(k_missing) + " = 1.0")
     if l_missing:
         parts.append(" = ".join(l_missing) + " = member length")
     return ("defaults used (no Stanchion_Design value): " + "; ".join(parts)) if parts else None
+
+
+def _default_note(design: DesignInputs) -> str | None:
+    """Message naming the K factors and unbraced lengths that took their defaults."""
+    return _default_text(frozenset(design.k), frozenset(design.unbraced))
 
 
 def _material_text(info: MaterialInfo) -> str:

@@ -54,6 +54,7 @@ class RelationIndex:
     result_groups: dict[int, list[Entity]] = field(default_factory=lambda: defaultdict(list))
     steel_properties: dict[int, Entity] = field(default_factory=dict)
     _storey_cache: dict[int, Entity | None] = field(default_factory=dict, repr=False)
+    _type_defs: dict[int, list[Entity]] = field(default_factory=dict, repr=False)
 
     @classmethod
     def build(cls, model: ifcopenshell.file) -> RelationIndex:
@@ -129,6 +130,11 @@ class RelationIndex:
 
     def property_definitions(self, obj: Entity) -> list[Entity]:
         """Property sets / quantities of an occurrence, or of a type (HasPropertySets)."""
+        key = obj.id()
+        if key in self._type_defs:
+            return self._type_defs[key]
         if obj.is_a("IfcTypeObject"):
-            return list(obj.HasPropertySets or ()) + self.definitions.get(obj.id(), [])
-        return self.definitions.get(obj.id(), [])
+            found = list(get(obj, "HasPropertySets") or ()) + self.definitions.get(key, [])
+            self._type_defs[key] = found
+            return found
+        return self.definitions.get(key, [])
