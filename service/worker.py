@@ -30,29 +30,34 @@ from service.jobs import (
     REPORT_FILE,
     RESULT_FILE,
 )
-from service.outputs import write_json
 
 log = logging.getLogger("stanchion.worker")
 
 CheckModel = Callable[..., dict]
 
 
-def _input_errors() -> tuple[type[BaseException], ...]:
-    """Exception types whose message describes a problem of the uploaded input."""
-    types: list[type[BaseException]] = [InputError]
-    try:
-        from ifc_bridge.model import ModelReadError
-    except ImportError:  # pragma: no cover - reader not installed
-        pass
-    else:
-        types.append(ModelReadError)
-    return tuple(types)
+def _is_input_error(exc: BaseException) -> bool:
+    """True when the exception describes a problem of the uploaded input.
+
+    That is :class:`InputError`, or the IFC reader's ``ModelReadError`` (matched by name so
+    that the worker does not import the reader before the check does).
+    """
+    return isinstance(exc, InputError) or any(
+        c.__name__ == "ModelReadError" and c.__module__.startswith("ifc_bridge")
+        for c in type(exc).__mro__)
 
 
 def _default_check() -> CheckModel:
     from service.model_check import check_model
 
     return check_model
+
+
+def _write_json(path: Path, data: dict) -> None:
+    """Write JSON through a temporary file and a rename (the server never sees half)."""
+    tmp = path.with_name(f".{path.name}.tmp")
+    tmp.write_text(json.dumps(data, indent=2, ensure_ascii=False) + "\n", encoding="utf-8")
+    os.replace(tmp, path)
 
 
 def _public_message(msg: str, job_dir: Path, names: dict[str, str]) -> str:
@@ -90,20 +95,20 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
             out_csv=job_dir / CSV_FILE,
         )
         if not (job_dir / REPORT_FILE).exists():
-            write_json(job_dir / REPORT_FILE, report)
+            _write_json(job_dir / REPORT_FILE, report)
         result = {"status": "done", "summary": report.get("summary")}
-    except _input_errors() as exc:
-        result = {"status": "failed", "error": _public_message(str(exc), job_dir, names)}
-    except ImportError:
-        traceback.print_exc()
-        result = {"status": "failed", "error": "model checks are not available on this server"}
     except MemoryError:
         result = {"status": "failed", "error": "the model is too large to process"}
     except Exception as exc:
-        traceback.print_exc()
-        result = {"status": "failed",
-                  "error": f"the model could not be processed ({type(exc).__name__})"}
-    write_json(job_dir / RESULT_FILE, result)
+        if _is_input_error(exc):
+            error = _public_message(str(exc), job_dir, names)
+        else:
+            traceback.print_exc()  # server-side only: worker.log in the job folder
+            error = ("model checks are not available on this server"
+                     if isinstance(exc, ImportError)
+                     else f"the model could not be processed ({type(exc).__name__})")
+        result = {"status": "failed", "error": error}
+    _write_json(job_dir / RESULT_FILE, result)
     return result
 
 

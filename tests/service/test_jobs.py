@@ -166,7 +166,7 @@ def test_at_most_max_workers_run_at_once(store) -> None:
     r = JobRunner(store, max_workers=1, timeout_s=30, command=STUB)
     r.start()
     try:
-        ids = [_queue(store, b"SLOW0.30") for _ in range(3)]
+        ids = [_queue(store, b"SLOW0.10") for _ in range(3)]
         r.wake()
         seen_running = 0
         end = time.monotonic() + 20
