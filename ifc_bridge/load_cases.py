@@ -194,7 +194,7 @@ class AnalysisLoads:
         per_case: dict[int, float] = {}
         case_of: dict[int, Entity] = {}
         notes: list[str] = []
-        skipped_global = 0
+        skipped_global = ungrouped = 0
         for item in [column, *members]:
             for activity in self.index.activities.get(item.id(), ()):
                 if not activity.is_a("IfcStructuralReaction"):
@@ -206,7 +206,10 @@ class AnalysisLoads:
                 if not forces:
                     continue
                 compression = max(-f for f in forces) * self.units.force
-                for group in self.index.result_groups.get(activity.id(), ()):
+                groups = self.index.result_groups.get(activity.id(), ())
+                if not groups:
+                    ungrouped += 1
+                for group in groups:
                     case = group.ResultForLoadGroup
                     if case is None:
                         self._tell(f"result group '{group.Name}' names no load case; ignored")
@@ -217,6 +220,9 @@ class AnalysisLoads:
         if skipped_global:
             notes.append(f"{skipped_global} analysis result(s) in global coordinates ignored "
                          "(axial force needs member-local ForceX)")
+        if ungrouped:
+            notes.append(f"{ungrouped} analysis result(s) in no IfcStructuralResultGroup "
+                         "ignored (their load case is unknown)")
         by_type: dict[str, list[tuple[str, float]]] = defaultdict(list)
         for key, value in per_case.items():
             kind = self.case_type(case_of[key])

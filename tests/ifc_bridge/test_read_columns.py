@@ -241,3 +241,10 @@ def test_an_element_that_cannot_be_walked_is_not_checked(builder, monkeypatch):
     assert m.reason[0] == "element could not be read (RuntimeError: corrupt entity)"
     assert m.extra["profile_source"][0] == "error"
     assert m.reason[1] is None
+
+
+def test_member_type_from_its_element_type(builder):
+    post_t = builder.column_type("PT", ifc_class="IfcMemberType", predefined_type="POST")
+    standard_column(builder, "P1", ifc_class="IfcMember", column_type=post_t)
+    m = read_columns(builder.model, include_members=True).members
+    assert list(m.name) == ["P1"]

@@ -275,3 +275,35 @@ def test_no_loads_is_a_reason(builder):
     m = read_columns(builder.model).members
     assert m.reason[0].startswith("no loads")
     assert m.extra["load_source"][0] == "none"
+
+
+def test_results_connected_to_the_column_itself(builder):
+    import ifcopenshell.api.structural
+
+    col = _col(builder)
+    case = builder.load_case("Dead", "DEAD_LOAD_G")
+    load = builder.model.create_entity("IfcStructuralLoadSingleForce", Name="D",
+                                       ForceX=builder.F(-64.0))
+    cls = ("IfcStructuralPointReaction" if builder.schema == "IFC2X3"
+           else "IfcStructuralCurveReaction")
+    reaction = ifcopenshell.api.structural.add_structural_activity(
+        builder.model, applied_load=load, structural_member=col, ifc_class=cls,
+        predefined_type="CONST" if cls.endswith("CurveReaction") else None,
+        global_or_local="LOCAL_COORDS")
+    rel = builder._create("IfcRelAssignsToGroup")
+    rel.RelatingGroup = builder.result_group(case)
+    rel.RelatedObjects = [reaction]
+    assert _loads(read_columns(builder.model).members) == pytest.approx({"D": 64.0})
+
+
+def test_results_outside_a_result_group_are_noted(builder):
+    col = _col(builder)
+    member = builder.analysis_member(col)
+    reaction = builder.reaction(member, builder.load_case("Dead", "DEAD_LOAD_G"), -10.0)
+    rel = builder.model.by_type("IfcRelAssignsToGroup")[0]
+    builder.model.remove(rel)
+    builder.loads(col, D=1.0)
+    m = read_columns(builder.model).members
+    assert _loads(m) == {"D": pytest.approx(1.0)}
+    assert any("in no IfcStructuralResultGroup" in s for s in m.messages[0])
+    assert reaction is not None

@@ -282,3 +282,17 @@ def test_shared_profile_is_computed_once(builder):
     m = read_columns(builder.model).members
     assert len(m.sections) == 1
     assert list(m.section_index) == [0] * 5
+
+
+def test_mapped_item_scale_applies_to_profile_and_depth(builder):
+    prof = builder.profile("I", None, d=8.0, bf=6.0, tw=0.25, tf=0.375)
+    col = builder.column("C1", profile=prof, material=builder.material("A992"), via="mapped",
+                         length=72.0)
+    item = col.Representation.Representations[0].Items[0]
+    item.MappingTarget.Scale = 2.0
+    builder.loads(col, D=1.0)
+    m = read_columns(builder.model).members
+    row = m.sections.row(m.section_index[0])
+    assert m.extra["profile_source"][0] == "body/dimensions"
+    assert row["d"] == pytest.approx(16.0)  # 2 × 8 in (common practice, no source)
+    assert m.lx[0] == pytest.approx(144.0)  # 2 × 72 in extrusion
