@@ -1,0 +1,28 @@
+"""IFC side of stanchion: models in (:mod:`ifc_bridge.read`), results out (``write``).
+
+Reading (ifcopenshell 0.9, no geometry tessellation)::
+
+    from ifc_bridge.model import ModelReadError, open_model
+    from ifc_bridge.read import read_columns
+
+    model = open_model("building.ifc")          # ModelReadError: one line, CLI exit 2
+    result = read_columns(model, include_members=False, loads_table="loads.csv")
+    result.members        # engine.members.MemberTable in kip / inch / ksi, id = GlobalId
+    result.messages       # model-level warnings
+    result.force_unit_factor, result.length_unit_factor   # model unit -> kip / inch
+
+Where each rule lives:
+
+* :mod:`ifc_bridge.model` -- accepted files and schemas;
+* :mod:`ifc_bridge.units` -- project units, undeclared-unit assumption and warnings;
+* :mod:`ifc_bridge.elements` -- which elements are read, plan positions;
+* :mod:`ifc_bridge.relations` -- one-pass relationship maps;
+* :mod:`ifc_bridge.representation`, :mod:`ifc_bridge.profiles` -- Body / Axis and profiles;
+* :mod:`ifc_bridge.sections` -- catalog agreement and sections from dimensions;
+* :mod:`ifc_bridge.materials`, :mod:`ifc_bridge.grades` -- yield stress precedence and the
+  grade table;
+* :mod:`ifc_bridge.lengths` -- member length sources;
+* :mod:`ifc_bridge.properties` -- Stanchion_Design / Stanchion_Loads;
+* :mod:`ifc_bridge.load_cases`, :mod:`ifc_bridge.loads` -- analysis results (load case ->
+  load type table), the CSV load table and source precedence.
+"""

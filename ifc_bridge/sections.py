@@ -134,6 +134,11 @@ def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
     spec = req.spec
     name = spec.name
     if spec.family is None:
+        if name and cat_index >= 0:
+            return -2, [], (f"{spec.problem}; '{name}' is a catalog shape, but a profile of "
+                            "this type cannot confirm its dimensions")
+        if name:
+            return -2, [], f"{spec.problem}; {unknown_section_reason(name)}"
         return -2, [], spec.problem
     if spec.problem:
         return -2, [], spec.problem

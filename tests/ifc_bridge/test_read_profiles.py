@@ -184,6 +184,13 @@ def test_catalog_angle_name_is_not_checked(builder):
 def test_arbitrary_profile_is_not_checked(builder):
     m, _ = _read_one(builder, builder.profile("ARBITRARY", "W14X48", b=8.0))
     assert m.reason[0].startswith("unsupported profile type IfcArbitraryClosedProfileDef")
+    assert "'W14X48' is a catalog shape" in m.reason[0]
+
+
+def test_unknown_catalog_name_without_dimensions(builder):
+    m, _ = _read_one(builder, builder.profile("ARBITRARY", "W14X47", b=8.0))
+    assert "unknown section 'W14X47'" in m.reason[0]
+    assert "nearest: W14X48" in m.reason[0]  # engine.catalog suggestion
 
 
 def test_asymmetric_i_without_catalog_name(builder):
