@@ -18,6 +18,8 @@ import jsonschema
 import pandas as pd
 import pytest
 from test_model_check_files import (
+    LENGTH,
+    build_model,
     class_counts,
     column_guids,
     digest,
@@ -226,3 +228,45 @@ def test_baseline_adds_changes(tmp_path) -> None:
     assert changes["baseline"] == "r1.json"
     assert changes["counts"]["added"] == 3 and changes["counts"]["removed"] == 3
     jsonschema.validate(report, report_schema())
+
+
+def test_include_members_checks_struts_and_writes_their_sets(tmp_path) -> None:
+    b = build_model()
+    profile = b.model.by_type("IfcIShapeProfileDef")[0]
+    steel = b.model.by_type("IfcMaterial")[0]
+    strut = b.column("S1", profile=profile, material=steel, length=LENGTH,
+                     ifc_class="IfcMember", predefined_type="STRUT")
+    b.loads(strut, D=10.0)
+    src = b.write(tmp_path / "model.ifc")
+    assert len(check_model(src)["members"]) == 3  # columns only by default
+    out = tmp_path / "checked.ifc"
+    report = check_model(src, include_members=True, out_model=out)
+    s1 = next(m for m in report["members"] if m["name"] == "S1")
+    assert s1["ifc_class"] == "IfcMember" and s1["status"] == "pass"
+    assert s1["required_strength"] == pytest.approx(14.0, abs=0.01)  # 1.4D, §2.3.1 (1)
+    assert report["source"]["include_members"] is True
+    checked = ifcopenshell.open(str(out))
+    props = ifcopenshell.util.element.get_psets(checked.by_guid(s1["id"]))[PSET_NAME]
+    assert props["Status"] == "PASS"
+
+
+def test_models_with_owner_histories_get_ours_in_ifc4(tmp_path) -> None:
+    b = build_model("IFC4")
+    person = b.model.create_entity("IfcPerson", FamilyName="Author")
+    org = b.model.create_entity("IfcOrganization", Name="Office")
+    user = b.model.create_entity("IfcPersonAndOrganization", ThePerson=person,
+                                 TheOrganization=org)
+    app = b.model.create_entity("IfcApplication", ApplicationDeveloper=org, Version="1",
+                                ApplicationFullName="authoring", ApplicationIdentifier="auth")
+    history = b.model.create_entity("IfcOwnerHistory", OwningUser=user, OwningApplication=app,
+                                    ChangeAction="ADDED", CreationDate=0)
+    b.project.OwnerHistory = history
+    src = b.write(tmp_path / "model.ifc")
+    out = tmp_path / "checked.ifc"
+    check_model(src, out_model=out)
+    checked = ifcopenshell.open(str(out))
+    sets = [p for p in checked.by_type("IfcPropertySet") if p.Name == PSET_NAME]
+    assert all(p.OwnerHistory.OwningApplication.ApplicationIdentifier == "stanchion"
+               for p in sets)
+    assert sets[0].OwnerHistory.OwningUser.ThePerson.FamilyName == "Author"
+    assert _errors(out) == []
