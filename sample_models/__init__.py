@@ -1,0 +1,1 @@
+"""Sample IFC models of an invented building (demo data) and their generator."""
