@@ -122,6 +122,7 @@ def check_model(
     allow_not_checked: bool = False,
     checked_at: datetime | str | None = "now",
     progress: Progress | None = None,
+    source_name: str | None = None,
 ) -> dict:
     """Check every column of an IFC model and write the requested outputs.
 
@@ -137,6 +138,8 @@ def check_model(
         allow_not_checked: JUnit lists not-checked members as skipped instead of failed.
         checked_at: CheckedAt written into the model: "now" (default), a time, or None.
         progress: phase reporter (default: silent).
+        source_name: the file name shown in the report's ``source`` (default: the path's
+            name; the HTTP service passes the uploaded file's name).
 
     Returns:
         The report dict (design.md §3) with ``source`` (and ``changes`` with a baseline).
@@ -171,7 +174,7 @@ def check_model(
                           messages=list(read.messages))
     _add_extra_fields(report, members, read.length_unit_factor)
     report["source"] = {
-        "file": path.name,
+        "file": source_name or path.name,
         "schema": model.schema_identifier,
         "columns": len(model.by_type("IfcColumn")),
         "members": len(members),
