@@ -391,7 +391,8 @@ def main(argv: list[str] | None = None) -> int:
     for path in write_samples(args.out_dir):
         print(f"wrote {path} ({path.stat().st_size:,} bytes)")
     if not args.no_summary:
-        summary = summarize(args.out_dir)
+        summary = {"generated_with": {"ifcopenshell": ifcopenshell.version, "seed": SEED},
+                   **summarize(args.out_dir)}
         target = args.out_dir / SUMMARY
         target.write_text(json.dumps(summary, indent=2) + "\n", encoding="utf-8")
         print(f"wrote {target}")
