@@ -22,14 +22,25 @@ NOT_CHECKED = "not_checked"
 NO_STOREY = "(no storey)"
 
 
+def _umask() -> int:
+    mask = os.umask(0)
+    os.umask(mask)
+    return mask
+
+
 def write_atomic(path: Path, write: Callable[[Path], None]) -> None:
-    """Call ``write(tmp_path)`` and rename the result onto ``path`` (no partial files)."""
+    """Call ``write(tmp_path)`` and rename the result onto ``path`` (no partial files).
+
+    The file gets the permissions a plain ``open(path, "w")`` would give (0666 less the
+    umask), not the private mode of the temporary file.
+    """
     path = Path(path)
     path.parent.mkdir(parents=True, exist_ok=True)
     fd, tmp = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=path.parent)
     os.close(fd)
     try:
         write(Path(tmp))
+        os.chmod(tmp, 0o666 & ~_umask())
         os.replace(tmp, path)
     except BaseException:
         Path(tmp).unlink(missing_ok=True)

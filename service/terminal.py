@@ -12,7 +12,8 @@ from collections import Counter
 from service.baseline import format_changes, regressions
 from service.report import format_summary
 
-MAX_STOREYS = 20
+ALL_STOREYS = 12  # up to this many storeys are all listed, in model order
+WORST_STOREYS = 10  # otherwise the worst ones, worst first
 MAX_MESSAGES = 5
 
 
@@ -40,14 +41,19 @@ def storey_table(report: dict) -> list[str]:
         table.setdefault(key, Counter())[r["status"]] += 1
         if r.get("utilization") is not None:
             worst[key] = max(worst.get(key, 0.0), r["utilization"])
+    keys = list(table)
+    if len(keys) > ALL_STOREYS:
+        keys = sorted(keys, key=lambda k: (-table[k]["fail"], -table[k]["not_checked"],
+                                           -worst.get(k, 0.0)))[:WORST_STOREYS]
     lines = [f"  {'storey':<24} {'members':>7} {'pass':>6} {'fail':>6} {'n/c':>6} "
              f"{'max util':>8}"]
-    for key, c in list(table.items())[:MAX_STOREYS]:
+    for key in keys:
+        c = table[key]
         u = f"{worst[key]:.3f}" if key in worst else "-"
         lines.append(f"  {key[:24]:<24} {sum(c.values()):>7} {c['pass']:>6} {c['fail']:>6} "
                      f"{c['not_checked']:>6} {u:>8}")
-    if len(table) > MAX_STOREYS:
-        lines.append(f"  ... and {len(table) - MAX_STOREYS} more storeys")
+    if len(table) > len(keys):
+        lines.append(f"  (the {len(keys)} worst of {len(table)} storeys)")
     return lines
 
 
@@ -60,7 +66,8 @@ def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False)
                 else "result: PASS (no regressions against the baseline)")
     nc = 0 if allow_not_checked else s["not_checked"]
     if s["fail"] or nc:
-        parts = [f"{s['fail']} failing"] + ([f"{nc} not checked"] if nc else [])
+        parts = ([f"{s['fail']} failing"] if s["fail"] else []) + (
+            [f"{nc} not checked"] if nc else [])
         return f"result: FAIL ({', '.join(parts)})"
     return "result: PASS"
 

@@ -126,3 +126,13 @@ def test_write_atomic_leaves_nothing_behind_on_failure(tmp_path) -> None:
         write_atomic(target, broken)
     assert target.read_text() == "old"
     assert [p.name for p in tmp_path.iterdir()] == ["out.txt"]
+
+
+def test_written_files_get_ordinary_permissions(tmp_path) -> None:
+    import os
+
+    path = tmp_path / "r.csv"
+    write_csv(path, REPORT)
+    mask = os.umask(0)
+    os.umask(mask)
+    assert path.stat().st_mode & 0o777 == 0o666 & ~mask  # like open(path, "w")
