@@ -116,6 +116,7 @@ def _as_decimal(token: str, places: int | None = None) -> str:
     return f"{value:.4f}".rstrip("0").rstrip(".")
 
 
+@functools.lru_cache(maxsize=8192)
 def normalize_designation(text: str) -> str:
     """Canonical catalog spelling of a shape designation.
 

@@ -72,10 +72,13 @@ def _not_checked_reasons(m: MemberTable) -> np.ndarray:
     kind = np.full(n, -1)
     kind[has_section] = m.sections.kind[idx[has_section]]
 
-    def add(mask: np.ndarray, text: str | np.ndarray) -> None:
-        free = mask & np.equal(reason, None)
-        if free.any():
-            reason[free] = text if isinstance(text, str) else text[free]
+    free = np.equal(reason, None)
+
+    def add(mask: np.ndarray, text: str) -> None:
+        hit = mask & free
+        if hit.any():
+            reason[hit] = text
+            free[hit] = False
 
     add(~has_section, "no usable section")
     add(kind == Kind.UNSUPPORTED,

@@ -38,6 +38,7 @@ combinations of Chapter 12; such cases can be supplied as custom combinations.
 
 from __future__ import annotations
 
+import functools
 import itertools
 import math
 from collections.abc import Mapping
@@ -268,16 +269,22 @@ def default_combinations(method: str, half_live: bool = False) -> list[Combinati
             design provision; the ASD combinations have no such option).
     """
     key = str(method).strip().upper()
-    if key == "LRFD":
-        return lrfd_combinations(half_live=half_live)
-    if key == "ASD":
-        if half_live:
-            raise ValueError(
-                "the 0.5L exception (half_live) is an ASCE 7-22 §2.3.1 strength design "
-                "provision and does not apply to ASD"
-            )
-        return asd_combinations()
-    raise ValueError(f"unknown design method {method!r} (expected 'LRFD' or 'ASD')")
+    if key == "ASD" and half_live:
+        raise ValueError(
+            "the 0.5L exception (half_live) is an ASCE 7-22 §2.3.1 strength design "
+            "provision and does not apply to ASD"
+        )
+    if key not in ("LRFD", "ASD"):
+        raise ValueError(f"unknown design method {method!r} (expected 'LRFD' or 'ASD')")
+    return list(_defaults(key, bool(half_live)))
+
+
+@functools.cache
+def _defaults(method: str, half_live: bool) -> tuple[Combination, ...]:
+    """The default combinations, built once per (method, option)."""
+    if method == "LRFD":
+        return tuple(lrfd_combinations(half_live=half_live))
+    return tuple(asd_combinations())
 
 
 def custom_combinations(spec: list[dict]) -> list[Combination]:
@@ -325,6 +332,24 @@ def custom_combinations(spec: list[dict]) -> list[Combination]:
 
 
 def expand_signs(
+    combinations: list[Combination],
+) -> tuple[list[str], list[str], np.ndarray]:
+    """Expand W and E into both signs (cached by content; see :func:`_expand_signs`)."""
+    key = tuple((c.name, tuple(c.factors.items()), c.source) for c in combinations)
+    hit = _EXPANDED.get(key)
+    if hit is None:
+        names, sources, factors = _expand_signs(combinations)
+        factors.flags.writeable = False
+        if len(_EXPANDED) >= 256:
+            _EXPANDED.clear()
+        hit = _EXPANDED[key] = (tuple(names), tuple(sources), factors)
+    return list(hit[0]), list(hit[1]), hit[2]
+
+
+_EXPANDED: dict[tuple, tuple[tuple[str, ...], tuple[str, ...], np.ndarray]] = {}
+
+
+def _expand_signs(
     combinations: list[Combination],
 ) -> tuple[list[str], list[str], np.ndarray]:
     """Expand W and E into both signs.

@@ -273,6 +273,17 @@ class _RowConstants:
     round_: np.ndarray
 
     @classmethod
+    def cached(cls, sec: SectionTable) -> _RowConstants:
+        """Constants of ``sec``, kept on the table when its arrays are read-only (catalog)."""
+        hit = getattr(sec, "_chapter_e_constants", None)
+        if hit is not None:
+            return hit
+        out = cls.of(sec)
+        if not sec.A.flags.writeable:
+            sec._chapter_e_constants = out  # type: ignore[attr-defined]
+        return out
+
+    @classmethod
     def of(cls, sec: SectionTable) -> _RowConstants:
         with np.errstate(divide="ignore", invalid="ignore"):
             inv_rx, inv_ry = 1.0 / sec.rx, 1.0 / sec.ry
@@ -316,7 +327,7 @@ def compressive_strength(
     E = np.broadcast_to(np.asarray(E, dtype=float), (n,))
     G = np.broadcast_to(np.asarray(G, dtype=float), (n,))
     Lcx, Lcy, Lcz = (np.broadcast_to(np.asarray(a, dtype=float), (n,)) for a in (Lcx, Lcy, Lcz))
-    limits = _RowConstants.of(sec)
+    limits = _RowConstants.cached(sec)
     out = CompressionResult(
         Pn=np.empty(n), Fcr=np.empty(n), Fe=np.empty(n), Ae=np.empty(n), Ag=np.empty(n),
         slenderness=np.empty(n), limit_state=np.empty(n, dtype=np.int64),

@@ -5,6 +5,8 @@ Members request -> member table (units converted here, at the edge) -> engine ->
 
 from __future__ import annotations
 
+import operator
+
 import numpy as np
 
 from engine import catalog, section_properties
@@ -76,6 +78,9 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
     return table, idx, reasons, labels
 
 
+_load_values = operator.attrgetter(*LOAD_TYPES)
+
+
 def members_from_request(req: MembersRequest) -> MemberTable:
     """Convert a members request into the engine's member table (kip, inch, ksi)."""
     ms = req.members
@@ -84,15 +89,26 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     fS = stress_factor(req.units.stress)
     sections, idx, reasons, labels = _sections(ms, req.units.length)
 
-    def col(values: list[float | None], factor: float) -> np.ndarray:
-        return np.array([np.nan if v is None else v * factor for v in values], dtype=float)
-
-    length = col([m.length for m in ms], fL)
-    lx, ly, lz = (col([getattr(m, a) for m in ms], fL) for a in ("lx", "ly", "lz"))
-    loads = np.array(
-        [[np.nan if (m.loads is None or getattr(m.loads, t) is None) else getattr(m.loads, t)
-          for t in LOAD_TYPES] for m in ms], dtype=float
-    ).reshape(len(ms), len(LOAD_TYPES)) * fF
+    # One pass over the members into a float table (None -> NaN), then columns by slicing.
+    nan = float("nan")
+    none_loads = (nan,) * len(LOAD_TYPES)
+    table = np.array([
+        (
+            nan if m.fy is None else m.fy,
+            nan if m.length is None else m.length,
+            nan if m.lx is None else m.lx,
+            nan if m.ly is None else m.ly,
+            nan if m.lz is None else m.lz,
+            m.kx, m.ky, m.kz,
+            nan if m.required_strength is None else m.required_strength,
+            *(none_loads if m.loads is None else
+              [nan if v is None else v for v in _load_values(m.loads)]),
+        )
+        for m in ms
+    ], dtype=float).reshape(len(ms), 9 + len(LOAD_TYPES))
+    length = table[:, 1] * fL
+    lx, ly, lz = (table[:, c] * fL for c in (2, 3, 4))
+    loads = table[:, 9:] * fF
     E = (req.E * fS) if req.E is not None else E_DEFAULT
     G = (req.G * fS) if req.G is not None else G_DEFAULT
     return MemberTable.build(
@@ -101,18 +117,18 @@ def members_from_request(req: MembersRequest) -> MemberTable:
         section_label=labels,
         sections=sections,
         section_index=idx,
-        Fy=col([m.fy for m in ms], fS),
+        Fy=table[:, 0] * fS,
         length=length,
         lx=np.where(np.isnan(lx), length, lx),
         ly=np.where(np.isnan(ly), length, ly),
         lz=np.where(np.isnan(lz), length, lz),
-        kx=np.array([m.kx for m in ms], dtype=float),
-        ky=np.array([m.ky for m in ms], dtype=float),
-        kz=np.array([m.kz for m in ms], dtype=float),
+        kx=table[:, 5],
+        ky=table[:, 6],
+        kz=table[:, 7],
         E=E,
         G=G,
         loads=loads,
-        required_strength=col([m.required_strength for m in ms], fF),
+        required_strength=table[:, 8] * fF,
         reason=reasons,
     )
 

@@ -27,6 +27,24 @@ def design_basis(method: str, custom_combinations: bool = False) -> str:
     return f"AISC 360-22 Chapter E, {method}; {combos}"
 
 
+def _sig_list(a: np.ndarray, digits: int = 6) -> list[float | None]:
+    """Vectorized :func:`_sig`: round an array to significant digits, NaN / inf -> None."""
+    a = np.asarray(a, dtype=float)
+    out = np.zeros(a.shape)
+    finite = np.isfinite(a)
+    nz = finite & (a != 0)
+    if nz.any():
+        v = a[nz]
+        exp10 = digits - 1 - np.floor(np.log10(np.abs(v)))
+        up = exp10 >= 0  # multiply by an exact power of ten, or divide by one: exact steps
+        r = np.empty_like(v)
+        p = 10.0 ** np.abs(exp10)
+        r[up] = np.round(v[up] * p[up]) / p[up]
+        r[~up] = np.round(v[~up] / p[~up]) * p[~up]
+        out[nz] = r
+    return [x if ok else None for x, ok in zip(out.tolist(), finite.tolist(), strict=True)]
+
+
 def _sig(x: float, digits: int = 6) -> float | None:
     """Round to significant digits for the report; NaN / inf become null."""
     if x is None or not math.isfinite(x):
@@ -62,31 +80,39 @@ def build_report(
     weight_factor = (factor("lbf", "kip") * to_force) / (length_factor("ft") / length_factor(
         units["length"]))
 
+    req_l, avail_l = _sig_list(req), _sig_list(avail)
+    util_l = _sig_list(results.utilization, 4)
+    slender_l = _sig_list(results.slenderness, 4)
+    fcr_l = _sig_list(results.Fcr * to_stress)
+    ids, names, labels = members.id.tolist(), members.name.tolist(), members.section_label.tolist()
+    status_l = results.status.tolist()
+    tension_l = tension.tolist()
+    limit_l, combo_l = results.limit_state.tolist(), results.combination.tolist()
     rows = []
     for i in range(len(results)):
         msgs = list(results.messages[i])
-        if tension[i] > 0:
+        if tension_l[i] > 0:
             msgs.append(
-                f"a load combination gives net tension of {_sig(tension[i], 4)} "
+                f"a load combination gives net tension of {_sig(tension_l[i], 4)} "
                 f"{units['force']}; tension is not checked here"
             )
         row = {
-            "id": str(members.id[i]),
-            "name": str(members.name[i]),
-            "section": str(members.section_label[i]),
-            "status": str(results.status[i]),
-            "required_strength": _sig(req[i]),
-            "available_strength": _sig(avail[i]),
-            "utilization": _sig(results.utilization[i], 4),
-            "limit_state": str(results.limit_state[i]),
-            "combination": str(results.combination[i]),
-            "slenderness": _sig(results.slenderness[i], 4),
-            "critical_stress": _sig(results.Fcr[i] * to_stress),
+            "id": str(ids[i]),
+            "name": str(names[i]),
+            "section": str(labels[i]),
+            "status": str(status_l[i]),
+            "required_strength": req_l[i],
+            "available_strength": avail_l[i],
+            "utilization": util_l[i],
+            "limit_state": str(limit_l[i]),
+            "combination": str(combo_l[i]),
+            "slenderness": slender_l[i],
+            "critical_stress": fcr_l[i],
             "messages": msgs,
         }
         if storey is not None:
             row["storey"] = None if storey[i] is None else str(storey[i])
-        if results.status[i] == NOT_CHECKED:
+        if status_l[i] == NOT_CHECKED:
             row["reason"] = str(results.reason[i])
         if suggestions is not None and i in suggestions:
             row["suggestions"] = [
