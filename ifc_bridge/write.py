@@ -66,6 +66,8 @@ PROPERTY_TYPES: dict[str, str] = {
     "Disclaimer": "IfcText",
     "Reason": "IfcText",
     "Notes": "IfcText",
+    "SuggestedSection": "IfcLabel",
+    "SuggestedUtilization": "IfcRatioMeasure",
     "CheckedAt": "IfcDateTime",
 }
 
@@ -236,7 +238,7 @@ def _finite(values: np.ndarray) -> list[float | None]:
 
 def _row_values(
     members: MemberTable, results: CheckResults, to_model_force: float,
-    constant: dict[str, object],
+    constant: dict[str, object], suggested: dict[int, tuple[str, float]] | None = None,
 ) -> Callable[[int], dict[str, object]]:
     """A function row -> {property name: plain value}; columns are prepared vectorized."""
     status = [STATUS_LABELS[str(s)] for s in results.status]
@@ -271,6 +273,9 @@ def _row_values(
             out["Reason"] = reason[i]
         if notes[i]:
             out["Notes"] = notes[i]
+        if suggested and i in suggested:
+            out["SuggestedSection"] = _label(suggested[i][0])
+            out["SuggestedUtilization"] = float(suggested[i][1])
         out.update(constant)
         return out
 
@@ -367,6 +372,7 @@ def write_results(
     checked_at: datetime | str | None = None,
     mark_unlisted_columns: bool = True,
     progress: Callable[[int, int], None] | None = None,
+    suggested: dict[int, tuple[str, float]] | None = None,
 ) -> WriteSummary:
     """Write one ``Stanchion_ColumnCheck`` property set per checked element (in place).
 
@@ -381,6 +387,8 @@ def write_results(
         checked_at: when given, written as CheckedAt (IfcDateTime; IfcLabel in IFC2X3).
         mark_unlisted_columns: also write NOT CHECKED on IfcColumns missing from ``members``.
         progress: called as ``progress(done, total)`` every 2,000 elements.
+        suggested: by member row, the suggested section and its utilization
+            (SuggestedSection, SuggestedUtilization); a rerun without it removes them.
 
     Returns:
         A :class:`WriteSummary`.
@@ -403,7 +411,7 @@ def write_results(
     stamp = _checked_at_text(checked_at)
     if stamp is not None:
         constant["CheckedAt"] = stamp
-    values_of = _row_values(members, results, 1.0 / to_kip, constant)
+    values_of = _row_values(members, results, 1.0 / to_kip, constant, suggested)
     existing = existing_sets(model)
     writer = _Writer(model, history)
 

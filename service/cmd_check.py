@@ -75,10 +75,17 @@ def _check_options(args: argparse.Namespace, is_model: bool) -> None:
     if not is_model:
         for option, value in (("--out", args.out), ("--loads", args.loads),
                               ("--include-members", args.include_members),
-                              ("--units", args.units)):
+                              ("--units", args.units), ("--suggest", args.suggest)):
             if value:
                 raise InputError(f"{option} applies to IFC models; a members file carries "
-                                 "its own loads and units")
+                                 "its own loads, units and candidates")
+    if args.max_utilization is not None and not args.max_utilization > 0:
+        raise InputError("--max-utilization must be greater than zero")
+    if args.oversized is not None and not args.oversized > 0:
+        raise InputError("--oversized must be greater than zero")
+    if (args.max_utilization is not None or args.oversized is not None
+            or args.families) and not args.suggest:
+        raise InputError("--max-utilization, --oversized and --families go with --suggest")
 
 
 def _check_members_file(path: Path, args: argparse.Namespace) -> dict:
@@ -158,6 +165,17 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                       "new-failures: exit 1 only on regressions against --baseline")
     gate.add_argument("--allow-not-checked", action="store_true",
                       help="not-checked members are warnings, not failures")
+    sug = c.add_argument_group("section suggestions (IFC input)")
+    sug.add_argument("--suggest", action="store_true",
+                     help="suggest the lightest adequate catalog section for failing columns "
+                     "(SuggestedSection in the model, suggestions in the report)")
+    sug.add_argument("--max-utilization", type=float, metavar="U",
+                     help="suggestions must pass at this utilization (default 1.0)")
+    sug.add_argument("--oversized", type=float, metavar="U",
+                     help="also suggest for passing columns below this utilization")
+    sug.add_argument("--families", type=lambda t: [x.strip() for x in t.split(",") if x.strip()],
+                     metavar="W10,W12", help="candidate families or designations (default: "
+                     "each column's own family)")
     c.add_argument("--quiet", action="store_true",
                    help="print nothing but errors (no progress, summary or warnings)")
     c.set_defaults(func=run_check, progress=None)

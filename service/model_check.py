@@ -25,6 +25,7 @@ from engine.units import length_factor
 from ifc_bridge.model import ModelReadError, open_model
 from ifc_bridge.write import checked_now, write_results
 from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
+from service.core import suggestions_for
 from service.errors import InputError
 from service.outputs import write_model_checked, write_outputs
 from service.progress import Progress, Silent
@@ -123,6 +124,10 @@ def check_model(
     checked_at: datetime | str | None = "now",
     progress: Progress | None = None,
     source_name: str | None = None,
+    suggest: bool = False,
+    max_utilization: float = 1.0,
+    oversized: float | None = None,
+    families: list[str] | None = None,
 ) -> dict:
     """Check every column of an IFC model and write the requested outputs.
 
@@ -140,6 +145,11 @@ def check_model(
         progress: phase reporter (default: silent).
         source_name: the file name shown in the report's ``source`` (default: the path's
             name; the HTTP service passes the uploaded file's name).
+        suggest: suggest the lightest adequate section for failing columns (and, with
+            ``oversized``, for passing columns below that utilization).
+        max_utilization: the reserve margin suggestions must meet.
+        oversized: utilization below which a passing column counts as oversized.
+        families: candidate families / designations (default: each column's own family).
 
     Returns:
         The report dict (design.md §3) with ``source`` (and ``changes`` with a baseline).
@@ -170,8 +180,12 @@ def check_model(
     with progress.phase(f"checking {len(members):,} members"):
         results = check_members(members, method)
 
+    suggestions: dict[int, list[dict]] | None = None
+    if suggest:
+        with progress.phase("suggesting sections"):
+            suggestions = _suggest(members, results, max_utilization, oversized, families)
     report = build_report(members, results, dict(UNIT_SYSTEMS[units]),
-                          messages=list(read.messages))
+                          messages=list(read.messages), suggestions=suggestions)
     _add_extra_fields(report, members, read.length_unit_factor)
     report["source"] = {
         "file": source_name or path.name,
@@ -191,7 +205,9 @@ def check_model(
             summary = write_results(
                 model, members, results, design_basis=report["design_basis"],
                 disclaimer=DISCLAIMER, force_unit_factor=read.force_unit_factor,
-                checked_at=stamp, progress=progress.count)
+                checked_at=stamp, progress=progress.count,
+                suggested={i: (s[0]["section"], s[0]["utilization"])
+                           for i, s in (suggestions or {}).items() if s})
         if summary.added_force_unit:
             report["messages"].append(
                 f"the model declared no force unit; {summary.force_unit} was added to its "
@@ -205,6 +221,37 @@ def check_model(
     write_outputs(report, report_path=out_report, csv_path=out_csv, junit_path=out_junit,
                   allow_not_checked=allow_not_checked)
     return report
+
+
+def _suggest(members, results, max_utilization: float, oversized: float | None,
+             families: list[str] | None) -> dict[int, list[dict]]:
+    """Suggestions for failing columns and for passing ones below ``oversized``."""
+    status = results.status
+    wanted = status == "fail"
+    if oversized is not None:
+        wanted |= (status == "pass") & (results.utilization < oversized)
+    own = np.full(len(members), None, dtype=object)
+    has = members.section_index >= 0
+    own[has] = members.sections.family[members.section_index[has]]
+    specs: list[list[str] | None] = [None] * len(members)
+    for i in np.flatnonzero(wanted):
+        fam = families or ([SUGGEST_FAMILY.get(str(own[i]), str(own[i]))] if own[i] else None)
+        specs[i] = fam
+    found, problems = suggestions_for(
+        members, results, specs, [max_utilization] * len(members))
+    for i, text in problems.items():
+        results.messages[i] = [*results.messages[i], text]
+    for i in np.flatnonzero(wanted):
+        if specs[i] and not found.get(int(i)):
+            results.messages[i] = [*results.messages[i],
+                                   f"no section of {', '.join(specs[i])} passes at "
+                                   f"utilization <= {max_utilization:g}"]
+    return found
+
+
+#: Family searched for a column whose section has no catalog family of its own
+#: (parametric profiles from the IFC reader).
+SUGGEST_FAMILY = {"I": "W", "T": "WT", "U": "C", "RECT": "HSS", "ROUND": "HSS_ROUND"}
 
 
 def check_model_file(path: Path, args: argparse.Namespace) -> dict:
@@ -223,5 +270,9 @@ def check_model_file(path: Path, args: argparse.Namespace) -> dict:
         change_threshold=getattr(args, "change_threshold", DEFAULT_THRESHOLD),
         allow_not_checked=getattr(args, "allow_not_checked", False),
         progress=getattr(args, "progress", None),
+        suggest=getattr(args, "suggest", False),
+        max_utilization=getattr(args, "max_utilization", None) or 1.0,
+        oversized=getattr(args, "oversized", None),
+        families=getattr(args, "families", None),
     )
 
