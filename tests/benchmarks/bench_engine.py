@@ -15,9 +15,9 @@ Not a test: it asserts nothing and only prints numbers.
 from __future__ import annotations
 
 import sys
-import time
 
 import numpy as np
+from timing import best_of
 
 from engine import catalog
 from engine.check import check_members
@@ -34,16 +34,6 @@ def bare_e3_kernel(cat, idx, Fy, Lcx, Lcy) -> np.ndarray:
     ratio = Fy / Fe
     Fcr = np.where(ratio <= 2.25, np.power(0.658, ratio) * Fy, 0.877 * Fe)
     return 0.9 * Fcr * A
-
-
-def best_of(fn, repeats: int = 3) -> float:
-    """Shortest wall time of ``repeats`` calls."""
-    best = np.inf
-    for _ in range(repeats):
-        t = time.perf_counter()
-        fn()
-        best = min(best, time.perf_counter() - t)
-    return best
 
 
 def main(n: int = 1_000_000) -> None:

@@ -10,22 +10,13 @@ floor of the selection's work), with their ratio.  Not a test: it only prints nu
 from __future__ import annotations
 
 import sys
-import time
 
 import numpy as np
+from timing import best_of
 
 from engine import catalog
 from engine.compression import compressive_strength
 from engine.selection import candidate_indices, select
-
-
-def best_of(fn, repeats: int = 5) -> float:
-    best = np.inf
-    for _ in range(repeats):
-        t = time.perf_counter()
-        fn()
-        best = min(best, time.perf_counter() - t)
-    return best
 
 
 def main(n: int = 2000) -> None:
