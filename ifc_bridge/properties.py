@@ -11,7 +11,7 @@ property the occurrence's value wins over the type's:
     source (see :mod:`ifc_bridge.materials`).  x / y are the engine's section axes (AISC: x is
     the major axis), whatever the orientation of the profile in the model.
 
-``Stanchion_Loads`` (on the column only)
+``Stanchion_Loads``
     ``D``, ``L``, ``Lr``, ``S``, ``R``, ``W``, ``E``: axial service load effects,
     IfcForceMeasure in the model's force unit, compression positive.
 
@@ -212,10 +212,11 @@ def design_inputs(
 def pset_loads(
     values: dict[str, PropertyValue], units: ModelUnits
 ) -> tuple[dict[str, float], list[str], list[str]]:
-    """Stanchion_Loads on the column.
+    """Stanchion_Loads on the column or its type.
 
     Args:
-        values: :func:`single_values` of the column's Stanchion_Loads ({} when absent).
+        values: :func:`single_values` of the Stanchion_Loads of the type, updated with the
+            column's own ({} when absent).
         units: the model's units.
 
     Returns:

@@ -185,7 +185,10 @@ class _Reader:
         reasons.extend(design.problems)
         analysis, anotes = self.analysis.for_column(element, linked)
         notes.extend(anotes)
-        pset, pnotes, pproblems = pset_loads(self.values(occ_defs, LOADS_PSET)[1], self.units)
+        # Stanchion_Loads on the column or its type; the column's value wins per load type.
+        load_values = {**self.values(type_defs, LOADS_PSET)[1],
+                       **self.values(occ_defs, LOADS_PSET)[1]}
+        pset, pnotes, pproblems = pset_loads(load_values, self.units)
         notes.extend(pnotes)
         reasons.extend(pproblems)
         gid, name = get(element, "GlobalId"), get(element, "Name")

@@ -244,12 +244,18 @@ def main() -> None:
               f"built in {time.perf_counter() - t:.1f} s")
         server = Server(tmp_path / "data")
         try:
-            run(server.url, model, args)
+            run(server.url, model, args, server.proc.pid)
         finally:
             server.stop()
 
 
-def run(url: str, model: Path, args: argparse.Namespace) -> None:
+def server_cpu_seconds(pid: int) -> float:
+    """User + system CPU time of the server process so far (Linux /proc)."""
+    fields = Path(f"/proc/{pid}/stat").read_text().rsplit(")", 1)[1].split()
+    return (int(fields[11]) + int(fields[12])) / os.sysconf("SC_CLK_TCK")
+
+
+def run(url: str, model: Path, args: argparse.Namespace, pid: int) -> None:
     """The measurements against a running server."""
     body = members_request(100)
     with httpx.Client(base_url=url, timeout=60) as c:
@@ -261,18 +267,28 @@ def run(url: str, model: Path, args: argparse.Namespace) -> None:
     rounds = 6
     for threads in (1, 4):
         totals = {"health": [0.0, 0.0], "checks": [0.0, 0.0]}
+        cpu = {"health": 0.0, "checks": 0.0}
         for _ in range(rounds):
             for name, method, path, payload in (("health", "GET", "/v1/health", None),
                                                 ("checks", "POST", "/v1/checks", body)):
                 window = args.seconds / rounds
+                c0 = server_cpu_seconds(pid)
                 totals[name][0] += rate(url, method, path, window, threads, payload) * window
+                cpu[name] += server_cpu_seconds(pid) - c0
                 totals[name][1] += window
         health = totals["health"][0] / totals["health"][1]
         checks = totals["checks"][0] / totals["checks"][1]
+        # Server CPU per request: what one server process can serve per second, whatever
+        # the client (a Python client on the same 2 cores limits the observed health rate).
+        cap_h = totals["health"][0] / cpu["health"] if cpu["health"] else float("nan")
+        cap_c = totals["checks"][0] / cpu["checks"] if cpu["checks"] else float("nan")
         what = ("server throughput, target >= 0.3" if threads > 1
                 else "one sequential client, latency-bound")
         print(f"{threads} client thread(s): /v1/health {health:,.0f} req/s, /v1/checks "
               f"(100 members) {checks:,.0f} req/s, ratio {checks / health:.2f} ({what})")
+        print(f"  server CPU per request: health {1e3 / cap_h:.3f} ms, checks "
+              f"{1e3 / cap_c:.3f} ms -> capacity {cap_h:,.0f} vs {cap_c:,.0f} req/s, "
+              f"ratio {cap_c / cap_h:.2f}")
 
     with httpx.Client(base_url=url, timeout=60) as c:
         idle = latencies(c, lambda: False, 3.0)

@@ -68,9 +68,13 @@ class ModelBuilder:
         self.model = ifcopenshell.file(schema=schema)
         self.units = units
         if schema == "IFC2X3":  # IFC2X3 requires owner history: the api finds these
-            ifcopenshell.api.owner.add_application(self.model)
-            person = ifcopenshell.api.owner.add_person(self.model)
-            org = ifcopenshell.api.owner.add_organisation(self.model)
+            ifcopenshell.api.owner.add_application(
+                self.model, application_full_name="stanchion tests",
+                application_identifier="stanchion-tests")
+            person = ifcopenshell.api.owner.add_person(
+                self.model, identification="tester", family_name="Tester", given_name="Test")
+            org = ifcopenshell.api.owner.add_organisation(
+                self.model, identification="TESTS", name="stanchion test suite")
             ifcopenshell.api.owner.add_person_and_organisation(
                 self.model, person=person, organisation=org
             )
@@ -186,6 +190,9 @@ class ModelBuilder:
         ifc_class, attrs = spec[kind]
         prof = ifcopenshell.api.profile.add_parameterized_profile(self.model, ifc_class=ifc_class)
         prof.ProfileName = name
+        if self.schema == "IFC2X3":  # Position is mandatory before IFC4
+            prof.Position = self.model.createIfcAxis2Placement2D(
+                self.model.createIfcCartesianPoint((0.0, 0.0)))
         for key, value in dims.items():
             if key == "D":
                 prof.Radius = self.L(value) / 2.0

@@ -232,6 +232,20 @@ def test_pset_loads(builder):
     assert m.extra["load_source"][0] == "pset"
 
 
+def test_pset_loads_on_the_type_with_the_column_winning(builder):
+    # design.md §5: our input property sets are read on a column or its type; the
+    # occurrence's value wins per property (common practice for IFC type/occurrence data).
+    ctype = builder.column_type("CT1")
+    builder.loads(ctype, D=40.0, L=20.0)
+    prof = builder.profile("I", "W14X48", **W14X48)
+    col = builder.column("C1", profile=prof, material=builder.material("A992"),
+                         column_type=ctype)
+    builder.loads(col, D=55.0)
+    m = read_columns(builder.model).members
+    assert _loads(m) == pytest.approx({"D": 55.0, "L": 20.0})
+    assert m.extra["load_source"][0] == "pset"
+
+
 def test_pset_unknown_property_is_noted(builder):
     col = _col(builder)
     builder.pset(col, "Stanchion_Loads", {"D": builder.measure("IfcForceMeasure", 1.0),

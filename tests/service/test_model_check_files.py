@@ -50,11 +50,6 @@ def build_model(schema: str = "IFC4", units: str = "mm_N", loads: dict | None = 
                        storey=storeys.get(name, "Level 1"), at=(240.0 * k, 0.0), tag=f"T{k}")
         if values:
             b.loads(col, **values)
-    if schema == "IFC2X3":  # IfcParameterizedProfileDef.Position is mandatory before IFC4
-        for prof in b.model.by_type("IfcParameterizedProfileDef"):
-            if prof.Position is None:
-                prof.Position = b.model.createIfcAxis2Placement2D(
-                    b.model.createIfcCartesianPoint((0.0, 0.0)))
     return b
 
 
