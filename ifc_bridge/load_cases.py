@@ -191,8 +191,11 @@ class AnalysisLoads:
         Returns:
             ({load type: kip}, member notes).  Empty when the model holds no results.
         """
-        per_case: dict[int, float] = {}
+        # Keyed by (analysis model, load case): results of several analysis models (e.g. an
+        # old and a new run kept in one file) are never added together.
+        per_case: dict[tuple[int, int], float] = {}
         case_of: dict[int, Entity] = {}
+        model_names: dict[int, str] = {}
         notes: list[str] = []
         skipped_global = ungrouped = 0
         for item in [column, *members]:
@@ -214,8 +217,13 @@ class AnalysisLoads:
                     if case is None:
                         self._tell(f"result group '{group.Name}' names no load case; ignored")
                         continue
-                    key = case.id()
-                    case_of[key] = case
+                    owners = getattr(group, "ResultGroupFor", None) or ()
+                    owner = owners[0] if owners else None
+                    model_key = owner.id() if owner is not None else 0
+                    if owner is not None:
+                        model_names[model_key] = owner.Name or f"#{model_key}"
+                    key = (model_key, case.id())
+                    case_of[case.id()] = case
                     per_case[key] = max(per_case.get(key, -float("inf")), compression)
         if skipped_global:
             notes.append(f"{skipped_global} analysis result(s) in global coordinates ignored "
@@ -223,21 +231,39 @@ class AnalysisLoads:
         if ungrouped:
             notes.append(f"{ungrouped} analysis result(s) in no IfcStructuralResultGroup "
                          "ignored (their load case is unknown)")
-        by_type: dict[str, list[tuple[str, float]]] = defaultdict(list)
-        for key, value in per_case.items():
-            kind = self.case_type(case_of[key])
+        per_model: dict[int, dict[str, list[tuple[str, float]]]] = defaultdict(
+            lambda: defaultdict(list))
+        for (model_key, case_key), value in per_case.items():
+            kind = self.case_type(case_of[case_key])
             if kind is not None:
-                by_type[kind].append((case_of[key].Name or f"#{key}", value))
+                per_model[model_key][kind].append(
+                    (case_of[case_key].Name or f"#{case_key}", value))
+        results: list[dict[str, float]] = []
+        for by_type in per_model.values():
+            one: dict[str, float] = {}
+            for kind, items in by_type.items():
+                if kind in REVERSIBLE:
+                    one[kind] = max((v for _, v in items), key=abs)
+                else:
+                    one[kind] = sum(v for _, v in items)
+                if len(items) > 1:
+                    how = "largest magnitude used" if kind in REVERSIBLE else "added"
+                    names = ", ".join(n for n, _ in items)
+                    notes.append(f"{kind} from {len(items)} load cases ({names}): {how}")
+            results.append(one)
         out: dict[str, float] = {}
-        for kind, items in by_type.items():
-            if kind in REVERSIBLE:
-                out[kind] = max((v for _, v in items), key=abs)
-            else:
-                out[kind] = sum(v for _, v in items)
-            if len(items) > 1:
-                how = "largest magnitude used" if kind in REVERSIBLE else "added"
-                names = ", ".join(n for n, _ in items)
-                notes.append(f"{kind} from {len(items)} load cases ({names}): {how}")
+        for one in results:  # several analysis models: the envelope, per load type
+            for kind, value in one.items():
+                if kind not in out:
+                    out[kind] = value
+                elif kind in REVERSIBLE:
+                    out[kind] = max(out[kind], value, key=abs)
+                else:
+                    out[kind] = max(out[kind], value)
+        if len(results) > 1:
+            names = ", ".join(sorted(model_names.values())) or f"{len(results)} groups"
+            notes.append(f"results of {len(results)} analysis models ({names}) are not "
+                         "added: the largest compression per load type is used")
         if out:
             note = self.units.note_use("force")
             if note:

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import math
 
+import ifcopenshell
+import ifcopenshell.guid
 import pytest
 
 from engine.members import LOAD_TYPES
@@ -42,6 +44,26 @@ def test_analysis_results_by_action_source(builder):
     assert _loads(m) == pytest.approx({"D": 120.0, "L": 80.0, "W": -15.0})
     assert m.extra["load_source"][0] == "analysis"
     assert m.reason[0] is None
+
+
+def test_results_of_two_analysis_models_are_not_added(builder):
+    # Two analysis runs kept in one file, each with its own dead-load case: adding them
+    # would double the dead load; the reader takes the larger per load type (a conservative
+    # envelope; common practice, no source) and says so.
+    col = _col(builder)
+    member = builder.analysis_member(col)
+    old, new = builder.load_case("D", "DEAD_LOAD_G"), builder.load_case("D", "DEAD_LOAD_G")
+    builder.reaction(member, old, -100.0)
+    builder.reaction(member, new, -120.0)
+    for name, case in (("run 1", old), ("run 2", new)):
+        model = builder.model.create_entity(
+            "IfcStructuralAnalysisModel", GlobalId=ifcopenshell.guid.new(), Name=name,
+            PredefinedType="LOADING_3D", HasResults=[builder.result_group(case)])
+        if builder.schema == "IFC2X3":
+            model.OwnerHistory = builder.model.by_type("IfcOwnerHistory")[0]
+    m = read_columns(builder.model).members
+    assert _loads(m) == pytest.approx({"D": 120.0})
+    assert any("2 analysis models (run 1, run 2)" in s for s in m.messages[0])
 
 
 def test_largest_compression_along_the_member(builder):
