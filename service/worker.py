@@ -92,7 +92,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
         report = check(
             model, method=params.get("design_method", "LRFD"), loads_table=loads,
             out_model=job_dir / MODEL_OUT_FILE, out_report=job_dir / REPORT_FILE,
-            out_csv=job_dir / CSV_FILE,
+            out_csv=job_dir / CSV_FILE, source_name=names[params["model"]],
         )
         if not (job_dir / REPORT_FILE).exists():
             _write_json(job_dir / REPORT_FILE, report)
