@@ -70,8 +70,13 @@ def run_demo(args: argparse.Namespace) -> int:
     report = check_model(
         model, loads_table=table, out_model=outputs["checked model"],
         out_report=outputs["JSON report"], out_csv=outputs["CSV"],
-        out_junit=outputs["JUnit XML"])
+        out_junit=outputs["JUnit XML"], suggest=True)
     print(format_run(report))
+    for m in report["members"]:
+        if m.get("suggestions"):
+            first = m["suggestions"][0]
+            print(f"  suggestion for {m['name']} ({m['section']}, {m['status']}): "
+                  f"{first['section']} at utilization {first['utilization']:.2f}")
     print("outputs:")
     for label, path in outputs.items():
         print(f"  {label + ':':<15} {path}")
