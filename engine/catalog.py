@@ -254,6 +254,8 @@ def _build_table(df: pd.DataFrame) -> SectionTable:
         "Cw": col("Cw"),
         "xo": pick(0.0, (is_chan, col("x") + col("eo"))),
         "yo": pick(0.0, (is_tee, col("y") - tf / 2.0)),
+        "xbar": pick(0.0, (is_chan, col("x"))),
+        "ybar": pick(0.0, (is_tee, col("y"))),
         "ro": pick(r_polar, (tabulated_shear_centre, col("ro"))),
         "H": pick(1.0, (tabulated_shear_centre, col("H"))),
         "b1": pick(

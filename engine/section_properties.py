@@ -423,7 +423,7 @@ def tee(
         len(d), designation=_labels(label, "T", [d, bf, tw, tf], r), family="T",
         kind=Kind.TEE, A=A, d=d, bf=bf, tw=tw, tf=tf, Ix=Ix, Iy=Iy, J=J,
         Cw=bf**3 * tf**3 / 144.0 + (d - tf / 2.0) ** 3 * tw**3 / 36.0,
-        xo=0.0, yo=-yc - tf / 2.0,
+        xo=0.0, yo=-yc - tf / 2.0, ybar=-yc,
         b1=bf / 2.0, t1=tf, n1=2, cls1=ElementClass.UNSTIFFENED_FLANGE,
         b2=d, t2=tw, n2=1, cls2=ElementClass.TEE_STEM,
     )
@@ -464,7 +464,7 @@ def channel(
     return _table(
         len(d), designation=_labels(label, "U", [d, bf, tw, tf], r), family="U",
         kind=Kind.CHANNEL, A=A, d=d, bf=bf, tw=tw, tf=tf, Ix=Ix, Iy=Iy, J=J, Cw=Cw,
-        xo=xc - tw / 2.0 + eo, yo=0.0,
+        xo=xc - tw / 2.0 + eo, yo=0.0, xbar=xc,
         b1=bf, t1=tf, n1=2, cls1=ElementClass.UNSTIFFENED_FLANGE,
         b2=d - 2.0 * (tf + r), t2=tw, n2=1, cls2=ElementClass.STIFFENED_WEB,
     )

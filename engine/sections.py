@@ -83,6 +83,8 @@ class SectionTable:
         Ix, Iy: moments of inertia, in⁴.  rx, ry: radii of gyration, in.
         J: torsional constant, in⁴.  Cw: warping constant, in⁶.
         xo, yo: shear-centre coordinates with respect to the centroid, in.
+        xbar, ybar: centroid location: x̄ from the back of a channel's web, ȳ from the top of
+            a tee's flange, in (0 for doubly symmetric sections).
         ro: polar radius of gyration about the shear centre r̄o, in (AISC 360-22 Eq. E4-9).
         H: flexural constant (AISC 360-22 Eq. E4-8).
         b1, t1, n1, cls1, b2, t2, n2, cls2: element groups for Section E7.
@@ -105,6 +107,8 @@ class SectionTable:
     Cw: np.ndarray
     xo: np.ndarray
     yo: np.ndarray
+    xbar: np.ndarray
+    ybar: np.ndarray
     ro: np.ndarray
     H: np.ndarray
     b1: np.ndarray

@@ -410,3 +410,11 @@ def test_invalid_rows_are_listed_for_arrays():
         dimension_problems("Z", d=1.0)
     with pytest.raises(ValueError, match=r"missing \['tf'\]"):
         dimension_problems("I", d=1.0, bf=1.0, tw=0.1)
+
+
+def test_tee_centroid_ybar_matches_the_database() -> None:
+    # WT7X15: d = 6.92, bf = 6.73, tw = 0.270, tf = 0.385, kdes = 0.785 (fillet ≈ kdes − tf),
+    # ȳ = 1.58 in (AISC Shapes Database v16.0).
+    t = tee(6.92, 6.73, 0.27, 0.385, 0.785 - 0.385)
+    assert t.ybar[0] == pytest.approx(1.58, rel=0.02)
+    assert t.yo[0] == pytest.approx(t.ybar[0] - 0.385 / 2.0)
