@@ -52,12 +52,17 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
     names = [m.section or "" for m in members]
     idx = catalog.lookup(names)
     reasons: list[str | None] = [None] * len(members)
-    labels = list(names)
+    found = idx >= 0
+    # Catalog rows: the canonical designation (one gather); the rest one by one below.
+    labels = np.where(found, cat.designation[np.where(found, idx, 0)], names).tolist()
     extra: list[SectionTable] = []
-    for i, m in enumerate(members):
+    odd = [i for i, m in enumerate(members) if m.profile is not None or idx[i] < 0]
+    for i in odd:
+        m = members[i]
         if m.section and m.profile:
             reasons[i] = "give either 'section' or 'profile', not both"
             idx[i] = -1
+            labels[i] = m.section
         elif m.profile is not None:
             try:
                 row = _profile_section(m.profile, length_unit)
@@ -70,10 +75,8 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
             extra.append(row)
         elif not m.section:
             reasons[i] = "no section or profile given"
-        elif idx[i] < 0:
-            reasons[i] = catalog.unknown_section_reason(m.section)
         else:
-            labels[i] = str(cat.designation[idx[i]])
+            reasons[i] = catalog.unknown_section_reason(m.section)
     table = SectionTable.concat([cat, *extra]) if extra else cat
     return table, idx, reasons, labels
 

@@ -27,22 +27,28 @@ def design_basis(method: str, custom_combinations: bool = False) -> str:
     return f"AISC 360-22 Chapter E, {method}; {combos}"
 
 
-def _sig_list(a: np.ndarray, digits: int = 6) -> list[float | None]:
-    """Vectorized :func:`_sig`: round an array to significant digits, NaN / inf -> None."""
-    a = np.asarray(a, dtype=float)
-    out = np.zeros(a.shape)
+def _sig_columns(columns: list[np.ndarray], digits: list[int]) -> list[list[float | None]]:
+    """Round each column to its significant digits (one array pass); NaN / inf -> None."""
+    a = np.vstack([np.asarray(c, dtype=float) for c in columns])
+    d = np.asarray(digits, dtype=float)[:, None]
     finite = np.isfinite(a)
     nz = finite & (a != 0)
-    if nz.any():
-        v = a[nz]
-        exp10 = digits - 1 - np.floor(np.log10(np.abs(v)))
-        up = exp10 >= 0  # multiply by an exact power of ten, or divide by one: exact steps
-        r = np.empty_like(v)
+    safe = np.where(nz, a, 1.0)
+    with np.errstate(over="ignore"):
+        exp10 = d - 1.0 - np.floor(np.log10(np.abs(safe)))
         p = 10.0 ** np.abs(exp10)
-        r[up] = np.round(v[up] * p[up]) / p[up]
-        r[~up] = np.round(v[~up] / p[~up]) * p[~up]
-        out[nz] = r
-    return [x if ok else None for x, ok in zip(out.tolist(), finite.tolist(), strict=True)]
+        # multiply by an exact power of ten, or divide by one: each step exact
+        r = np.where(exp10 >= 0, np.round(safe * p) / p, np.round(safe / p) * p)
+    rows = np.where(nz, r, 0.0).tolist()
+    out = []
+    for row, ok, all_ok in zip(rows, finite.tolist(), finite.all(axis=1).tolist(), strict=True):
+        out.append(row if all_ok else [x if f else None for x, f in zip(row, ok, strict=True)])
+    return out
+
+
+def _sig_list(a: np.ndarray, digits: int = 6) -> list[float | None]:
+    """Vectorized :func:`_sig` for one array."""
+    return _sig_columns([a], [digits])[0]
 
 
 def _sig(x: float, digits: int = 6) -> float | None:
@@ -80,54 +86,45 @@ def build_report(
     weight_factor = (factor("lbf", "kip") * to_force) / (length_factor("ft") / length_factor(
         units["length"]))
 
-    req_l, avail_l = _sig_list(req), _sig_list(avail)
-    util_l = _sig_list(results.utilization, 4)
-    slender_l = _sig_list(results.slenderness, 4)
-    fcr_l = _sig_list(results.Fcr * to_stress)
-    ids, names, labels = members.id.tolist(), members.name.tolist(), members.section_label.tolist()
-    status_l = results.status.tolist()
-    tension_l = tension.tolist()
-    limit_l, combo_l = results.limit_state.tolist(), results.combination.tolist()
-    rows = []
-    for i in range(len(results)):
-        msgs = list(results.messages[i])
-        if tension_l[i] > 0:
-            msgs.append(
-                f"a load combination gives net tension of {_sig(tension_l[i], 4)} "
-                f"{units['force']}; tension is not checked here"
-            )
-        row = {
-            "id": str(ids[i]),
-            "name": str(names[i]),
-            "section": str(labels[i]),
-            "status": str(status_l[i]),
-            "required_strength": req_l[i],
-            "available_strength": avail_l[i],
-            "utilization": util_l[i],
-            "limit_state": str(limit_l[i]),
-            "combination": str(combo_l[i]),
-            "slenderness": slender_l[i],
-            "critical_stress": fcr_l[i],
-            "messages": msgs,
-        }
-        if storey is not None:
-            row["storey"] = None if storey[i] is None else str(storey[i])
-        if status_l[i] == NOT_CHECKED:
-            row["reason"] = str(results.reason[i])
-        if suggestions is not None and i in suggestions:
-            row["suggestions"] = [
-                {"section": s["section"],
-                 "available_strength": _sig(s["available_strength"] * to_force),
-                 "utilization": _sig(s["utilization"], 4),
-                 "weight": _sig(s["weight"] * weight_factor)}
-                for s in suggestions[i]
-            ]
-        if detail and results.combination_values is not None:
-            row["combinations"] = {
-                name: _sig(results.combination_values[i, j] * to_force)
-                for j, name in enumerate(results.combination_names)
-            }
-        rows.append(row)
+    req_l, avail_l, util_l, slender_l, fcr_l = _sig_columns(
+        [req, avail, results.utilization, results.slenderness, results.Fcr * to_stress],
+        [6, 6, 4, 4, 6])
+    force_unit = units["force"]
+    tension_at = set(np.flatnonzero(tension > 0).tolist())
+    not_checked_at = set(np.flatnonzero(results.status == NOT_CHECKED).tolist())
+    storey_l = list(storey) if storey is not None else None
+    rows = [
+        {"id": str(i_), "name": str(n_), "section": str(s_), "status": str(st),
+         "required_strength": rq, "available_strength": av, "utilization": ut,
+         "limit_state": str(ls), "combination": str(cb), "slenderness": sl,
+         "critical_stress": fc, "messages": list(ms)}
+        for i_, n_, s_, st, rq, av, ut, ls, cb, sl, fc, ms in zip(
+            members.id.tolist(), members.name.tolist(), members.section_label.tolist(),
+            results.status.tolist(), req_l, avail_l, util_l, results.limit_state.tolist(),
+            results.combination.tolist(), slender_l, fcr_l, results.messages, strict=True)
+    ]
+    for i in tension_at:
+        rows[i]["messages"].append(
+            f"a load combination gives net tension of {_sig(float(tension[i]), 4)} "
+            f"{force_unit}; tension is not checked here")
+    for i, row in enumerate(rows) if storey_l is not None else ():
+        row["storey"] = None if storey_l[i] is None else str(storey_l[i])
+    for i in not_checked_at:
+        rows[i]["reason"] = str(results.reason[i])
+    for i, found in (suggestions or {}).items():
+        rows[i]["suggestions"] = [
+            {"section": s["section"],
+             "available_strength": _sig(s["available_strength"] * to_force),
+             "utilization": _sig(s["utilization"], 4),
+             "weight": _sig(s["weight"] * weight_factor)}
+            for s in found
+        ]
+    if detail and results.combination_values is not None:
+        values = _sig_columns(list((results.combination_values * to_force).T),
+                              [6] * len(results.combination_names))
+        for j, name in enumerate(results.combination_names):
+            for i, v in enumerate(values[j]):
+                rows[i].setdefault("combinations", {})[name] = v
 
     status = results.status
     util = results.utilization[status != NOT_CHECKED]
