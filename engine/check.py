@@ -72,29 +72,30 @@ def _not_checked_reasons(m: MemberTable) -> np.ndarray:
     kind = np.full(n, -1)
     kind[has_section] = m.sections.kind[idx[has_section]]
 
-    free = np.equal(reason, None)
-
-    def add(mask: np.ndarray, text: str) -> None:
-        hit = mask & free
-        if hit.any():
-            reason[hit] = text
-            free[hit] = False
-
-    add(~has_section, "no usable section")
-    add(kind == Kind.UNSUPPORTED,
-        "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)")
-    add(np.isnan(m.Fy), "no yield strength")
-    add(m.Fy <= 0, "yield strength must be greater than zero")
-    for label, arr in (("length", m.lx), ("unbraced length y", m.ly),
-                       ("unbraced length z", m.lz)):
-        add(np.isnan(arr), f"no {label}")
-        add(arr <= 0, f"{label} must be greater than zero")
-    for label, arr in (("kx", m.kx), ("ky", m.ky), ("kz", m.kz)):
-        add(~(arr > 0), f"effective length factor {label} must be greater than zero")
-    add(~(m.E > 0) | ~(m.G > 0), "E and G must be greater than zero")
-    no_loads = np.all(np.isnan(m.loads), axis=1) & np.isnan(m.required_strength)
-    add(no_loads, "no loads")
-    add(m.required_strength < 0, "required strength must be compression (zero or positive)")
+    with np.errstate(invalid="ignore"):
+        tests = [  # (mask, reason) in order: a member gets the first that applies
+            (~has_section, "no usable section"),
+            (kind == Kind.UNSUPPORTED,
+             "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)"),
+            (np.isnan(m.Fy), "no yield strength"),
+            (m.Fy <= 0, "yield strength must be greater than zero"),
+        ]
+        for label, arr in (("length", m.lx), ("unbraced length y", m.ly),
+                           ("unbraced length z", m.lz)):
+            tests += [(np.isnan(arr), f"no {label}"),
+                      (arr <= 0, f"{label} must be greater than zero")]
+        for label, arr in (("kx", m.kx), ("ky", m.ky), ("kz", m.kz)):
+            tests.append((~(arr > 0), f"effective length factor {label} must be greater than zero"))
+        tests += [
+            (~(m.E > 0) | ~(m.G > 0), "E and G must be greater than zero"),
+            (np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength), "no loads"),
+            (m.required_strength < 0, "required strength must be compression (zero or positive)"),
+        ]
+    masks = np.stack([t[0] for t in tests])
+    hit = masks.any(axis=0) & np.equal(reason, None)
+    if hit.any():
+        texts = np.array([t[1] for t in tests], dtype=object)
+        reason[hit] = texts[masks.argmax(axis=0)[hit]]
     return reason
 
 

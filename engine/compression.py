@@ -55,7 +55,7 @@ def Fe_flexural(E: np.ndarray, Lc_r: np.ndarray) -> np.ndarray:
 
     AISC 360-22 Eq. E3-4 (the same expression gives Fex and Fey in Eqs. E4-5 and E4-6).
     """
-    with np.errstate(divide="ignore"):
+    with np.errstate(divide="ignore", over="ignore"):  # zero / tiny length: Fe = inf
         return np.pi**2 * E / (Lc_r * Lc_r)
 
 
@@ -104,7 +104,7 @@ def Fe_torsional(
 
     AISC 360-22 Eq. E4-2.
     """
-    with np.errstate(divide="ignore"):
+    with np.errstate(divide="ignore", over="ignore"):  # zero / tiny length: Fe = inf
         return (np.pi**2 * E * Cw / (Lcz * Lcz) + G * J) / (Ix + Iy)
 
 
@@ -130,7 +130,7 @@ def Fez(
 
     AISC 360-22 Eq. E4-7.
     """
-    with np.errstate(divide="ignore"):
+    with np.errstate(divide="ignore", over="ignore"):  # zero / tiny length: Fe = inf
         return (np.pi**2 * E * Cw / (Lcz * Lcz) + G * J) / (Ag * ro2)
 
 

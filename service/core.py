@@ -82,6 +82,9 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
 
 
 _load_values = operator.attrgetter(*LOAD_TYPES)
+#: Member fields in the order of the request table's first columns.
+_SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")
+_scalar_values = operator.attrgetter(*_SCALARS)
 
 
 def members_from_request(req: MembersRequest) -> MemberTable:
@@ -94,24 +97,17 @@ def members_from_request(req: MembersRequest) -> MemberTable:
 
     # One pass over the members into a float table (None -> NaN), then columns by slicing.
     nan = float("nan")
-    none_loads = (nan,) * len(LOAD_TYPES)
-    table = np.array([
-        (
-            nan if m.fy is None else m.fy,
-            nan if m.length is None else m.length,
-            nan if m.lx is None else m.lx,
-            nan if m.ly is None else m.ly,
-            nan if m.lz is None else m.lz,
-            m.kx, m.ky, m.kz,
-            nan if m.required_strength is None else m.required_strength,
-            *(none_loads if m.loads is None else
-              [nan if v is None else v for v in _load_values(m.loads)]),
-        )
-        for m in ms
-    ], dtype=float).reshape(len(ms), 9 + len(LOAD_TYPES))
+    width = len(_SCALARS) + len(LOAD_TYPES)
+    no_loads = (None,) * len(LOAD_TYPES)
+    table = np.fromiter(
+        (nan if v is None else v for m in ms
+         for v in (*_scalar_values(m), *(no_loads if m.loads is None
+                                         else _load_values(m.loads)))),
+        dtype=float, count=len(ms) * width,
+    ).reshape(len(ms), width)
     length = table[:, 1] * fL
     lx, ly, lz = (table[:, c] * fL for c in (2, 3, 4))
-    loads = table[:, 9:] * fF
+    loads = table[:, len(_SCALARS):] * fF
     E = (req.E * fS) if req.E is not None else E_DEFAULT
     G = (req.G * fS) if req.G is not None else G_DEFAULT
     return MemberTable.build(
@@ -164,6 +160,8 @@ def suggestions_for(
     Returns:
         suggestions by member row, and a message by member row for unusable candidates.
     """
+    if not any(specs):
+        return {}, {}
     problems: dict[int, str] = {}
     usable: list[list[str] | None] = []
     for i, spec in enumerate(specs):
