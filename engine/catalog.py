@@ -20,7 +20,7 @@ L 2L       UNSUPPORTED  none (kept so that a lookup can say angles are out of sc
 Shear centre (AISC 360-22 Section E4): doubly symmetric shapes xo = yo = 0, r̄o = √((Ix+Iy)/A),
 H = 1. Tees: xo = 0, yo = ȳ − tf/2 (shear centre at the flange/stem intersection). Channels:
 yo = 0, xo = x̄ + eo (eo measured from the outer web face). xo and yo are stored as distances
-(non-negative); only their squares enter Eq. E4-8 and E4-9. For tees and channels r̄o and H are
+(non-negative); only their squares enter r̄o and H. For tees and channels r̄o and H are
 the tabulated values. Values not tabulated for a family (Cw of closed sections, ...) are 0.
 """
 

@@ -3,11 +3,11 @@
 Every function is vectorized over members (numpy arrays, internal units kip, inch, ksi) and
 implements one code equation, named after its symbol.  :func:`compressive_strength` combines
 them: flexural buckling about both axes (E3), torsional buckling of doubly symmetric open
-shapes (E4-2), flexural-torsional buckling of singly symmetric tees and channels (E4-3) and the
+shapes, flexural-torsional buckling of singly symmetric tees and channels and the
 slender-element effective area (E7).
 
 Scope notes:
-- The critical stress of every buckling mode follows E3-2 / E3-3 with that mode's elastic
+- The critical stress of every buckling mode follows :func:`Fcr` with that mode's elastic
   buckling stress Fe.  As Fcr is increasing in Fe, the governing mode is the one with the
   smallest Fe and Fcr is computed once.
 - Torsional buckling is not evaluated for closed and solid sections (HSS, pipe, solid bars):
@@ -73,7 +73,7 @@ def Fcr_elastic(Fe: np.ndarray) -> np.ndarray:
 
 
 def Fcr(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
-    """Critical stress by E3-2 or E3-3 (the limit Lc/r = 4.71√(E/Fy) is Fy/Fe = 2.25).
+    """Critical stress, inelastic or elastic branch (the limit Lc/r = 4.71√(E/Fy) is Fy/Fe = 2.25).
 
     AISC 360-22 Section E3(a)/(b); also used by E4 and E7 with the governing Fe.
     """
@@ -189,7 +189,7 @@ def element_deduction(
 
     AISC 360-22 Section E7.1: Ae is Ag less the ineffective part of each slender element;
     ``k``, ``c1``, ``c2`` are the element's λr coefficient (Table B4.1a) and Table E7.1
-    factors.  be follows E7-3 where λ > λr·√(Fy/Fcr), else E7-2 (no deduction).
+    factors.  be is reduced (be_reduced) where λ > λr·√(Fy/Fcr), else the full width.
     """
     with np.errstate(divide="ignore", invalid="ignore"):
         lam = b / t
@@ -215,7 +215,7 @@ def Ae_round_slender(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray,
 
 
 def Ae_round(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray, Ag: np.ndarray) -> np.ndarray:
-    """Effective area of round HSS by E7-6 / E7-7 (NaN where D/t >= 0.45 E/Fy, out of scope)."""
+    """Effective area of round HSS (NaN where D/t >= 0.45 E/Fy, out of E7's scope)."""
     limit = D_t * Fy / E
     with np.errstate(divide="ignore", invalid="ignore"):
         slender = Ae_round_slender(E, Fy, D_t, Ag)
@@ -267,7 +267,7 @@ class _RowConstants:
     kind: np.ndarray  # int8 Kind codes
     inv_rx: np.ndarray  # 1/rx, 1/ry
     inv_ry: np.ndarray
-    ro2: np.ndarray  # r̄o² (E4-9) and H (E4-8), for tees and channels
+    ro2: np.ndarray  # r̄o² and H (ro_bar_squared, H_flexural_constant): tees, channels
     H: np.ndarray
     groups: tuple[tuple[np.ndarray, ...], ...]  # per element group: (λ, λ², k², k, c1, c2)
     round_: np.ndarray
@@ -319,8 +319,9 @@ def compressive_strength(
         index: optional row of ``sec`` for each member (avoids gathering whole rows).
 
     Members are processed in blocks of :data:`CHUNK`; within a block every limit state is
-    evaluated on the members it applies to (E4 on open shapes, E4-3 on tees and channels,
-    E7 on members whose elements exceed λr) with the equation functions above.
+    evaluated on the members it applies to (torsional on open I shapes, flexural-torsional on
+    tees and channels, E7 on members whose elements exceed λr) with the equation functions
+    above.
     """
     Fy = np.asarray(Fy, dtype=float)
     n = len(Fy)
@@ -369,7 +370,7 @@ def _block(
             Fe[at] = take(F, low)
             mode[at] = code
 
-    # E4-2: torsional buckling of doubly symmetric open shapes.
+    # Torsional buckling of doubly symmetric open shapes (Fe_torsional).
     sub = np.flatnonzero(kind == Kind.I_SHAPE)
     if len(sub):
         r = take(rows, sub)
@@ -377,7 +378,7 @@ def _block(
                           take(Lcz, sub), take(sec.Ix, r), take(sec.Iy, r))
         lower(sub, Ft, LimitState.TORSIONAL)
 
-    # E4-3: flexural-torsional buckling of tees (about y) and channels (about x).
+    # Flexural-torsional buckling of tees (about y) and channels (about x).
     sub = np.flatnonzero((kind == Kind.TEE) | (kind == Kind.CHANNEL))
     if len(sub):
         r = take(rows, sub)

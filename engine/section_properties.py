@@ -286,9 +286,9 @@ def _table(n: int, **cols: ArrayLike) -> SectionTable:
     data["weight"] = WEIGHT_PER_AREA * A
     data["rx"] = np.sqrt(data["Ix"] / A)
     data["ry"] = np.sqrt(data["Iy"] / A)
-    ro2 = ro_bar_squared(data["xo"], data["yo"], data["Ix"], data["Iy"], A)  # Eq. E4-9
+    ro2 = ro_bar_squared(data["xo"], data["yo"], data["Ix"], data["Iy"], A)
     data["ro"] = np.sqrt(ro2)
-    data["H"] = H_flexural_constant(data["xo"], data["yo"], ro2)  # Eq. E4-8
+    data["H"] = H_flexural_constant(data["xo"], data["yo"], ro2)
     return SectionTable(**data)
 
 

@@ -24,11 +24,11 @@ import numpy as np
 class Kind(IntEnum):
     """How a section is treated by Chapter E."""
 
-    I_SHAPE = 0  # doubly symmetric I (W, M, S, HP, parametric I): E3 both axes + E4-2
+    I_SHAPE = 0  # doubly symmetric I (W, M, S, HP, parametric I): flexure both axes, torsion
     RECT_HSS = 1  # rectangular / square hollow: E3 both axes, walls by E7
-    ROUND_HSS = 2  # round HSS and pipe: E3, wall by E7-6/E7-7
-    TEE = 3  # WT, MT, ST, parametric T (y = axis of symmetry): E3 about x + E4-3 with Fey
-    CHANNEL = 4  # C, MC, parametric U (x = axis of symmetry): E3 about y + E4-3 with Fex
+    ROUND_HSS = 2  # round HSS and pipe: E3, wall by the round-HSS effective area
+    TEE = 3  # WT, MT, ST, parametric T (y = axis of symmetry): flexure x, flexural-torsional y
+    CHANNEL = 4  # C, MC, parametric U (x = axis of symmetry): flexure y, flexural-torsional x
     SOLID_RECT = 5  # solid rectangle: E3 only, no local buckling
     SOLID_ROUND = 6  # solid circle: E3 only
     UNSUPPORTED = 7  # angles, double angles, anything else: not checked
@@ -85,8 +85,8 @@ class SectionTable:
         xo, yo: shear-centre coordinates with respect to the centroid, in.
         xbar, ybar: centroid location: x̄ from the back of a channel's web, ȳ from the top of
             a tee's flange, in (0 for doubly symmetric sections).
-        ro: polar radius of gyration about the shear centre r̄o, in (AISC 360-22 Eq. E4-9).
-        H: flexural constant (AISC 360-22 Eq. E4-8).
+        ro: polar radius of gyration about the shear centre r̄o, in (compression.ro_bar_squared).
+        H: flexural constant (engine.compression.H_flexural_constant).
         b1, t1, n1, cls1, b2, t2, n2, cls2: element groups for Section E7.
     """
 
