@@ -145,7 +145,7 @@ def suggest_for_members(
     max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
     min_depth: float | None = None,
     max_depth: float | None = None,
-) -> tuple[Suggestions, np.ndarray]:
+) -> tuple[Suggestions, np.ndarray, np.ndarray]:
     """Suggestions for the members of a :class:`~engine.members.MemberTable` that ask for them.
 
     Args:
@@ -155,30 +155,34 @@ def suggest_for_members(
         method, max_utilization, max_suggestions, min_depth, max_depth: see :func:`select`.
 
     Returns:
-        The suggestions for the selected rows and those rows' member indices.
+        The suggestions for the selected rows, those rows' member indices, and the indices
+        of members that asked but whose demand, yield stress or lengths are unknown.
 
     Raises:
         ValueError: a candidate matches no catalog shape.
     """
-    rows = np.array([i for i, s in enumerate(specs) if s], dtype=np.int64)
+    asked = np.array([bool(s) for s in specs], dtype=bool)
+    Lcx, Lcy, Lcz = m.kx * m.lx, m.ky * m.ly, m.kz * m.lz
+    # A member whose demand, yield stress or lengths are unknown gets no suggestion: never a
+    # section chosen for a length or grade the member was not checked at.
+    with np.errstate(invalid="ignore"):
+        usable = (np.isfinite(required) & (m.Fy > 0) & (Lcx > 0) & (Lcy > 0) & (Lcz > 0)
+                  & (m.E > 0) & (m.G > 0))
+    rows = np.flatnonzero(asked & usable)
+    skipped = np.flatnonzero(asked & ~usable)
     if len(rows) == 0:
         empty = np.empty((0, 0))
-        return Suggestions(np.empty((0, 0), dtype=np.int64), empty, empty, empty), rows
+        return Suggestions(np.empty((0, 0), dtype=np.int64), empty, empty, empty), rows, skipped
     per_member = [candidate_indices(specs[i], min_depth=min_depth, max_depth=max_depth)
                   for i in rows]
     union = np.unique(np.concatenate(per_member))
     allowed = np.zeros((len(rows), len(union)), dtype=bool)
     for r, idx in enumerate(per_member):
         allowed[r, np.searchsorted(union, idx)] = True
-    usable = np.isfinite(required[rows]) & (m.Fy[rows] > 0)
-    req = np.where(usable, required[rows], np.nan)
     limit = np.broadcast_to(np.asarray(max_utilization, float), (len(m),))[rows]
     sug = select(
-        req, np.where(usable, m.Fy[rows], 50.0),
-        np.nan_to_num(m.kx[rows] * m.lx[rows], nan=1.0),
-        np.nan_to_num(m.ky[rows] * m.ly[rows], nan=1.0),
-        np.nan_to_num(m.kz[rows] * m.lz[rows], nan=1.0),
-        union, allowed=allowed, method=method, max_utilization=limit,
-        max_suggestions=max_suggestions, E=m.E[rows], G=m.G[rows],
+        required[rows], m.Fy[rows], Lcx[rows], Lcy[rows], Lcz[rows], union, allowed=allowed,
+        method=method, max_utilization=limit, max_suggestions=max_suggestions,
+        E=m.E[rows], G=m.G[rows],
     )
-    return sug, rows
+    return sug, rows, skipped

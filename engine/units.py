@@ -18,6 +18,12 @@ STRESS_UNITS = {"ksi": "ksi", "MPa": "megapascal", "psi": "psi", "Pa": "pascal"}
 
 INTERNAL = {"force": "kip", "length": "inch", "stress": "ksi"}
 
+#: Named report unit systems for the command line (``--units``): request unit names.
+UNIT_SYSTEMS: dict[str, dict[str, str]] = {
+    "us": {"force": "kip", "length": "ft", "stress": "ksi"},
+    "si": {"force": "kN", "length": "m", "stress": "MPa"},
+}
+
 
 @cache
 def factor(unit: str, internal: str) -> float:

@@ -16,6 +16,7 @@ from pathlib import Path
 from pydantic import ValidationError
 
 from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline, regressions
+from service.cmd_select import family_list
 from service.core import check_request
 from service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
 from service.outputs import write_outputs
@@ -173,7 +174,7 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      help="suggestions must pass at this utilization (default 1.0)")
     sug.add_argument("--oversized", type=float, metavar="U",
                      help="also suggest for passing columns below this utilization")
-    sug.add_argument("--families", type=lambda t: [x.strip() for x in t.split(",") if x.strip()],
+    sug.add_argument("--families", type=family_list,
                      metavar="W10,W12", help="candidate families or designations (default: "
                      "each column's own family)")
     c.add_argument("--quiet", action="store_true",

@@ -10,11 +10,12 @@ from engine import catalog
 from engine.compression import OMEGA_C, PHI_C
 from engine.members import E_DEFAULT, G_DEFAULT
 from engine.selection import candidate_indices, select
-from engine.units import force_factor, length_factor, stress_factor
+from engine.units import UNIT_SYSTEMS, force_factor, length_factor, stress_factor
 from service.errors import EXIT_FAILURES, EXIT_OK, InputError
 
 
-def _families(text: str) -> list[str]:
+def family_list(text: str) -> list[str]:
+    """Comma-separated families or designations, e.g. "W10,W12" (argparse type)."""
     items = [t.strip() for t in text.split(",") if t.strip()]
     if not items:
         raise argparse.ArgumentTypeError("give at least one family, e.g. W10,W12")
@@ -23,7 +24,8 @@ def _families(text: str) -> list[str]:
 
 def run_select(args: argparse.Namespace) -> int:
     """Print a small table of the lightest passing sections; exit 1 when none passes."""
-    units = {"us": ("kip", "ft", "ksi"), "si": ("kN", "m", "MPa")}[args.units]
+    system = UNIT_SYSTEMS[args.units]
+    units = (system["force"], system["length"], system["stress"])
     fF, fL, fS = force_factor(units[0]), length_factor(units[1]), stress_factor(units[2])
     for name, v in (("--load", args.load), ("--length", args.length), ("--fy", args.fy)):
         if not v > 0:
@@ -68,7 +70,7 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                    help="required strength (factored for LRFD, service for ASD)")
     p.add_argument("--length", type=float, required=True, help="member length")
     p.add_argument("--fy", type=float, default=50.0, help="yield stress (default 50 ksi)")
-    p.add_argument("--families", type=_families, default=["W"],
+    p.add_argument("--families", type=family_list, default=["W"],
                    help="comma-separated families or designations, e.g. W10,W12,HSS")
     p.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"], default="LRFD")
     p.add_argument("--kx", type=float, default=1.0)

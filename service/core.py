@@ -178,11 +178,14 @@ def suggestions_for(
             continue
         usable.append(spec)
     limit = np.array([1.0 if u is None else u for u in max_utilization], dtype=float)
-    sug, rows = suggest_for_members(
+    sug, rows, skipped = suggest_for_members(
         members, results.required_strength, usable, method=results.method,
         max_utilization=limit, max_suggestions=max_suggestions,
         min_depth=min_depth, max_depth=max_depth,
     )
+    for i in skipped.tolist():
+        problems[i] = ("no suggestions: the member's required strength, yield stress or "
+                       "unbraced lengths are unknown")
     cat = catalog.load_catalog()
     return {int(i): sug.for_member(j, cat) for j, i in enumerate(rows)}, problems
 

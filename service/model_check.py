@@ -21,7 +21,7 @@ from pathlib import Path
 import numpy as np
 
 from engine.check import check_members
-from engine.units import length_factor
+from engine.units import UNIT_SYSTEMS, length_factor
 from ifc_bridge.model import ModelReadError, open_model
 from ifc_bridge.write import checked_now, write_results
 from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
@@ -31,11 +31,6 @@ from service.outputs import write_model_checked, write_outputs
 from service.progress import Progress, Silent
 from service.report import DISCLAIMER, build_report
 
-#: Report units for IFC models (``--units``).
-UNIT_SYSTEMS: dict[str, dict[str, str]] = {
-    "us": {"force": "kip", "length": "ft", "stress": "ksi"},
-    "si": {"force": "kN", "length": "m", "stress": "MPa"},
-}
 #: Member-table columns copied into the report rows when the reader provides them.
 EXTRA_FIELDS = ("tag", "ifc_class", "profile_source", "length_source", "load_source",
                 "fy_source")
@@ -242,7 +237,7 @@ def _suggest(members, results, max_utilization: float, oversized: float | None,
     for i, text in problems.items():
         results.messages[i] = [*results.messages[i], text]
     for i in np.flatnonzero(wanted):
-        if specs[i] and not found.get(int(i)):
+        if specs[i] and int(i) not in problems and not found.get(int(i)):
             results.messages[i] = [*results.messages[i],
                                    f"no section of {', '.join(specs[i])} passes at "
                                    f"utilization <= {max_utilization:g}"]

@@ -62,3 +62,18 @@ def test_members_report_carries_suggestions_in_report_units(tmp_path) -> None:
     assert a["suggestions"][0]["available_strength"] == pytest.approx(1348.0, rel=0.003)
     assert a["suggestions"][0]["weight"] == pytest.approx(0.7005, rel=0.002)
     assert "suggestions" not in b and any("W13" in m for m in b["messages"])
+
+
+def test_member_without_length_gets_no_suggestion(tmp_path) -> None:
+    # Missing data never produces a suggestion: the member is not checked ("no length") and
+    # no section is chosen for a length it was not checked at (standards: no silent guess).
+    data = {"members": [{"id": "A", "section": "W12X45", "fy": 50, "required_strength": 200,
+                         "candidates": ["W12", "W14"]}]}
+    p = tmp_path / "m.json"
+    p.write_text(json.dumps(data))
+    out = tmp_path / "r.json"
+    assert main(["check", str(p), "--report", str(out), "--quiet"]) == 1
+    row = json.loads(out.read_text())["members"][0]
+    assert row["status"] == "not_checked" and row["reason"] == "no length"
+    assert "suggestions" not in row
+    assert any(m.startswith("no suggestions") for m in row["messages"])
