@@ -295,6 +295,7 @@ def test_tee_and_channel_use_e4_8_and_e4_9():
     u = channel(13.8, 4.0, 0.34, 0.595, 0.595)
     assert u.kind[0] == Kind.CHANNEL and u.family[0] == "U" and u.xo[0] > 0
     assert (u.b1[0], u.n1[0], u.cls1[0]) == (4.0, 2, ElementClass.UNSTIFFENED_FLANGE)
+    # web h = d - 2(tf + r) (see channel())
     assert (u.b2[0], u.n2[0], u.cls2[0]) == (pytest.approx(11.42), 1, ElementClass.STIFFENED_WEB)
 
 
@@ -309,6 +310,7 @@ def test_hollow_and_solid_conventions():
     assert (s.d[0], s.bf[0], s.tw[0], s.tf[0], s.H[0]) == (8.0, 8.0, 0.233, 0.233, 1.0)
     a, b = rect_hollow(12.0, 4.0, 0.3), rect_hollow(4.0, 12.0, 0.3)
     assert a.Ix[0] == pytest.approx(b.Iy[0]) and a.Iy[0] == pytest.approx(b.Ix[0])
+    # flat widths = outside - 3t (AISC 360-22 B4.1b(d))
     assert a.b1[0] == pytest.approx(4 - 0.9) and a.b2[0] == pytest.approx(12 - 0.9)
     c = circ_hollow(6.625, 0.26)
     assert c.kind[0] == Kind.ROUND_HSS and c.family[0] == "HSS_ROUND"

@@ -162,6 +162,7 @@ def test_design_defaults_and_messages(builder):
     standard_column(builder)
     m = read_columns(builder.model).members
     assert (m.kx[0], m.ky[0], m.kz[0]) == (1.0, 1.0, 1.0)
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == m.ly[0] == m.lz[0] == pytest.approx(144.0)
     assert "defaults used (no Stanchion_Design value): KX = KY = KZ = 1.0; Lx = Ly = Lz = " \
            "member length" in m.messages[0]

@@ -26,6 +26,7 @@ def test_axis_length_first(builder):
     _column(builder, length=150.0, axis=True)
     m = _read(builder)
     assert m.extra["length_source"][0] == "axis"
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == pytest.approx(150.0)
 
 
@@ -35,6 +36,7 @@ def test_axis_and_extrusion_disagreeing_is_noted(builder):
                 if r.RepresentationIdentifier == "Body")
     body.Items[0].Depth = builder.L(120.0)
     m = _read(builder)
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == pytest.approx(150.0)
     assert any("axis length 150 in and extrusion depth 120 in differ" in s
                for s in m.messages[0])
@@ -44,6 +46,7 @@ def test_extrusion_depth(builder):
     _column(builder, length=168.0)
     m = _read(builder)
     assert m.extra["length_source"][0] == "extrusion"
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == m.ly[0] == m.lz[0] == pytest.approx(168.0)
 
 
@@ -63,12 +66,14 @@ def test_analysis_member_length(builder):
     builder.analysis_member(col, length=132.0)
     m = _read(builder)
     assert m.extra["length_source"][0] == "analytical"
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == pytest.approx(132.0)
 
 
 def test_analysis_member_related_the_other_way(builder):
     col = _column(builder, length=None)
     builder.analysis_member(col, length=132.0, relating="column")
+    # expected: the value given to the model above (input round trip)
     assert _read(builder).lx[0] == pytest.approx(132.0)
 
 
@@ -91,4 +96,5 @@ def test_unbraced_lengths_replace_a_missing_length(builder):
 def test_length_in_feet_model(make_builder, schema):
     b = make_builder("ft_kip", schema)
     _column(b, length=150.0, axis=True)
+    # expected: the value given to the model above (input round trip)
     assert _read(b).lx[0] == pytest.approx(150.0)

@@ -140,6 +140,7 @@ def test_analysis_in_kilonewton_model(make_builder, schema):
     b = make_builder("m_kN", schema)
     col = _col(b)
     b.reaction(b.analysis_member(col), b.load_case("Dead", "DEAD_LOAD_G"), -100.0)
+    # expected: the value given to the model above (input round trip)
     assert _loads(read_columns(b.model).members)["D"] == pytest.approx(100.0)
 
 
@@ -340,6 +341,7 @@ def test_results_outside_a_result_group_are_noted(builder):
     builder.model.remove(rel)
     builder.loads(col, D=1.0)
     m = read_columns(builder.model).members
+    # expected: the value given to the model above (input round trip)
     assert _loads(m) == {"D": pytest.approx(1.0)}
     assert any("in no IfcStructuralResultGroup" in s for s in m.messages[0])
     assert reaction is not None

@@ -36,6 +36,7 @@ def test_yield_from_material_properties(builder):
 def test_yield_in_imperial_model(make_builder, schema):
     b = make_builder("in_kip", schema)
     _column(b, b.material("Steel", fy=46.0))
+    # expected: the value given to the model above (input round trip)
     assert _read(b).Fy[0] == pytest.approx(46.0)
 
 
@@ -43,6 +44,7 @@ def test_override_wins_over_material(builder):
     col = _column(builder, builder.material("ASTM A992", fy=50.0))
     builder.design(col, YieldStress=42.0)
     m = _read(builder)
+    # expected: the value given to the model above (input round trip)
     assert m.Fy[0] == pytest.approx(42.0)
     assert m.extra["fy_source"][0] == "override"
 
@@ -51,6 +53,7 @@ def test_override_on_the_type(builder):
     ctype = builder.column_type("CT")
     builder.design(ctype, YieldStress=36.0)
     _column(builder, builder.material("no grade"), column_type=ctype)
+    # expected: the value given to the model above (input round trip)
     assert _read(builder).Fy[0] == pytest.approx(36.0)
 
 
@@ -58,11 +61,13 @@ def test_override_alone_without_material(builder):
     col = _column(builder, None)
     builder.design(col, YieldStress=50.0)
     m = _read(builder)
+    # expected: the value given to the model above (input round trip)
     assert m.Fy[0] == pytest.approx(50.0) and m.reason[0] is None
 
 
 def test_material_properties_win_over_grade_name(builder):
     _column(builder, builder.material("ASTM A36", fy=50.0))
+    # expected: the value given to the model above (input round trip)
     assert _read(builder).Fy[0] == pytest.approx(50.0)
 
 

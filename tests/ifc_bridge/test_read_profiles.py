@@ -229,6 +229,7 @@ def test_profile_from_the_body(builder, via):
     assert row["designation"] == "W14X48"
     assert m.extra["profile_source"][0] == "body/catalog"
     assert m.extra["length_source"][0] == "extrusion"
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == pytest.approx(144.0)
 
 
@@ -263,6 +264,7 @@ def test_type_representation_map_gives_profile_and_length(builder):
     builder.loads(col, D=10.0)
     m = read_columns(builder.model).members
     assert m.sections.designation[m.section_index[0]] == "W14X48"
+    # expected: the value given to the model above (input round trip)
     assert m.lx[0] == pytest.approx(120.0)
 
 

@@ -147,6 +147,7 @@ def test_csv_and_junit_read_back(tmp_path) -> None:
     assert list(df["id"]) == [m["id"] for m in report["members"]]
     assert list(df["status"]) == ["pass", "fail", "not_checked"]
     assert list(df["storey"]) == ["Level 1", "Level 2", "Level 2"]
+    # 1.4 x 300 kip D (ASCE 7-22 §2.3.1 combination 1)
     assert df["required_strength [kip]"][1] == pytest.approx(420.0, abs=0.05)
     root = ET.parse(junit).getroot()
     suites = {s.get("name"): s for s in root.findall("testsuite")}
