@@ -21,6 +21,7 @@ from engine.sections import Kind
 
 PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
 GIVEN_REQUIRED = "required strength as given"
+_STATUS = np.array([FAIL, PASS], dtype=object)  # indexed by (utilization <= 1)
 
 
 @dataclass
@@ -63,10 +64,26 @@ class CheckResults:
         return len(self.status)
 
 
+def _all_usable(m: MemberTable) -> bool:
+    """True when no member can fail a test of :func:`_not_checked_reasons` (a few array passes;
+    the usual case, so the ordered tests below run only when something is wrong)."""
+    idx = m.section_index
+    if not np.equal(m.reason, None).all() or (idx < 0).any():
+        return False
+    if (np.take(m.sections.kind, idx) == Kind.UNSUPPORTED).any():
+        return False
+    given = ~np.isnan(m.required_strength)
+    positive = np.stack([m.Fy, m.lx, m.ly, m.lz, m.kx, m.ky, m.kz, m.E, m.G]) > 0  # NaN: False
+    return bool(positive.all() and not (m.required_strength < 0).any()
+                and not (np.isnan(m.loads).all(axis=1) & ~given).any())
+
+
 def _not_checked_reasons(m: MemberTable) -> np.ndarray:
     """The first reason each member cannot be checked, or None (vectorized tests)."""
     n = len(m)
     reason = m.reason.copy()
+    if _all_usable(m):
+        return reason
     idx = m.section_index
     has_section = idx >= 0
     kind = np.full(n, -1)
@@ -121,21 +138,27 @@ def check_members(
     reason = _not_checked_reasons(m)
     ok = np.equal(reason, None)
 
-    # Compute on every row with harmless stand-ins where data are unusable, then blank them.
-    idx = np.where(ok, m.section_index, 0) if len(m.sections) else np.zeros(n, dtype=np.int64)
-    Fy = np.where(ok, m.Fy, 50.0)
-    one = np.ones(n)
-    lx, ly, lz = (np.where(ok, a, one) for a in (m.lx, m.ly, m.lz))
-    kx, ky, kz = (np.where(ok, a, one) for a in (m.kx, m.ky, m.kz))
-    E = np.where(ok, m.E, 29000.0)
-    G = np.where(ok, m.G, 11200.0)
+    # Compute on every row with harmless stand-ins where data are unusable, then blank them
+    # (when every member is usable, the usual case, the inputs are used as they are).
+    every = bool(ok.all())
+
+    def usable(a: np.ndarray, stand_in: float) -> np.ndarray:
+        return a if every else np.where(ok, a, stand_in)
+
+    idx = (usable(m.section_index, 0) if len(m.sections)
+           else np.zeros(n, dtype=np.int64))
+    Fy, E, G = usable(m.Fy, 50.0), usable(m.E, 29000.0), usable(m.G, 11200.0)
+    Lcx, Lcy, Lcz = (usable(k, 1.0) * usable(length, 1.0)
+                     for k, length in ((m.kx, m.lx), (m.ky, m.ly), (m.kz, m.lz)))
 
     messages = list(m.messages)  # rows that gain a message get a new list (_advisories)
-    if len(m.sections) and ok.any():
-        comp = compressive_strength(m.sections, Fy, kx * lx, ky * ly, kz * lz, E, G, index=idx)
-        out_of_scope = ok & ~comp.in_scope
-        reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
-        ok &= comp.in_scope
+    if len(m.sections) and (every or ok.any()):
+        comp = compressive_strength(m.sections, Fy, Lcx, Lcy, Lcz, E, G, index=idx)
+        if not comp.in_scope.all():
+            out_of_scope = ok & ~comp.in_scope
+            reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
+            ok &= comp.in_scope
+            every = False
         Pa = available_strength(comp.Pn, method)
         limit_state = comp.limit_state_names()
         slenderness, Fcr_, Ae = comp.slenderness, comp.Fcr, comp.Ae
@@ -150,24 +173,30 @@ def check_members(
         method, half_live=half_live and method == "LRFD")
     gov = governing(m.loads, combos)
     given = ~np.isnan(m.required_strength)
-    required = np.where(given, m.required_strength, gov.required)
-    gov_name = np.where(np.equal(gov.combination, None), "", gov.combination)
-    combination = np.where(given, GIVEN_REQUIRED, gov_name).astype(object)
+    any_given = bool(given.any())
+    required = np.where(given, m.required_strength, gov.required) if any_given else gov.required
+    combination = gov.combination.copy()  # object array, None where nothing compresses
+    combination[np.equal(combination, None)] = ""
+    if any_given:
+        combination[given] = GIVEN_REQUIRED
 
     with np.errstate(divide="ignore", invalid="ignore"):
         utilization = required / Pa
 
-    status = np.where(utilization <= 1.0, PASS, FAIL).astype(object)
-    status[~ok] = NOT_CHECKED
-    # The demand stays known where it can be computed (selection uses it even for a member
-    # whose own section is unusable); everything capacity-related is blanked.
-    for arr in (Pa, utilization, slenderness, Fcr_, Ae):
-        arr[~ok] = np.nan
-    required[~ok & gov.no_loads & ~given] = np.nan
-    limit_state = np.where(ok, limit_state, "").astype(object)
-    combination[~ok] = ""
+    status = _STATUS[(utilization <= 1.0).view(np.int8)]
+    if not every:
+        bad = ~ok
+        status[bad] = NOT_CHECKED
+        # The demand stays known where it can be computed (selection uses it even for a
+        # member whose own section is unusable); everything capacity-related is blanked.
+        for arr in (Pa, utilization, slenderness, Fcr_, Ae):
+            arr[bad] = np.nan
+        required[bad & gov.no_loads & ~given] = np.nan
+        limit_state = np.where(ok, limit_state, "").astype(object)
+        combination[bad] = ""
 
-    max_tension = np.where(ok & ~given, gov.max_tension, 0.0)
+    max_tension = (gov.max_tension if every and not any_given
+                   else np.where(ok & ~given, gov.max_tension, 0.0))
     _advisories(messages, ok, slenderness, given, gov.index)
     return CheckResults(
         method=method,

@@ -386,10 +386,16 @@ def _expand_signs(
     return names, sources, np.asarray(rows, dtype=float).reshape(len(rows), len(LOAD_TYPES))
 
 
-def _first_extreme(candidates: np.ndarray, extreme: np.ndarray) -> np.ndarray:
-    """Index of the first column within rounding of the row's extreme (ties: first wins)."""
-    tol = _TIE_RTOL * np.abs(extreme)[:, None]
-    return np.argmax(np.abs(candidates - extreme[:, None]) <= tol, axis=1)
+def _first_extreme(candidates: np.ndarray, extreme: np.ndarray, largest: bool) -> np.ndarray:
+    """Index of the first column within rounding of the row's extreme (ties: first wins).
+
+    Every value lies on one side of its row's extreme, so "within the tolerance" is one
+    comparison: ``v >= top - tol`` for the largest, ``v <= bottom + tol`` for the smallest.
+    """
+    tol = _TIE_RTOL * np.abs(extreme)
+    if largest:
+        return np.argmax(candidates >= (extreme - tol)[:, None], axis=1)
+    return np.argmax(candidates <= (extreme + tol)[:, None], axis=1)
 
 
 def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
@@ -429,12 +435,16 @@ def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
     top = values.max(axis=1)
     compresses = top > 0.0
     required = np.where(compresses, top, 0.0)
-    index = np.where(compresses, _first_extreme(values, top), -1)
+    index = np.where(compresses, _first_extreme(values, top, largest=True), -1)
 
     bottom = values.min(axis=1)
     pulls = bottom < 0.0
-    max_tension = np.where(pulls, -bottom, 0.0)
-    tension_index = np.where(pulls, _first_extreme(values, bottom), -1)
+    if pulls.any():
+        max_tension = np.where(pulls, -bottom, 0.0)
+        tension_index = np.where(pulls, _first_extreme(values, bottom, largest=False), -1)
+    else:
+        max_tension = np.zeros(len(loads))
+        tension_index = np.full(len(loads), -1)
 
     return Governing(
         required=required,

@@ -215,10 +215,14 @@ def Ae_round_slender(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray,
 
 
 def Ae_round(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray, Ag: np.ndarray) -> np.ndarray:
-    """Effective area of round HSS (NaN where D/t >= 0.45 E/Fy, out of E7's scope)."""
+    """Effective area of round HSS (NaN where D/t >= 0.45 E/Fy, out of E7's scope).
+
+    Ae_round_slender exceeds Ag just past D/t = 0.11 E/Fy (1.012·Ag at the limit); an
+    effective area is a reduction of the gross one, so it is capped at Ag.
+    """
     limit = D_t * Fy / E
     with np.errstate(divide="ignore", invalid="ignore"):
-        slender = Ae_round_slender(E, Fy, D_t, Ag)
+        slender = np.minimum(Ae_round_slender(E, Fy, D_t, Ag), Ag)
     return np.where(limit <= 0.11, Ae_round_compact(Ag), np.where(limit < 0.45, slender, np.nan))
 
 
@@ -325,10 +329,11 @@ def compressive_strength(
     """
     Fy = np.asarray(Fy, dtype=float)
     n = len(Fy)
-    E = np.broadcast_to(np.asarray(E, dtype=float), (n,))
-    G = np.broadcast_to(np.asarray(G, dtype=float), (n,))
-    Lcx, Lcy, Lcz = (np.broadcast_to(np.asarray(a, dtype=float), (n,)) for a in (Lcx, Lcy, Lcz))
+    E, G, Lcx, Lcy, Lcz = (_per_member(a, n) for a in (E, G, Lcx, Lcy, Lcz))
     limits = _RowConstants.cached(sec)
+    if n <= CHUNK:  # one block: its arrays are the result
+        rows = index if index is not None else np.arange(n)
+        return _block(sec, limits, rows, Fy, Lcx, Lcy, Lcz, E, G)
     out = CompressionResult(
         Pn=np.empty(n), Fcr=np.empty(n), Fe=np.empty(n), Ae=np.empty(n), Ag=np.empty(n),
         slenderness=np.empty(n), limit_state=np.empty(n, dtype=np.int64),
@@ -341,12 +346,19 @@ def compressive_strength(
     return out
 
 
+def _per_member(a: np.ndarray | float, n: int) -> np.ndarray:
+    """``a`` as a float array of length ``n`` (a scalar is repeated; arrays are not copied)."""
+    a = np.asarray(a, dtype=float)
+    return a if a.shape == (n,) else np.broadcast_to(a, (n,))
+
+
 def _block(
     sec: SectionTable, lim: _RowConstants, rows: np.ndarray, Fy: np.ndarray,
     Lcx: np.ndarray, Lcy: np.ndarray, Lcz: np.ndarray, E: np.ndarray, G: np.ndarray,
-    out: CompressionResult, sl: slice,
-) -> None:
-    """Chapter E for one block of members (results written into ``out[sl]``).
+    out: CompressionResult | None = None, sl: slice | None = None,
+) -> CompressionResult | None:
+    """Chapter E for one block of members: results written into ``out[sl]``, or returned
+    when there is no ``out``.
 
     Written for speed: integer gathers (np.take) and masked updates on the members a limit
     state applies to, no boolean-mask copies of whole blocks.
@@ -409,6 +421,12 @@ def _block(
         Ae[sub] = Ae_r
         in_scope[sub] = np.isfinite(Ae_r)
 
+    slender = Ae < Ag * (1.0 - 1e-12)
+    if out is None:
+        return CompressionResult(
+            Pn=Pn(Fcr_, Ae), Fcr=Fcr_, Fe=Fe, Ae=Ae, Ag=Ag, slenderness=np.fmax(Lcx_rx, Lcy_ry),
+            limit_state=mode, slender=slender, in_scope=in_scope,
+        )
     out.Pn[sl] = Pn(Fcr_, Ae)
     out.Fcr[sl] = Fcr_
     out.Fe[sl] = Fe
@@ -416,8 +434,9 @@ def _block(
     out.Ag[sl] = Ag
     np.fmax(Lcx_rx, Lcy_ry, out=out.slenderness[sl])
     out.limit_state[sl] = mode
-    np.less(Ae, Ag * (1.0 - 1e-12), out=out.slender[sl])
+    out.slender[sl] = slender
     out.in_scope[sl] = in_scope
+    return None
 
 
 def available_strength(Pn_: np.ndarray, method: str) -> np.ndarray:

@@ -126,7 +126,7 @@ class MembersRequest(_Strict):
     """The whole request: ``stanchion check members.json`` or ``POST /v1/checks``."""
 
     design_method: Literal["LRFD", "ASD"] = "LRFD"
-    units: Units = Units()
+    units: Units = Field(default_factory=Units)
     members: list[Member] = Field(min_length=1)
     combinations: list[CombinationSpec] | None = None
     half_live_exception: bool = Field(
@@ -135,7 +135,7 @@ class MembersRequest(_Strict):
         "(occupancies with Lo <= 100 psf other than garages and public assembly).",
     )
     detail: bool = Field(False, description="add every combination's value to each member")
-    selection: SelectionOptions = SelectionOptions()
+    selection: SelectionOptions = Field(default_factory=SelectionOptions)
     E: float | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
     G: float | None = Field(None, gt=0, description="shear modulus, stress unit")
 
@@ -146,8 +146,9 @@ class MembersRequest(_Strict):
 
     @model_validator(mode="after")
     def _unique_ids(self) -> MembersRequest:
-        seen: set[str] = set()
-        dup = sorted({m.id for m in self.members if m.id in seen or seen.add(m.id)})
-        if dup:
+        ids = [m.id for m in self.members]
+        if len(set(ids)) < len(ids):  # the common case (no repeats) costs one set()
+            seen: set[str] = set()
+            dup = sorted({i for i in ids if i in seen or seen.add(i)})
             raise ValueError(f"member ids must be unique; repeated: {', '.join(dup)}")
         return self

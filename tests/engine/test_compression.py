@@ -188,6 +188,16 @@ def test_round_HSS_slender_by_E7_7() -> None:
     assert r.Ae[0] / r.Ag[0] == pytest.approx(0.946, abs=0.002)
 
 
+def test_round_HSS_just_past_the_E7_6_limit_keeps_Ae_at_Ag() -> None:
+    # HSS14.000X0.250, Fy = 54 ksi: tdes = 0.233 in, D/t = 60.1 (Shapes Database v16.0), so
+    # D/t·Fy/E = 0.112, just past 0.11.  Eq. E7-7 alone gives [0.038/0.112 + 2/3]·Ag = 1.006·Ag
+    # (hand computation); an effective area never exceeds the gross area (common practice, no
+    # source), so Ae = Ag and Pn = Fy·Ag at zero length.
+    _, r = capacity("HSS14.000X0.250", 54.0, 0.0)
+    assert r.Ae[0] == r.Ag[0]
+    assert r.Pn[0] == pytest.approx(54.0 * r.Ag[0])
+
+
 def test_round_HSS_compact_by_E7_6() -> None:
     # HSS6.625X0.280: D/t = 6.625/0.260 = 25.5 <= 69.3, so Ae = Ag (AISC 360-22 Eq. E7-6).
     _, r = capacity("HSS6.625X0.280", 46.0, 0.0)
