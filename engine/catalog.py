@@ -292,6 +292,12 @@ def load_catalog() -> SectionTable:
 
 
 @functools.lru_cache(maxsize=1)
+def designations() -> tuple[str, ...]:
+    """The catalog designations in row order (cached, as Python strings)."""
+    return tuple(load_catalog().designation.tolist())
+
+
+@functools.lru_cache(maxsize=1)
 def _index() -> dict[str, int]:
     return {name: i for i, name in enumerate(load_catalog().designation)}
 
@@ -327,14 +333,15 @@ def lookup(designations: Sequence[str]) -> np.ndarray:
         int64 array, one entry per designation.
     """
     values = [designations] if isinstance(designations, str) else list(designations)
-    index = _index()
-    found = {
-        v: index.get(normalize_designation(v), -1)
-        for v in {v for v in values if isinstance(v, str)}
-    }
-    return np.fromiter(
-        (found[v] if isinstance(v, str) else -1 for v in values), dtype=np.int64, count=len(values)
-    )
+    return np.fromiter(map(_row_of, values), dtype=np.int64, count=len(values))
+
+
+@functools.lru_cache(maxsize=8192)
+def _row_of(value: object) -> int:
+    """Catalog row of one designation, -1 when unknown or not a string (see :func:`lookup`)."""
+    if not isinstance(value, str):
+        return -1
+    return _index().get(normalize_designation(value), -1)
 
 
 def _numeric_distance(query: list[float], name: str) -> float:

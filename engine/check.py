@@ -22,6 +22,7 @@ from engine.sections import Kind
 PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
 GIVEN_REQUIRED = "required strength as given"
 _STATUS = np.array([FAIL, PASS], dtype=object)  # indexed by (utilization <= 1)
+_UNSUPPORTED = int(Kind.UNSUPPORTED)
 
 
 @dataclass
@@ -70,7 +71,7 @@ def _all_usable(m: MemberTable) -> bool:
     idx = m.section_index
     if not np.equal(m.reason, None).all() or (idx < 0).any():
         return False
-    if (np.take(m.sections.kind, idx) == Kind.UNSUPPORTED).any():
+    if (m.sections.kind.take(idx) == _UNSUPPORTED).any():
         return False
     given = ~np.isnan(m.required_strength)
     positive = np.stack([m.Fy, m.lx, m.ly, m.lz, m.kx, m.ky, m.kz, m.E, m.G]) > 0  # NaN: False
@@ -225,9 +226,9 @@ def _advisories(
     gov_index: np.ndarray,
 ) -> None:
     """Append warnings that do not change the status (loops only over flagged members)."""
-    for i in np.flatnonzero(ok & (slenderness > SLENDERNESS_ADVISORY)):
+    for i in (ok & (slenderness > SLENDERNESS_ADVISORY)).nonzero()[0].tolist():
         messages[i] = [*messages[i],
                        f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "
                        "(AISC 360-22 E2 user note); review the member"]
-    for i in np.flatnonzero(ok & ~given & (gov_index < 0)):
+    for i in (ok & ~given & (gov_index < 0)).nonzero()[0].tolist():
         messages[i] = [*messages[i], "no load combination produces compression"]

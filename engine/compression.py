@@ -262,6 +262,9 @@ class CompressionResult:
 
 
 CHUNK = 65536  # members per block: keeps the temporaries in cache
+# Kind codes as plain ints (comparing an array with an IntEnum member is slower).
+_I_SHAPE, _TEE, _CHANNEL, _UNSUPPORTED = (
+    int(k) for k in (Kind.I_SHAPE, Kind.TEE, Kind.CHANNEL, Kind.UNSUPPORTED))
 
 
 @dataclass
@@ -360,15 +363,14 @@ def _block(
     """Chapter E for one block of members: results written into ``out[sl]``, or returned
     when there is no ``out``.
 
-    Written for speed: integer gathers (np.take) and masked updates on the members a limit
+    Written for speed: integer gathers (ndarray.take) and masked updates on the members a limit
     state applies to, no boolean-mask copies of whole blocks.
     """
-    take = np.take
-    kind = take(lim.kind, rows)
-    Ag = take(sec.A, rows)
+    kind = lim.kind.take(rows)
+    Ag = sec.A.take(rows)
     with np.errstate(invalid="ignore"):
-        Lcx_rx = Lcx * take(lim.inv_rx, rows)
-        Lcy_ry = Lcy * take(lim.inv_ry, rows)
+        Lcx_rx = Lcx * lim.inv_rx.take(rows)
+        Lcy_ry = Lcy * lim.inv_ry.take(rows)
     Fex = Fe_flexural(E, Lcx_rx)
     Fey = Fe_flexural(E, Lcy_ry)
     # E3: the smaller of the two axes (x wins ties).
@@ -376,28 +378,28 @@ def _block(
     mode = (Fey < Fex).astype(np.int64)
 
     def lower(sub: np.ndarray, F: np.ndarray, code: LimitState, ties: bool = False) -> None:
-        low = np.flatnonzero(F <= take(Fe, sub) if ties else F < take(Fe, sub))
+        low = (F <= Fe.take(sub) if ties else F < Fe.take(sub)).nonzero()[0]
         if len(low):
-            at = take(sub, low)
-            Fe[at] = take(F, low)
+            at = sub.take(low)
+            Fe[at] = F.take(low)
             mode[at] = code
 
     # Torsional buckling of doubly symmetric open shapes (Fe_torsional).
-    sub = np.flatnonzero(kind == Kind.I_SHAPE)
+    sub = (kind == _I_SHAPE).nonzero()[0]
     if len(sub):
-        r = take(rows, sub)
-        Ft = Fe_torsional(take(E, sub), take(G, sub), take(sec.Cw, r), take(sec.J, r),
-                          take(Lcz, sub), take(sec.Ix, r), take(sec.Iy, r))
+        r = rows.take(sub)
+        Ft = Fe_torsional(E.take(sub), G.take(sub), sec.Cw.take(r), sec.J.take(r),
+                          Lcz.take(sub), sec.Ix.take(r), sec.Iy.take(r))
         lower(sub, Ft, LimitState.TORSIONAL)
 
     # Flexural-torsional buckling of tees (about y) and channels (about x).
-    sub = np.flatnonzero((kind == Kind.TEE) | (kind == Kind.CHANNEL))
+    sub = ((kind == _TEE) | (kind == _CHANNEL)).nonzero()[0]
     if len(sub):
-        r = take(rows, sub)
-        fez = Fez(take(E, sub), take(G, sub), take(sec.Cw, r), take(sec.J, r),
-                  take(Lcz, sub), take(Ag, sub), take(lim.ro2, r))
-        f_sym = np.where(take(kind, sub) == Kind.TEE, take(Fey, sub), take(Fex, sub))
-        lower(sub, Fe_flexural_torsional(f_sym, fez, take(lim.H, r)),
+        r = rows.take(sub)
+        fez = Fez(E.take(sub), G.take(sub), sec.Cw.take(r), sec.J.take(r),
+                  Lcz.take(sub), Ag.take(sub), lim.ro2.take(r))
+        f_sym = np.where(kind.take(sub) == _TEE, Fey.take(sub), Fex.take(sub))
+        lower(sub, Fe_flexural_torsional(f_sym, fez, lim.H.take(r)),
               LimitState.FLEXURAL_TORSIONAL, ties=True)
 
     Fcr_ = Fcr(Fy, Fe)
@@ -405,19 +407,19 @@ def _block(
     # E7: only elements beyond λr can lose area (λ > λr ⇔ λ²·Fy > k²·E).
     EF = E / Fy
     Ae = Ag.copy()
-    in_scope = kind != Kind.UNSUPPORTED
+    in_scope = kind != _UNSUPPORTED
     groups = ((sec.b1, sec.t1, sec.n1), (sec.b2, sec.t2, sec.n2))
     for (b, t, n), (_, lam2, k2, k, c1, c2) in zip(groups, lim.groups, strict=True):
-        sub = np.flatnonzero(take(lam2, rows) > take(k2, rows) * EF)
+        sub = (lam2.take(rows) > k2.take(rows) * EF).nonzero()[0]
         if len(sub):
-            r = take(rows, sub)
-            Ae[sub] -= element_deduction(take(b, r), take(t, r), take(n, r), take(k, r),
-                                         take(c1, r), take(c2, r), take(E, sub),
-                                         take(Fy, sub), take(Fcr_, sub))
-    sub = np.flatnonzero(take(lim.round_, rows))
+            r = rows.take(sub)
+            Ae[sub] -= element_deduction(b.take(r), t.take(r), n.take(r), k.take(r),
+                                         c1.take(r), c2.take(r), E.take(sub),
+                                         Fy.take(sub), Fcr_.take(sub))
+    sub = (lim.round_.take(rows)).nonzero()[0]
     if len(sub):
-        Ae_r = Ae_round(take(E, sub), take(Fy, sub), take(lim.groups[0][0], take(rows, sub)),
-                        take(Ag, sub))
+        Ae_r = Ae_round(E.take(sub), Fy.take(sub), lim.groups[0][0].take(rows.take(sub)),
+                        Ag.take(sub))
         Ae[sub] = Ae_r
         in_scope[sub] = np.isfinite(Ae_r)
 

@@ -5,6 +5,7 @@ Members request -> member table (units converted here, at the edge) -> engine ->
 
 from __future__ import annotations
 
+import itertools
 import operator
 
 import numpy as np
@@ -19,6 +20,15 @@ from engine.units import force_factor, length_factor, stress_factor
 from service.errors import InputError
 from service.report import build_report
 from service.request import Member, MembersRequest, Profile
+
+#: Member fields in the order of the request table's first columns.
+_SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")
+_scalar_items = operator.itemgetter(*_SCALARS)
+_load_items = operator.itemgetter(*LOAD_TYPES)
+_loads_item = operator.itemgetter("loads")
+_NO_LOADS = dict.fromkeys(LOAD_TYPES)
+_flat = itertools.chain.from_iterable
+_profile_attr = operator.attrgetter("profile")
 
 
 def _profile_section(p: Profile, default_unit: str) -> SectionTable:
@@ -53,10 +63,13 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
     idx = catalog.lookup(names)
     reasons: list[str | None] = [None] * len(members)
     found = idx >= 0
-    # Catalog rows: the canonical designation (one gather); the rest one by one below.
-    labels = np.where(found, cat.designation[np.where(found, idx, 0)], names).tolist()
+    # Catalog rows: the canonical designation; the rest one by one below.
+    designations = catalog.designations()
+    labels = [designations[i] if i >= 0 else name
+              for i, name in zip(idx.tolist(), names, strict=True)]
     extra: list[SectionTable] = []
-    odd = [i for i, m in enumerate(members) if m.profile is not None or idx[i] < 0]
+    odd = sorted({*(~found).nonzero()[0].tolist(),
+                  *(i for i, p in enumerate(map(_profile_attr, members)) if p is not None)})
     for i in odd:
         m = members[i]
         if m.section and m.profile:
@@ -81,12 +94,6 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
     return table, idx, reasons, labels
 
 
-_load_values = operator.attrgetter(*LOAD_TYPES)
-#: Member fields in the order of the request table's first columns.
-_SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")
-_scalar_values = operator.attrgetter(*_SCALARS)
-
-
 def members_from_request(req: MembersRequest) -> MemberTable:
     """Convert a members request into the engine's member table (kip, inch, ksi)."""
     ms = req.members
@@ -95,16 +102,16 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     fS = stress_factor(req.units.stress)
     sections, idx, reasons, labels = _sections(ms, req.units.length)
 
-    # One pass over the members into a float table (None -> NaN), then columns by slicing.
-    nan = float("nan")
-    width = len(_SCALARS) + len(LOAD_TYPES)
-    no_loads = (None,) * len(LOAD_TYPES)
-    table = np.fromiter(
-        (nan if v is None else v for m in ms
-         for v in (*_scalar_values(m), *(no_loads if m.loads is None
-                                         else _load_values(m.loads)))),
-        dtype=float, count=len(ms) * width,
-    ).reshape(len(ms), width)
+    # The members' numbers into one float table (None -> NaN), then columns by slicing.
+    # Written as C-level passes over the models' field dicts (itemgetter, chain): the
+    # per-member cost of a Python loop would be most of the time of a small request.
+    fields = list(map(vars, ms))
+    loads_of = [_NO_LOADS if x is None else vars(x) for x in map(_loads_item, fields)]
+    n = len(ms)
+    scalars = np.array([*_flat(map(_scalar_items, fields))], dtype=float)  # None -> NaN
+    load_values = np.array([*_flat(map(_load_items, loads_of))], dtype=float)
+    table = np.concatenate([scalars.reshape(n, len(_SCALARS)),
+                            load_values.reshape(n, len(LOAD_TYPES))], axis=1)
     length = table[:, 1] * fL
     lx, ly, lz = (table[:, c] * fL for c in (2, 3, 4))
     loads = table[:, len(_SCALARS):] * fF
