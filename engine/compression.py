@@ -45,6 +45,7 @@ LIMIT_STATE_NAMES = (
     "torsional buckling",
     "flexural-torsional buckling",
 )
+_LIMIT_STATE_NAMES = np.asarray(LIMIT_STATE_NAMES, dtype=object)
 
 
 # --- E3: flexural buckling -------------------------------------------------------------------
@@ -257,8 +258,11 @@ class CompressionResult:
 
     def limit_state_names(self) -> np.ndarray:
         """Readable names, with "(slender elements)" where Ae < Ag."""
-        names = np.asarray(LIMIT_STATE_NAMES, dtype=object)[self.limit_state]
-        return np.where(self.slender, names + " (slender elements)", names)
+        names = _LIMIT_STATE_NAMES[self.limit_state]
+        slender = self.slender.nonzero()[0]
+        if len(slender):
+            names[slender] = names[slender] + " (slender elements)"
+        return names
 
 
 CHUNK = 65536  # members per block: keeps the temporaries in cache

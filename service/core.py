@@ -5,7 +5,6 @@ Members request -> member table (units converted here, at the edge) -> engine ->
 
 from __future__ import annotations
 
-import itertools
 import operator
 
 import numpy as np
@@ -23,12 +22,22 @@ from service.request import Member, MembersRequest, Profile
 
 #: Member fields in the order of the request table's first columns.
 _SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")
-_scalar_items = operator.itemgetter(*_SCALARS)
-_load_items = operator.itemgetter(*LOAD_TYPES)
+_SCALAR_ITEMS = tuple(map(operator.itemgetter, _SCALARS))
+_LOAD_ITEMS = tuple(map(operator.itemgetter, LOAD_TYPES))
 _loads_item = operator.itemgetter("loads")
+_id_item = operator.itemgetter("id")
 _NO_LOADS = dict.fromkeys(LOAD_TYPES)
-_flat = itertools.chain.from_iterable
 _profile_attr = operator.attrgetter("profile")
+_candidates_attr = operator.attrgetter("candidates")
+_max_utilization_attr = operator.attrgetter("max_utilization")
+
+
+def _column(get: operator.itemgetter, rows: list[dict]) -> np.ndarray:
+    """One number field of every row as floats, NaN where it is None."""
+    values = list(map(get, rows))
+    if values.count(None) == len(values):
+        return np.full(len(values), np.nan)
+    return np.array(values, dtype=float)  # None -> NaN
 
 
 def _profile_section(p: Profile, default_unit: str) -> SectionTable:
@@ -102,39 +111,36 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     fS = stress_factor(req.units.stress)
     sections, idx, reasons, labels = _sections(ms, req.units.length)
 
-    # The members' numbers into one float table (None -> NaN), then columns by slicing.
-    # Written as C-level passes over the models' field dicts (itemgetter, chain): the
-    # per-member cost of a Python loop would be most of the time of a small request.
+    # The members' numbers, one float column per field (None -> NaN), each read in C-level
+    # passes over the models' field dicts: a Python loop over the members would be most of
+    # the time of a small request.
     fields = list(map(vars, ms))
     loads_of = [_NO_LOADS if x is None else vars(x) for x in map(_loads_item, fields)]
-    n = len(ms)
-    scalars = np.array([*_flat(map(_scalar_items, fields))], dtype=float)  # None -> NaN
-    load_values = np.array([*_flat(map(_load_items, loads_of))], dtype=float)
-    table = np.concatenate([scalars.reshape(n, len(_SCALARS)),
-                            load_values.reshape(n, len(LOAD_TYPES))], axis=1)
-    length = table[:, 1] * fL
-    lx, ly, lz = (table[:, c] * fL for c in (2, 3, 4))
-    loads = table[:, len(_SCALARS):] * fF
+    fy, length, lx, ly, lz, kx, ky, kz, required = (
+        _column(get, fields) for get in _SCALAR_ITEMS)
+    loads = np.stack([_column(get, loads_of) for get in _LOAD_ITEMS], axis=1) * fF
+    length = length * fL
+    lx, ly, lz = (lx * fL, ly * fL, lz * fL)
     E = (req.E * fS) if req.E is not None else E_DEFAULT
     G = (req.G * fS) if req.G is not None else G_DEFAULT
     return MemberTable.build(
-        ids=[m.id for m in ms],
-        name=[m.name or m.id for m in ms],
+        ids=list(map(_id_item, fields)),
+        name=[f["name"] or f["id"] for f in fields],
         section_label=labels,
         sections=sections,
         section_index=idx,
-        Fy=table[:, 0] * fS,
+        Fy=fy * fS,
         length=length,
         lx=np.where(np.isnan(lx), length, lx),
         ly=np.where(np.isnan(ly), length, ly),
         lz=np.where(np.isnan(lz), length, lz),
-        kx=table[:, 5],
-        ky=table[:, 6],
-        kz=table[:, 7],
+        kx=kx,
+        ky=ky,
+        kz=kz,
         E=E,
         G=G,
         loads=loads,
-        required_strength=table[:, 8] * fF,
+        required_strength=required * fF,
         reason=reasons,
     )
 
@@ -201,8 +207,8 @@ def check_request(req: MembersRequest) -> dict:
     """Members request -> report (design.md §3)."""
     members, results = run_request(req)
     suggestions, problems = suggestions_for(
-        members, results, [m.candidates for m in req.members],
-        [m.max_utilization for m in req.members],
+        members, results, list(map(_candidates_attr, req.members)),
+        list(map(_max_utilization_attr, req.members)),
         min_depth=req.selection.min_depth, max_depth=req.selection.max_depth,
         max_suggestions=req.selection.max_suggestions,
     )

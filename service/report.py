@@ -29,17 +29,25 @@ def design_basis(method: str, custom_combinations: bool = False) -> str:
 
 def _sig_columns(columns: list[np.ndarray], digits: list[int]) -> list[list[float | None]]:
     """Round each column to its significant digits (one array pass); NaN / inf -> None."""
-    a = np.vstack([np.asarray(c, dtype=float) for c in columns])
+    a = np.array(columns, dtype=float).reshape(len(columns), -1)
     d = np.asarray(digits, dtype=float)[:, None]
     finite = np.isfinite(a)
-    nz = finite & (a != 0)
-    safe = np.where(nz, a, 1.0)
+    every_finite = bool(finite.all())
+    nz = (a != 0) if every_finite else finite & (a != 0)
+    every_nz = bool(nz.all())
+    safe = a if every_nz else np.where(nz, a, 1.0)
     with np.errstate(over="ignore"):
         exp10 = d - 1.0 - np.floor(np.log10(np.abs(safe)))
         p = 10.0 ** np.abs(exp10)
         # multiply by an exact power of ten, or divide by one: each step exact
-        r = np.where(exp10 >= 0, np.round(safe * p) / p, np.round(safe / p) * p)
-    rows = np.where(nz, r, 0.0).tolist()
+        up = exp10 >= 0
+        if up.all():
+            r = np.round(safe * p) / p
+        else:
+            r = np.where(up, np.round(safe * p) / p, np.round(safe / p) * p)
+    rows = (r if every_nz else np.where(nz, r, 0.0)).tolist()
+    if every_finite:
+        return rows
     out = []
     for row, ok, all_ok in zip(rows, finite.tolist(), finite.all(axis=1).tolist(), strict=True):
         out.append(row if all_ok else [x if f else None for x, f in zip(row, ok, strict=True)])
@@ -90,26 +98,32 @@ def build_report(
         [req, avail, results.utilization, results.slenderness, results.Fcr * to_stress],
         [6, 6, 4, 4, 6])
     force_unit = units["force"]
-    tension_at = set(np.flatnonzero(tension > 0).tolist())
-    not_checked_at = set(np.flatnonzero(results.status == NOT_CHECKED).tolist())
+    tension_at = (tension > 0).nonzero()[0].tolist()
     storey_l = list(storey) if storey is not None else None
+    # Text columns as Python strings in C-level passes (map(str, ...)), then one dict per row.
+    # (The engine's own columns -- status, limit state, combination -- are strings already.)
+    ids, names, sections = (list(map(str, c.tolist()))
+                            for c in (members.id, members.name, members.section_label))
+    statuses, limit_states, combinations = (
+        c.tolist() for c in (results.status, results.limit_state, results.combination))
     rows = [
-        {"id": str(i_), "name": str(n_), "section": str(s_), "status": str(st),
+        {"id": i_, "name": n_, "section": s_, "status": st,
          "required_strength": rq, "available_strength": av, "utilization": ut,
-         "limit_state": str(ls), "combination": str(cb), "slenderness": sl,
-         "critical_stress": fc, "messages": list(ms)}
+         "limit_state": ls, "combination": cb, "slenderness": sl,
+         "critical_stress": fc, "messages": ms}
         for i_, n_, s_, st, rq, av, ut, ls, cb, sl, fc, ms in zip(
-            members.id.tolist(), members.name.tolist(), members.section_label.tolist(),
-            results.status.tolist(), req_l, avail_l, util_l, results.limit_state.tolist(),
-            results.combination.tolist(), slender_l, fcr_l, results.messages, strict=True)
+            ids, names, sections, statuses, req_l, avail_l, util_l, limit_states,
+            combinations, slender_l, fcr_l, results.messages, strict=True)
     ]
+    # The message lists are the results' own: a row that gains a message gets a new list.
     for i in tension_at:
-        rows[i]["messages"].append(
+        rows[i]["messages"] = [
+            *rows[i]["messages"],
             f"a load combination gives net tension of {_sig(float(tension[i]), 4)} "
-            f"{force_unit}; tension is not checked here")
+            f"{force_unit}; tension is not checked here"]
     for i, row in enumerate(rows) if storey_l is not None else ():
         row["storey"] = None if storey_l[i] is None else str(storey_l[i])
-    for i in not_checked_at:
+    for i in (i for i, st in enumerate(statuses) if st == NOT_CHECKED):
         rows[i]["reason"] = str(results.reason[i])
     for i, found in (suggestions or {}).items():
         rows[i]["suggestions"] = [
@@ -136,9 +150,9 @@ def build_report(
         "units": dict(units),
         "summary": {
             "members": len(results),
-            "pass": int(np.sum(status == "pass")),
-            "fail": int(np.sum(status == "fail")),
-            "not_checked": int(np.sum(status == NOT_CHECKED)),
+            "pass": statuses.count("pass"),
+            "fail": statuses.count("fail"),
+            "not_checked": statuses.count(NOT_CHECKED),
             "max_utilization": _sig(float(util.max()), 4) if util.size else None,
         },
         "messages": list(messages or []),
