@@ -16,6 +16,7 @@ from engine.compression import (
     available_strength,
     compressive_strength,
 )
+from engine.masks import all_set, any_set
 from engine.members import MemberTable
 from engine.sections import Kind
 
@@ -69,14 +70,14 @@ def _all_usable(m: MemberTable) -> bool:
     """True when no member can fail a test of :func:`_not_checked_reasons` (a few array passes;
     the usual case, so the ordered tests below run only when something is wrong)."""
     idx = m.section_index
-    if not np.equal(m.reason, None).all() or (idx < 0).any():
+    if not all_set(np.equal(m.reason, None)) or any_set(idx < 0):
         return False
-    if (m.sections.kind.take(idx) == _UNSUPPORTED).any():
+    if any_set(m.sections.kind.take(idx) == _UNSUPPORTED):
         return False
     given = ~np.isnan(m.required_strength)
     positive = np.stack([m.Fy, m.lx, m.ly, m.lz, m.kx, m.ky, m.kz, m.E, m.G]) > 0  # NaN: False
-    return bool(positive.all() and not (m.required_strength < 0).any()
-                and not (np.isnan(m.loads).all(axis=1) & ~given).any())
+    return (all_set(positive) and not any_set(m.required_strength < 0)
+            and not any_set(np.isnan(m.loads).all(axis=1) & ~given))
 
 
 def _not_checked_reasons(m: MemberTable) -> np.ndarray:
@@ -141,7 +142,7 @@ def check_members(
 
     # Compute on every row with harmless stand-ins where data are unusable, then blank them
     # (when every member is usable, the usual case, the inputs are used as they are).
-    every = bool(ok.all())
+    every = all_set(ok)
 
     def usable(a: np.ndarray, stand_in: float) -> np.ndarray:
         return a if every else np.where(ok, a, stand_in)
@@ -153,9 +154,9 @@ def check_members(
                      for k, length in ((m.kx, m.lx), (m.ky, m.ly), (m.kz, m.lz)))
 
     messages = list(m.messages)  # rows that gain a message get a new list (_advisories)
-    if len(m.sections) and (every or ok.any()):
+    if len(m.sections) and (every or any_set(ok)):
         comp = compressive_strength(m.sections, Fy, Lcx, Lcy, Lcz, E, G, index=idx)
-        if not comp.in_scope.all():
+        if not all_set(comp.in_scope):
             out_of_scope = ok & ~comp.in_scope
             reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
             ok &= comp.in_scope
@@ -174,7 +175,7 @@ def check_members(
         method, half_live=half_live and method == "LRFD")
     gov = governing(m.loads, combos)
     given = ~np.isnan(m.required_strength)
-    any_given = bool(given.any())
+    any_given = any_set(given)
     required = np.where(given, m.required_strength, gov.required) if any_given else gov.required
     combination = gov.combination.copy()  # object array, None where nothing compresses
     combination[np.equal(combination, None)] = ""

@@ -41,12 +41,15 @@ from __future__ import annotations
 import functools
 import itertools
 import math
+import operator
 from collections.abc import Mapping
 from dataclasses import dataclass, field
 from numbers import Real
+from types import MappingProxyType
 
 import numpy as np
 
+from engine.masks import any_set
 from engine.members import LOAD_TYPES, REVERSIBLE
 
 # --- Snow factors (see module docstring: from memory, ASCE 7-22 strength-level snow) -------
@@ -77,7 +80,7 @@ class Combination:
     """
 
     name: str
-    factors: dict[str, float]
+    factors: Mapping[str, float]
     source: str = ""
 
     def __post_init__(self) -> None:
@@ -95,8 +98,9 @@ class Combination:
             if not math.isfinite(value):
                 raise ValueError(f"combination {self.name!r}: factor for {key} is not finite")
             clean[key] = float(value)
-        # Defensive copy: a caller's dict is never aliased or modified.
-        object.__setattr__(self, "factors", clean)
+        # Defensive, read-only copy: a caller's dict is never aliased, and a combination
+        # never changes (sign expansions are cached by identity).
+        object.__setattr__(self, "factors", MappingProxyType(clean))
 
 
 @dataclass
@@ -334,19 +338,44 @@ def custom_combinations(spec: list[dict]) -> list[Combination]:
 def expand_signs(
     combinations: list[Combination],
 ) -> tuple[list[str], list[str], np.ndarray]:
-    """Expand W and E into both signs (cached by content; see :func:`_expand_signs`)."""
+    """Expand W and E into both signs (cached; see :func:`_expand_signs`)."""
+    hit = _expanded(combinations)
+    return list(hit.names), list(hit.sources), hit.factors
+
+
+@dataclass(frozen=True)
+class _Expansion:
+    names: tuple[str, ...]
+    sources: tuple[str, ...]
+    factors: np.ndarray  # (m, 7), read-only
+    labels: np.ndarray  # names and a final None (index -1), object dtype
+
+
+def _expanded(combinations: list[Combination]) -> _Expansion:
+    """The sign expansion, cached by the identity of the (immutable) combinations and, for
+    equal combinations built anew, by their content."""
+    ids = tuple(map(id, combinations))
+    held = _BY_IDENTITY.get(ids)
+    if held is not None and all(map(operator.is_, held[0], combinations)):
+        return held[1]
     key = tuple((c.name, tuple(c.factors.items()), c.source) for c in combinations)
     hit = _EXPANDED.get(key)
     if hit is None:
         names, sources, factors = _expand_signs(combinations)
         factors.flags.writeable = False
+        hit = _Expansion(tuple(names), tuple(sources), factors,
+                         np.array([*names, None], dtype=object))
         if len(_EXPANDED) >= 256:
             _EXPANDED.clear()
-        hit = _EXPANDED[key] = (tuple(names), tuple(sources), factors)
-    return list(hit[0]), list(hit[1]), hit[2]
+        _EXPANDED[key] = hit
+    if len(_BY_IDENTITY) >= 256:
+        _BY_IDENTITY.clear()
+    _BY_IDENTITY[ids] = (tuple(combinations), hit)  # holding them keeps their ids unique
+    return hit
 
 
-_EXPANDED: dict[tuple, tuple[tuple[str, ...], tuple[str, ...], np.ndarray]] = {}
+_EXPANDED: dict[tuple, _Expansion] = {}
+_BY_IDENTITY: dict[tuple[int, ...], tuple[tuple[Combination, ...], _Expansion]] = {}
 
 
 def _expand_signs(
@@ -420,17 +449,18 @@ def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
             f"loads must have shape (n, {len(LOAD_TYPES)}) in the order "
             f"{', '.join(LOAD_TYPES)}; got {loads.shape}"
         )
-    if np.isinf(loads).any():
+    if any_set(np.isinf(loads)):
         raise ValueError("loads contain an infinite value")
     if not combinations:
         raise ValueError("no load combinations given")
 
-    names, sources, factors = expand_signs(combinations)
+    expansion = _expanded(combinations)
+    names, sources, factors = list(expansion.names), list(expansion.sources), expansion.factors
     absent = np.isnan(loads)
     no_loads = absent.all(axis=1)
     values = np.where(absent, 0.0, loads) @ factors.T  # (n, 7) @ (7, m) -> (n, m)
 
-    label = np.array([*names, None], dtype=object)  # label[-1] is None
+    label = expansion.labels  # label[-1] is None
 
     top = values.max(axis=1)
     compresses = top > 0.0
@@ -439,7 +469,7 @@ def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
 
     bottom = values.min(axis=1)
     pulls = bottom < 0.0
-    if pulls.any():
+    if any_set(pulls):
         max_tension = np.where(pulls, -bottom, 0.0)
         tension_index = np.where(pulls, _first_extreme(values, bottom, largest=False), -1)
     else:

@@ -10,6 +10,7 @@ from importlib import resources
 import numpy as np
 
 from engine.check import NOT_CHECKED, CheckResults
+from engine.masks import all_set
 from engine.members import MemberTable
 from engine.units import factor, force_factor, length_factor, stress_factor
 
@@ -32,16 +33,16 @@ def _sig_columns(columns: list[np.ndarray], digits: list[int]) -> list[list[floa
     a = np.array(columns, dtype=float).reshape(len(columns), -1)
     d = np.asarray(digits, dtype=float)[:, None]
     finite = np.isfinite(a)
-    every_finite = bool(finite.all())
+    every_finite = all_set(finite)
     nz = (a != 0) if every_finite else finite & (a != 0)
-    every_nz = bool(nz.all())
+    every_nz = all_set(nz)
     safe = a if every_nz else np.where(nz, a, 1.0)
     with np.errstate(over="ignore"):
         exp10 = d - 1.0 - np.floor(np.log10(np.abs(safe)))
         p = 10.0 ** np.abs(exp10)
         # multiply by an exact power of ten, or divide by one: each step exact
         up = exp10 >= 0
-        if up.all():
+        if all_set(up):
             r = np.round(safe * p) / p
         else:
             r = np.where(up, np.round(safe * p) / p, np.round(safe / p) * p)

@@ -1,0 +1,19 @@
+"""Tests on boolean masks, for the small arrays of a single request.
+
+``ndarray.any()`` and ``ndarray.all()`` pass through a Python-level wrapper that costs more
+than the test itself on a few hundred members; ``np.count_nonzero`` does not.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+
+def any_set(mask: np.ndarray) -> bool:
+    """True when any element of the boolean ``mask`` is True."""
+    return bool(np.count_nonzero(mask))
+
+
+def all_set(mask: np.ndarray) -> bool:
+    """True when every element of the boolean ``mask`` is True (also when it is empty)."""
+    return bool(np.count_nonzero(mask) == np.size(mask))
