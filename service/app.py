@@ -66,6 +66,8 @@ def _loc(parts: tuple | list) -> str:
     parts = list(parts)
     if parts and parts[0] in ("body", "query", "path", "header", "form"):
         parts = parts[1:]
+    if parts and parts[-1] == "[key]":  # a mapping key that is not allowed, e.g. a load type
+        parts = parts[:-1]
     return ".".join(str(p) for p in parts) or "request"
 
 

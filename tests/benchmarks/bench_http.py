@@ -268,14 +268,18 @@ def run(url: str, model: Path, args: argparse.Namespace, pid: int) -> None:
     for threads in (1, 4):
         totals = {"health": [0.0, 0.0], "checks": [0.0, 0.0]}
         cpu = {"health": 0.0, "checks": 0.0}
+        per_round: list[float] = []  # checks / health of each adjacent pair of windows
         for _ in range(rounds):
+            pair = {}
             for name, method, path, payload in (("health", "GET", "/v1/health", None),
                                                 ("checks", "POST", "/v1/checks", body)):
                 window = args.seconds / rounds
                 c0 = server_cpu_seconds(pid)
-                totals[name][0] += rate(url, method, path, window, threads, payload) * window
+                pair[name] = rate(url, method, path, window, threads, payload)
+                totals[name][0] += pair[name] * window
                 cpu[name] += server_cpu_seconds(pid) - c0
                 totals[name][1] += window
+            per_round.append(pair["checks"] / pair["health"] if pair["health"] else 0.0)
         health = totals["health"][0] / totals["health"][1]
         checks = totals["checks"][0] / totals["checks"][1]
         # Server CPU per request: what one server process can serve per second, whatever
@@ -286,6 +290,9 @@ def run(url: str, model: Path, args: argparse.Namespace, pid: int) -> None:
                 if threads > 1 else "one sequential client")
         print(f"{threads} client thread(s): /v1/health {health:,.0f} req/s, /v1/checks "
               f"(100 members) {checks:,.0f} req/s, ratio {checks / health:.2f} ({what})")
+        print(f"  ratio per pair of windows: min {min(per_round):.2f}, median "
+              f"{statistics.median(per_round):.2f}, max {max(per_round):.2f} "
+              f"({rounds} pairs)")
         print(f"  server CPU per request: health {1e3 / cap_h:.3f} ms, checks "
               f"{1e3 / cap_c:.3f} ms -> capacity {cap_h:,.0f} vs {cap_c:,.0f} req/s, "
               f"ratio {cap_c / cap_h:.2f}")

@@ -98,6 +98,8 @@ def test_checks_malformed_body_names_the_fields(client: TestClient) -> None:
     ({"members": [MEMBER], "design_method": "XYZ"}, "design_method"),
     ({"members": [MEMBER], "unknown": 1}, "unknown"),
     ({"members": [MEMBER, MEMBER]}, "request"),  # repeated ids: a whole-request rule
+    ({"members": [{**MEMBER, "loads": {"D": 10, "T": 5}}]}, "members.0.loads.T"),  # no type T
+    ({"members": [{**MEMBER, "loads": {"D": "heavy"}}]}, "members.0.loads.D"),
 ])
 def test_checks_refuses_malformed_requests_as_a_whole(client, payload, loc) -> None:
     r = client.post("/v1/checks", json=payload)
@@ -338,5 +340,8 @@ def test_openapi_lists_the_v1_routes(client: TestClient) -> None:
     assert body["schema"] == {"$ref": "#/components/schemas/MembersRequest"}
     schemas = doc["components"]["schemas"]
     assert "members" in schemas["MembersRequest"]["properties"]
-    assert {"Member", "Units", "Loads"} <= set(schemas)  # nested models resolvable
+    assert {"Member", "Units"} <= set(schemas)  # nested models resolvable
+    loads = schemas["Member"]["properties"]["loads"]["anyOf"][0]
+    assert loads["type"] == "object"
+    assert loads["propertyNames"]["enum"] == ["D", "L", "Lr", "S", "R", "W", "E"]  # §2
     assert client.get("/docs").status_code == 200
