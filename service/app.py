@@ -127,7 +127,8 @@ class Guard:
 
     Both are decided before the app reads a byte of the body.  The upload route counts its
     own body (:func:`service.upload.receive_form`); every other route is limited here, by
-    Content-Length up front and by counting what it reads.
+    Content-Length up front, or by counting what it reads when the body is sent without one
+    (chunked).
     """
 
     def __init__(self, app: ASGIApp, settings: Settings) -> None:
@@ -148,8 +149,13 @@ class Guard:
             await self.app(scope, receive, send)
             return
         length = _content_length(scope)
-        if length is not None and length > self.max_bytes:
-            await self._too_large(scope, receive, send)
+        if length is not None:
+            # The declared length frames the body (the HTTP server reads no more), so a
+            # declared body within the limit needs no counting.
+            if length > self.max_bytes:
+                await self._too_large(scope, receive, send)
+            else:
+                await self.app(scope, receive, send)
             return
         seen = 0
         started = False
