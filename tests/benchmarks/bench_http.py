@@ -7,11 +7,13 @@ folder and measures, in the same run on the same server:
    /v1/health`` (target ratio checks/health >= 0.3), with one sequential client and with four
    client threads, and the server's own CPU time per request of each route (read from
    /proc), which gives the server's capacity whatever the client: the Python client on the
-   same two cores limits the observed health rate, so the observed ratios flatter checks;
+   same two cores limits the observed health rate, so the observed ratios flatter checks.
+   The routes alternate in short windows; the ratio of each adjacent pair is printed too
+   (min / median / max), which shows how much other load on the machine moved the numbers;
 2. ``GET /v1/health`` latency p50 / p95 idle, then while a 20,000-column model job runs in its
    worker process (the model is generated here with ifcopenshell.api).
 
-Usage: ``.venv/bin/python tests/benchmarks/bench_http.py [--columns 20000] [--seconds 3]``
+Usage: ``.venv/bin/python tests/benchmarks/bench_http.py [--columns 20000] [--seconds 6]``
 """
 
 from __future__ import annotations
