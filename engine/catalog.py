@@ -333,7 +333,11 @@ def lookup(designations: Sequence[str]) -> np.ndarray:
         int64 array, one entry per designation.
     """
     values = [designations] if isinstance(designations, str) else list(designations)
-    return np.fromiter(map(_row_of, values), dtype=np.int64, count=len(values))
+    try:
+        return np.fromiter(map(_row_of, values), dtype=np.int64, count=len(values))
+    except TypeError:  # an unhashable entry (not a designation): count it as unknown
+        return np.fromiter((_row_of(v) if isinstance(v, str) else -1 for v in values),
+                           dtype=np.int64, count=len(values))
 
 
 @functools.lru_cache(maxsize=8192)

@@ -497,6 +497,7 @@ def test_lookup_unknown_and_odd_input():
     assert idx.dtype == np.int64
     assert idx.tolist() == [w14x48, -1, -1, -1, -1, -1, w14x48]
     assert lookup([]).shape == (0,)
+    assert lookup(["W14X48", ["W14X48"], {}]).tolist() == [w14x48, -1, -1]  # unhashable
 
 
 def test_unknown_section_reason_names_it_and_the_nearest_shapes():
