@@ -66,55 +66,50 @@ class CheckResults:
         return len(self.status)
 
 
-def _all_usable(m: MemberTable) -> bool:
-    """True when no member can fail a test of :func:`_not_checked_reasons` (a few array passes;
-    the usual case, so the ordered tests below run only when something is wrong)."""
-    idx = m.section_index
-    if not all_set(np.equal(m.reason, None)) or any_set(idx < 0):
-        return False
-    if any_set(m.sections.kind.take(idx) == _UNSUPPORTED):
-        return False
-    given = ~np.isnan(m.required_strength)
-    positive = np.stack([m.Fy, m.lx, m.ly, m.lz, m.kx, m.ky, m.kz, m.E, m.G]) > 0  # NaN: False
-    return (all_set(positive) and not any_set(m.required_strength < 0)
-            and not any_set(np.isnan(m.loads).all(axis=1) & ~given))
+#: Why a member cannot be checked, in the order the tests apply (a member gets the first that
+#: applies); :func:`_not_checked_reasons` builds one mask row per entry, in this order.
+_REASONS = (
+    "no usable section",
+    "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)",
+    "no yield strength", "yield strength must be greater than zero",
+    "no length", "length must be greater than zero",
+    "no unbraced length y", "unbraced length y must be greater than zero",
+    "no unbraced length z", "unbraced length z must be greater than zero",
+    "effective length factor kx must be greater than zero",
+    "effective length factor ky must be greater than zero",
+    "effective length factor kz must be greater than zero",
+    "E and G must be greater than zero",
+    "no loads",
+    "required strength must be compression (zero or positive)",
+)
+_REASON_TEXTS = np.array(_REASONS, dtype=object)
 
 
 def _not_checked_reasons(m: MemberTable) -> np.ndarray:
-    """The first reason each member cannot be checked, or None (vectorized tests)."""
-    n = len(m)
-    reason = m.reason.copy()
-    if _all_usable(m):
-        return reason
-    idx = m.section_index
-    has_section = idx >= 0
-    kind = np.full(n, -1)
-    kind[has_section] = m.sections.kind[idx[has_section]]
+    """The first reason each member cannot be checked, or None.
 
+    One boolean row per entry of :data:`_REASONS`, filled by a few passes over stacked
+    columns (as cheap for a small request as for a large one).
+    """
+    reason = m.reason.copy()
+    idx = m.section_index
+    masks = np.empty((len(_REASONS), len(m)), dtype=bool)
+    np.less(idx, 0, out=masks[0])
+    kind = (m.sections.kind.take(np.where(masks[0], 0, idx)) if len(m.sections)
+            else np.full(len(m), -1))
+    np.equal(kind, _UNSUPPORTED, out=masks[1])
+    masks[1] &= ~masks[0]
     with np.errstate(invalid="ignore"):
-        tests = [  # (mask, reason) in order: a member gets the first that applies
-            (~has_section, "no usable section"),
-            (kind == Kind.UNSUPPORTED,
-             "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)"),
-            (np.isnan(m.Fy), "no yield strength"),
-            (m.Fy <= 0, "yield strength must be greater than zero"),
-        ]
-        for label, arr in (("length", m.lx), ("unbraced length y", m.ly),
-                           ("unbraced length z", m.lz)):
-            tests += [(np.isnan(arr), f"no {label}"),
-                      (arr <= 0, f"{label} must be greater than zero")]
-        for label, arr in (("kx", m.kx), ("ky", m.ky), ("kz", m.kz)):
-            tests.append((~(arr > 0), f"effective length factor {label} must be greater than zero"))
-        tests += [
-            (~(m.E > 0) | ~(m.G > 0), "E and G must be greater than zero"),
-            (np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength), "no loads"),
-            (m.required_strength < 0, "required strength must be compression (zero or positive)"),
-        ]
-    masks = np.stack([t[0] for t in tests])
+        numbers = np.stack([m.Fy, m.lx, m.ly, m.lz])  # rows 2-9: "no X", "X must be > 0"
+        np.isnan(numbers, out=masks[2:10:2])
+        np.less_equal(numbers, 0, out=masks[3:10:2])
+        np.logical_not(np.stack([m.kx, m.ky, m.kz]) > 0, out=masks[10:13])
+        masks[13] = ~(m.E > 0) | ~(m.G > 0)
+        masks[14] = np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength)
+        np.less(m.required_strength, 0, out=masks[15])
     hit = masks.any(axis=0) & np.equal(reason, None)
-    if hit.any():
-        texts = np.array([t[1] for t in tests], dtype=object)
-        reason[hit] = texts[masks.argmax(axis=0)[hit]]
+    if any_set(hit):
+        reason[hit] = _REASON_TEXTS[masks.argmax(axis=0)[hit]]
     return reason
 
 
