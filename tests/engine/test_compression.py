@@ -253,3 +253,22 @@ def test_capacity_never_increases_with_length_nor_exceeds_squash_load(i, L1, dL,
         return
     assert b.Pn[0] <= a.Pn[0] * (1 + 1e-9)
     assert a.Pn[0] <= Fy * sec.A[0] * (1 + 1e-9)
+
+
+def test_several_blocks_give_the_same_results_as_one(monkeypatch) -> None:
+    # Consistency of the blocked evaluation (common practice, no source): the same members
+    # computed in blocks of 97 and in one block agree field by field.
+    import engine.compression as ce
+
+    cat = catalog.load_catalog()
+    keep = np.flatnonzero(cat.kind != Kind.UNSUPPORTED)
+    rng = np.random.default_rng(3)
+    idx = rng.choice(keep, 1000)
+    Fy = rng.uniform(36, 70, 1000)
+    Lx, Ly, Lz = (rng.uniform(0, 40 * FT, 1000) for _ in range(3))
+    one = compressive_strength(cat, Fy, Lx, Ly, Lz, index=idx)
+    monkeypatch.setattr(ce, "CHUNK", 97)
+    blocks = compressive_strength(cat, Fy, Lx, Ly, Lz, index=idx)
+    for name in ("Pn", "Fcr", "Fe", "Ae", "Ag", "slenderness", "limit_state", "slender",
+                 "in_scope"):
+        np.testing.assert_array_equal(getattr(blocks, name), getattr(one, name), err_msg=name)
