@@ -196,13 +196,18 @@ class Guard:
 
 
 def _content_length(scope: Scope) -> int | None:
+    """The declared body length; None when there is none, it is not a number, or the body is
+    also declared chunked (then the length does not frame it)."""
+    length = None
     for name, value in scope.get("headers", []):
+        if name == b"transfer-encoding":
+            return None
         if name == b"content-length":
             try:
-                return int(value)
+                length = int(value)
             except ValueError:
                 return None
-    return None
+    return length
 
 
 # ------------------------------------------------------------------------------ app

@@ -241,6 +241,55 @@ def test_upload_limit_while_streaming_without_content_length(tmp_path: Path) -> 
         assert list((tmp_path / "data" / "jobs").iterdir()) == []
 
 
+def test_checks_body_limit_without_content_length(tmp_path: Path) -> None:
+    def body():  # chunked: the limit is counted while reading
+        yield b'{"members": ['
+        for i in range(50):
+            yield (b'{"id": "C%d", "section": "W14X48", "fy": 50, "length": 16},' % i)
+        yield b'{"id": "last"}]}'
+
+    with _client(tmp_path, max_upload_mb=0.001) as c:  # 1,048 bytes
+        r = c.post("/v1/checks", content=body(), headers={"content-type": "application/json"})
+        assert r.status_code == 413
+
+
+@pytest.mark.parametrize("declared", [b"100", None])
+def test_guard_counts_a_chunked_body_whatever_length_it_declares(tmp_path, declared) -> None:
+    # A body sent chunked is not framed by a Content-Length it also declares (RFC 9112
+    # §6.3): the guard counts what is read.
+    import asyncio
+
+    settings = Settings(data_dir=tmp_path / "data", max_upload_mb=0.001)
+    read: list[int] = []
+
+    async def inner(scope, receive, send) -> None:
+        while True:
+            message = await receive()
+            read.append(len(message.get("body", b"")))
+            if not message.get("more_body"):
+                break
+        await send({"type": "http.response.start", "status": 200, "headers": []})
+        await send({"type": "http.response.body", "body": b"ok"})
+
+    chunks = [{"type": "http.request", "body": b"x" * 600, "more_body": True}] * 3 + [
+        {"type": "http.request", "body": b"", "more_body": False}]
+    sent: list[dict] = []
+
+    async def receive() -> dict:
+        return chunks.pop(0)
+
+    async def send(message: dict) -> None:
+        sent.append(message)
+
+    headers = [(b"transfer-encoding", b"chunked")]
+    if declared is not None:
+        headers.append((b"content-length", declared))
+    scope = {"type": "http", "path": "/v1/checks", "method": "POST", "headers": headers}
+    asyncio.run(app_mod.Guard(inner, settings)(scope, receive, send))
+    assert sent[0]["status"] == 413
+    assert sum(read) <= 2 * 600  # stopped once past the 1,048-byte limit
+
+
 def test_checks_body_limit(tmp_path: Path) -> None:
     with _client(tmp_path, max_upload_mb=0.001) as c:  # 1,048 bytes
         many = {"members": [{**MEMBER, "id": f"C{i}"} for i in range(50)]}
