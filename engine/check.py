@@ -71,18 +71,29 @@ class CheckResults:
 _REASONS = (
     "no usable section",
     "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)",
-    "no yield strength", "yield strength must be greater than zero",
-    "no length", "length must be greater than zero",
-    "no unbraced length y", "unbraced length y must be greater than zero",
-    "no unbraced length z", "unbraced length z must be greater than zero",
-    "effective length factor kx must be greater than zero",
-    "effective length factor ky must be greater than zero",
-    "effective length factor kz must be greater than zero",
-    "E and G must be greater than zero",
+    "no yield strength", "yield strength must be a finite number greater than zero",
+    "no length", "length must be a finite number greater than zero",
+    "no unbraced length y", "unbraced length y must be a finite number greater than zero",
+    "no unbraced length z", "unbraced length z must be a finite number greater than zero",
+    "effective length factor kx must be a finite number greater than zero",
+    "effective length factor ky must be a finite number greater than zero",
+    "effective length factor kz must be a finite number greater than zero",
+    "E and G must be finite numbers greater than zero",
     "no loads",
+    "loads and required strength must be finite numbers",
     "required strength must be compression (zero or positive)",
 )
 _REASON_TEXTS = np.array(_REASONS, dtype=object)
+
+
+def _finite_positive(a: np.ndarray) -> np.ndarray:
+    """True where ``a`` is a finite number greater than zero (NaN: False)."""
+    return (a > 0) & (a < np.inf)
+
+
+def _infinite_demand(m: MemberTable) -> np.ndarray:
+    """True for members with an infinite load or required strength."""
+    return np.isinf(m.loads).any(axis=1) | np.isinf(m.required_strength)
 
 
 def _not_checked_reasons(m: MemberTable) -> np.ndarray:
@@ -100,13 +111,14 @@ def _not_checked_reasons(m: MemberTable) -> np.ndarray:
     np.equal(kind, _UNSUPPORTED, out=masks[1])
     masks[1] &= ~masks[0]
     with np.errstate(invalid="ignore"):
-        numbers = np.stack([m.Fy, m.lx, m.ly, m.lz])  # rows 2-9: "no X", "X must be > 0"
+        numbers = np.stack([m.Fy, m.lx, m.ly, m.lz])  # rows 2-9: "no X", "X must be ..."
         np.isnan(numbers, out=masks[2:10:2])
-        np.less_equal(numbers, 0, out=masks[3:10:2])
-        np.logical_not(np.stack([m.kx, m.ky, m.kz]) > 0, out=masks[10:13])
-        masks[13] = ~(m.E > 0) | ~(m.G > 0)
+        masks[3:10:2] = ~_finite_positive(numbers)
+        masks[10:13] = ~_finite_positive(np.stack([m.kx, m.ky, m.kz]))
+        masks[13] = ~_finite_positive(m.E) | ~_finite_positive(m.G)
         masks[14] = np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength)
-        np.less(m.required_strength, 0, out=masks[15])
+        masks[15] = _infinite_demand(m)
+        np.less(m.required_strength, 0, out=masks[16])
     hit = masks.any(axis=0) & np.equal(reason, None)
     if any_set(hit):
         reason[hit] = _REASON_TEXTS[masks.argmax(axis=0)[hit]]
@@ -168,7 +180,11 @@ def check_members(
     # option.
     combos = combinations if combinations is not None else default_combinations(
         method, half_live=half_live and method == "LRFD")
-    gov = governing(m.loads, combos)
+    loads = m.loads
+    unknown_demand = _infinite_demand(m)  # such members are not checked (see _REASONS)
+    if any_set(unknown_demand):
+        loads = np.where(np.isinf(loads), np.nan, loads)
+    gov = governing(loads, combos)
     given = ~np.isnan(m.required_strength)
     any_given = any_set(given)
     required = np.where(given, m.required_strength, gov.required) if any_given else gov.required
@@ -188,7 +204,7 @@ def check_members(
         # member whose own section is unusable); everything capacity-related is blanked.
         for arr in (Pa, utilization, slenderness, Fcr_, Ae):
             arr[bad] = np.nan
-        required[bad & gov.no_loads & ~given] = np.nan
+        required[bad & ((gov.no_loads & ~given) | unknown_demand)] = np.nan
         limit_state = np.where(ok, limit_state, "").astype(object)
         combination[bad] = ""
 

@@ -45,20 +45,32 @@ def _bad(column: str, value: float, n: int = 3) -> dict:
 @pytest.mark.parametrize(("columns", "reason"), [
     ({"section_index": np.array([0, -1, 0])}, "no usable section"),
     (_bad("Fy", np.nan), "no yield strength"),
-    (_bad("Fy", 0.0), "yield strength must be greater than zero"),
+    (_bad("Fy", 0.0), "yield strength must be a finite number greater than zero"),
     (_bad("lx", np.nan), "no length"),
-    (_bad("lx", -1.0), "length must be greater than zero"),
+    (_bad("lx", -1.0), "length must be a finite number greater than zero"),
     (_bad("ly", np.nan), "no unbraced length y"),
-    (_bad("lz", 0.0), "unbraced length z must be greater than zero"),
-    (_bad("kx", 0.0), "effective length factor kx must be greater than zero"),
-    (_bad("ky", np.nan), "effective length factor ky must be greater than zero"),
-    (_bad("kz", -0.5), "effective length factor kz must be greater than zero"),
-    ({"E": np.array([29000.0, 0.0, 29000.0])}, "E and G must be greater than zero"),
-    ({"G": np.array([11200.0, np.nan, 11200.0])}, "E and G must be greater than zero"),
+    (_bad("lz", 0.0), "unbraced length z must be a finite number greater than zero"),
+    (_bad("kx", 0.0), "effective length factor kx must be a finite number greater than zero"),
+    (_bad("ky", np.nan), "effective length factor ky must be a finite number greater than zero"),
+    (_bad("kz", -0.5), "effective length factor kz must be a finite number greater than zero"),
+    ({"E": np.array([29000.0, 0.0, 29000.0])}, "E and G must be finite numbers greater than zero"),
+    ({"G": np.array([11200.0, np.nan, 11200.0])},
+     "E and G must be finite numbers greater than zero"),
     ({"loads": np.array([[95.0, *[np.nan] * 6], [np.nan] * 7, [95.0, *[np.nan] * 6]])},
      "no loads"),
     ({"required_strength": np.array([np.nan, -5.0, np.nan])},
      "required strength must be compression (zero or positive)"),
+    # Infinite numbers (a JSON 1e400, an IFC real out of range) never check as "pass":
+    (_bad("Fy", np.inf), "yield strength must be a finite number greater than zero"),
+    (_bad("lx", np.inf), "length must be a finite number greater than zero"),
+    (_bad("ky", np.inf), "effective length factor ky must be a finite number greater than zero"),
+    ({"E": np.array([29000.0, np.inf, 29000.0])},
+     "E and G must be finite numbers greater than zero"),
+    ({"loads": np.array([[95.0, *[np.nan] * 6], [np.inf, *[np.nan] * 6],
+                         [95.0, *[np.nan] * 6]])},
+     "loads and required strength must be finite numbers"),
+    ({"required_strength": np.array([np.nan, np.inf, np.nan])},
+     "loads and required strength must be finite numbers"),
 ])
 def test_each_reason_makes_only_its_member_not_checked(columns: dict, reason: str) -> None:
     # The reasons and their order are ours (common practice, no source); a member with
@@ -71,6 +83,8 @@ def test_each_reason_makes_only_its_member_not_checked(columns: dict, reason: st
     assert r.reason.tolist() == [None, reason, None]
     assert reason in _REASONS
     assert np.isnan(r.available_strength[1]) and np.isnan(r.utilization[1])
+    if "finite numbers" in reason and "E and G" not in reason:
+        assert np.isnan(r.required_strength[1])  # no partial demand for suggestions
 
 
 def test_angles_are_out_of_scope() -> None:
