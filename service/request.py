@@ -16,7 +16,8 @@ ProfileShape = Literal["I", "RECT_HOLLOW", "CIRC_HOLLOW", "T", "U", "RECT", "CIR
 
 
 class _Strict(BaseModel):
-    model_config = ConfigDict(extra="forbid")
+    # Unknown fields are refused; so are NaN and infinite numbers (a JSON 1e400 is infinite).
+    model_config = ConfigDict(extra="forbid", allow_inf_nan=False)
 
 
 class Units(_Strict):

@@ -107,6 +107,18 @@ def test_checks_refuses_malformed_requests_as_a_whole(client, payload, loc) -> N
     assert loc in [d["loc"] for d in r.json()["details"]]
 
 
+@pytest.mark.parametrize(("text", "loc"), [
+    ('"fy": 1e400', "members.0.fy"),  # parses as infinity
+    ('"loads": {"D": 1e400}', "members.0.loads.D"),
+    ('"loads": {"D": "NaN"}', "members.0.loads.D"),
+])
+def test_checks_refuses_numbers_that_are_not_finite(client, text, loc) -> None:
+    body = '{"members": [{"id": "C-1", "section": "W14X48", "length": 16, ' + text + "}]}"
+    r = client.post("/v1/checks", content=body, headers={"content-type": "application/json"})
+    assert r.status_code == 422
+    assert r.json()["details"] == [{"loc": loc, "msg": "Input should be a finite number"}]
+
+
 def test_checks_not_json(client: TestClient) -> None:
     r = client.post("/v1/checks", content=b"{members: oops",
                     headers={"content-type": "application/json"})
