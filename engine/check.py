@@ -16,7 +16,7 @@ from engine.compression import (
     available_strength,
     compressive_strength,
 )
-from engine.masks import all_set, any_set
+from engine.masks import all_set, any_set, finite_positive
 from engine.members import MemberTable
 from engine.sections import Kind
 
@@ -86,11 +86,6 @@ _REASONS = (
 _REASON_TEXTS = np.array(_REASONS, dtype=object)
 
 
-def _finite_positive(a: np.ndarray) -> np.ndarray:
-    """True where ``a`` is a finite number greater than zero (NaN: False)."""
-    return (a > 0) & (a < np.inf)
-
-
 def _infinite_demand(m: MemberTable) -> np.ndarray:
     """True for members with an infinite load or required strength."""
     return np.isinf(m.loads).any(axis=1) | np.isinf(m.required_strength)
@@ -113,9 +108,9 @@ def _not_checked_reasons(m: MemberTable) -> np.ndarray:
     with np.errstate(invalid="ignore"):
         numbers = np.stack([m.Fy, m.lx, m.ly, m.lz])  # rows 2-9: "no X", "X must be ..."
         np.isnan(numbers, out=masks[2:10:2])
-        masks[3:10:2] = ~_finite_positive(numbers)
-        masks[10:13] = ~_finite_positive(np.stack([m.kx, m.ky, m.kz]))
-        masks[13] = ~_finite_positive(m.E) | ~_finite_positive(m.G)
+        masks[3:10:2] = ~finite_positive(numbers)
+        masks[10:13] = ~finite_positive(np.stack([m.kx, m.ky, m.kz]))
+        masks[13] = ~finite_positive(m.E) | ~finite_positive(m.G)
         masks[14] = np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength)
         masks[15] = _infinite_demand(m)
         np.less(m.required_strength, 0, out=masks[16])

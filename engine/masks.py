@@ -17,3 +17,8 @@ def any_set(mask: np.ndarray) -> bool:
 def all_set(mask: np.ndarray) -> bool:
     """True when every element of the boolean ``mask`` is True (also when it is empty)."""
     return bool(np.count_nonzero(mask) == np.size(mask))
+
+
+def finite_positive(a: np.ndarray) -> np.ndarray:
+    """True where ``a`` is a finite number greater than zero (NaN and infinity: False)."""
+    return (a > 0) & (a < np.inf)

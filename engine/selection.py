@@ -13,6 +13,7 @@ import numpy as np
 
 from engine import catalog
 from engine.compression import available_strength, compressive_strength
+from engine.masks import finite_positive
 from engine.sections import Kind, SectionTable
 
 DEFAULT_MAX_SUGGESTIONS = 5
@@ -166,8 +167,9 @@ def suggest_for_members(
     # A member whose demand, yield stress or lengths are unknown gets no suggestion: never a
     # section chosen for a length or grade the member was not checked at.
     with np.errstate(invalid="ignore"):
-        usable = (np.isfinite(required) & (m.Fy > 0) & (Lcx > 0) & (Lcy > 0) & (Lcz > 0)
-                  & (m.E > 0) & (m.G > 0))
+        usable = (np.isfinite(required) & finite_positive(m.Fy) & finite_positive(Lcx)
+                  & finite_positive(Lcy) & finite_positive(Lcz) & finite_positive(m.E)
+                  & finite_positive(m.G))
     rows = np.flatnonzero(asked & usable)
     skipped = np.flatnonzero(asked & ~usable)
     if len(rows) == 0:

@@ -92,3 +92,22 @@ def test_max_suggestions_and_vectorized_members_agree_with_single_calls() -> Non
 def test_unknown_candidate_is_refused_with_its_name() -> None:
     with pytest.raises(ValueError, match="W13"):
         candidate_indices(["W13"])
+
+
+@pytest.mark.parametrize("column", ["Fy", "lx", "kz", "E"])
+def test_members_with_infinite_data_get_no_suggestion(column: str) -> None:
+    # Never a section chosen for a grade, length or modulus the member was not checked at
+    # (common practice, no source): an infinite Fy would pick the lightest shape.
+    from engine.members import MemberTable
+    from engine.selection import suggest_for_members
+
+    values = dict(Fy=np.full(2, 50.0), length=np.full(2, 16 * FT))
+    if column in ("Fy", "lx"):
+        values[column] = np.array([50.0 if column == "Fy" else 16 * FT, np.inf])
+    else:
+        values[column] = np.array([1.0 if column == "kz" else 29000.0, np.inf])
+    m = MemberTable.build(ids=["A", "B"], sections=catalog.load_catalog(),
+                          section_index=catalog.lookup(["W12X45", "W12X45"]), **values)
+    sug, rows, skipped = suggest_for_members(m, np.array([295.0, 295.0]), [["W14"], ["W14"]])
+    assert rows.tolist() == [0] and skipped.tolist() == [1]
+    assert sug.for_member(0, catalog.load_catalog())[0]["section"] == "W14X48"  # Table 4-1a
