@@ -37,7 +37,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from engine.sections import ElementClass, Kind, SectionTable
+from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 CATALOG_PATH = Path(__file__).resolve().parent / "data" / "aisc_shapes_v16.csv"
 

@@ -10,15 +10,15 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine.combinations import Combination, default_combinations, governing
-from engine.compression import (
+from stanchion.engine.combinations import Combination, default_combinations, governing
+from stanchion.engine.compression import (
     SLENDERNESS_ADVISORY,
     available_strength,
     compressive_strength,
 )
-from engine.masks import all_set, any_set, finite_positive
-from engine.members import MemberTable
-from engine.sections import Kind
+from stanchion.engine.masks import all_set, any_set, finite_positive
+from stanchion.engine.members import MemberTable
+from stanchion.engine.sections import Kind
 
 PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
 GIVEN_REQUIRED = "required strength as given"

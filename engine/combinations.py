@@ -49,8 +49,8 @@ from types import MappingProxyType
 
 import numpy as np
 
-from engine.masks import any_set
-from engine.members import LOAD_TYPES, REVERSIBLE
+from stanchion.engine.masks import any_set
+from stanchion.engine.members import LOAD_TYPES, REVERSIBLE
 
 # --- Snow factors (see module docstring: from memory, ASCE 7-22 strength-level snow) -------
 _SNOW_LRFD_PRINCIPAL = 1.0  # ASCE 7-22 §2.3.1 combination 3 (7-16: 1.6S)

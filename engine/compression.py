@@ -22,7 +22,7 @@ from enum import IntEnum
 
 import numpy as np
 
-from engine.sections import Kind, SectionTable, class_coefficients
+from stanchion.engine.sections import Kind, SectionTable, class_coefficients
 
 PHI_C = 0.90  # AISC 360-22 E1, LRFD resistance factor for compression
 OMEGA_C = 1.67  # AISC 360-22 E1, ASD safety factor for compression

@@ -11,7 +11,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine.sections import SectionTable
+from stanchion.engine.sections import SectionTable
 
 # Order of the load-type columns of MemberTable.loads (design.md §2).  W and E are reversible.
 LOAD_TYPES: tuple[str, ...] = ("D", "L", "Lr", "S", "R", "W", "E")

@@ -38,8 +38,8 @@ from collections.abc import Callable
 import numpy as np
 from numpy.typing import ArrayLike
 
-from engine.compression import H_flexural_constant, ro_bar_squared
-from engine.sections import ElementClass, Kind, SectionTable
+from stanchion.engine.compression import H_flexural_constant, ro_bar_squared
+from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 #: Weight per unit area, lb/ft per in² (490 lb/ft³ steel / 144; common practice).
 WEIGHT_PER_AREA = 3.40

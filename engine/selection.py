@@ -11,10 +11,10 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from engine import catalog
-from engine.compression import available_strength, compressive_strength
-from engine.masks import finite_positive
-from engine.sections import Kind, SectionTable
+from stanchion.engine import catalog
+from stanchion.engine.compression import available_strength, compressive_strength
+from stanchion.engine.masks import finite_positive
+from stanchion.engine.sections import Kind, SectionTable
 
 DEFAULT_MAX_SUGGESTIONS = 5
 

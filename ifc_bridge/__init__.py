@@ -2,8 +2,8 @@
 
 Reading (ifcopenshell 0.9, no geometry tessellation)::
 
-    from ifc_bridge.model import ModelReadError, open_model
-    from ifc_bridge.read import read_columns
+    from stanchion.ifc_bridge.model import ModelReadError, open_model
+    from stanchion.ifc_bridge.read import read_columns
 
     model = open_model("building.ifc")          # ModelReadError: one line, CLI exit 2
     result = read_columns(model, include_members=False, loads_table="loads.csv")

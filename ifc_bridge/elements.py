@@ -18,8 +18,8 @@ import math
 import ifcopenshell
 import ifcopenshell.util.placement
 
-from ifc_bridge.access import get
-from ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.access import get
+from stanchion.ifc_bridge.relations import RelationIndex
 
 Entity = ifcopenshell.entity_instance
 

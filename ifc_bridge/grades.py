@@ -20,7 +20,7 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
-from engine.units import factor
+from stanchion.engine.units import factor
 
 _GR = r"(?:[\s\-/.]*(?:GR(?:ADE)?)?[\s.\-]*)"
 

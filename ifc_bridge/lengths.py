@@ -21,7 +21,7 @@ import math
 
 import ifcopenshell
 
-from ifc_bridge.representation import ShapeInfo, distance
+from stanchion.ifc_bridge.representation import ShapeInfo, distance
 
 Entity = ifcopenshell.entity_instance
 

@@ -52,9 +52,9 @@ from dataclasses import dataclass, field
 
 import ifcopenshell
 
-from engine.members import REVERSIBLE
-from ifc_bridge.relations import RelationIndex
-from ifc_bridge.units import ModelUnits
+from stanchion.engine.members import REVERSIBLE
+from stanchion.ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.units import ModelUnits
 
 Entity = ifcopenshell.entity_instance
 

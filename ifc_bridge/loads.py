@@ -33,10 +33,10 @@ from pathlib import Path
 import pandas as pd
 import pint
 
-from engine.members import LOAD_TYPES
-from engine.units import FORCE_UNITS, factor
-from ifc_bridge.model import ModelReadError
-from ifc_bridge.units import ModelUnits
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.engine.units import FORCE_UNITS, factor
+from stanchion.ifc_bridge.model import ModelReadError
+from stanchion.ifc_bridge.units import ModelUnits
 
 SOURCES: tuple[str, ...] = ("analysis", "table", "pset")
 CONFLICT = 0.005  # relative difference reported as a conflict

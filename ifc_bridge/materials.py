@@ -25,9 +25,9 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element
 
-from ifc_bridge.properties import PropertyValue, to_internal
-from ifc_bridge.relations import RelationIndex
-from ifc_bridge.units import ModelUnits
+from stanchion.ifc_bridge.properties import PropertyValue, to_internal
+from stanchion.ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.units import ModelUnits
 
 Entity = ifcopenshell.entity_instance
 

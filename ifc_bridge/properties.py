@@ -27,9 +27,9 @@ from dataclasses import dataclass, field
 
 import ifcopenshell
 
-from engine.members import LOAD_TYPES
-from ifc_bridge.access import get, get_opt
-from ifc_bridge.units import ModelUnits
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.ifc_bridge.access import get, get_opt
+from stanchion.ifc_bridge.units import ModelUnits
 
 Entity = ifcopenshell.entity_instance
 

@@ -28,17 +28,17 @@ import ifcopenshell
 import ifcopenshell.util.placement
 import numpy as np
 
-from engine.members import LOAD_TYPES, MemberTable
-from engine.sections import SectionTable
-from ifc_bridge.access import get
-from ifc_bridge.elements import PlanPositions, select_elements
-from ifc_bridge.grades import match_grade
-from ifc_bridge.lengths import analytical_length, choose_length
-from ifc_bridge.load_cases import AnalysisLoads
-from ifc_bridge.loads import match_table, merge_loads, read_load_table
-from ifc_bridge.materials import MaterialInfo, YieldReader, element_material
-from ifc_bridge.profiles import ProfileSpec, profile_spec
-from ifc_bridge.properties import (
+from stanchion.engine.members import LOAD_TYPES, MemberTable
+from stanchion.engine.sections import SectionTable
+from stanchion.ifc_bridge.access import get
+from stanchion.ifc_bridge.elements import PlanPositions, select_elements
+from stanchion.ifc_bridge.grades import match_grade
+from stanchion.ifc_bridge.lengths import analytical_length, choose_length
+from stanchion.ifc_bridge.load_cases import AnalysisLoads
+from stanchion.ifc_bridge.loads import match_table, merge_loads, read_load_table
+from stanchion.ifc_bridge.materials import MaterialInfo, YieldReader, element_material
+from stanchion.ifc_bridge.profiles import ProfileSpec, profile_spec
+from stanchion.ifc_bridge.properties import (
     AXES,
     DESIGN_PSET,
     LOADS_PSET,
@@ -50,10 +50,10 @@ from ifc_bridge.properties import (
     quantity_length,
     single_values,
 )
-from ifc_bridge.relations import RelationIndex
-from ifc_bridge.representation import ShapeInfo, ShapeReader
-from ifc_bridge.sections import SectionRequest, resolve_sections
-from ifc_bridge.units import ModelUnits, read_units
+from stanchion.ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.representation import ShapeInfo, ShapeReader
+from stanchion.ifc_bridge.sections import SectionRequest, resolve_sections
+from stanchion.ifc_bridge.units import ModelUnits, read_units
 
 Entity = ifcopenshell.entity_instance
 

@@ -12,7 +12,7 @@ from dataclasses import dataclass, field
 
 import ifcopenshell
 
-from ifc_bridge.access import get
+from stanchion.ifc_bridge.access import get
 
 Entity = ifcopenshell.entity_instance
 

@@ -19,7 +19,7 @@ from dataclasses import dataclass
 
 import ifcopenshell
 
-from ifc_bridge.access import get
+from stanchion.ifc_bridge.access import get
 
 Entity = ifcopenshell.entity_instance
 

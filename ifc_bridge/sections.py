@@ -27,10 +27,10 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
-from engine import section_properties as sp
-from engine.catalog import load_catalog, lookup, unknown_section_reason
-from engine.sections import Kind, SectionTable
-from ifc_bridge.profiles import ProfileSpec
+from stanchion.engine import section_properties as sp
+from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
+from stanchion.engine.sections import Kind, SectionTable
+from stanchion.ifc_bridge.profiles import ProfileSpec
 
 AGREE = 0.02
 HSS_DESIGN_RATIO = 0.93  # AISC 360-22 B4.2: tdes = 0.93 tnom for ERW HSS

@@ -23,7 +23,7 @@ from dataclasses import dataclass, field
 import ifcopenshell
 import ifcopenshell.util.unit
 
-from engine.units import factor
+from stanchion.engine.units import factor
 
 #: Quantity -> (IFC unit type, SI unit in pint spelling, internal unit in pint spelling).
 QUANTITIES: dict[str, tuple[str, str, str]] = {

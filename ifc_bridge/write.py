@@ -35,16 +35,17 @@ import ifcopenshell.guid
 import ifcopenshell.util.unit
 import numpy as np
 
-from engine.check import FAIL, NOT_CHECKED, PASS, CheckResults
-from engine.members import MemberTable
-from engine.units import factor
-from ifc_bridge.units import si_scale
+from stanchion import __version__
+from stanchion.engine.check import FAIL, NOT_CHECKED, PASS, CheckResults
+from stanchion.engine.members import MemberTable
+from stanchion.engine.units import factor
+from stanchion.ifc_bridge.units import si_scale
 
 PSET_NAME = "Stanchion_ColumnCheck"
 STATUS_LABELS = {PASS: "PASS", FAIL: "FAIL", NOT_CHECKED: "NOT CHECKED"}
 APPLICATION_ID = "stanchion"
 APPLICATION_NAME = "stanchion column checks"
-APPLICATION_VERSION = "0.1.0"
+APPLICATION_VERSION = __version__
 #: Reason written on a column of the model that is missing from the checked member table.
 NOT_IN_TABLE = "column was not read as a member; see the reader's messages"
 #: IfcLabel is STRING(255) in IFC4 and IFC4X3.

@@ -50,7 +50,6 @@ HERE = Path(__file__).resolve().parent
 if str(HERE.parent) not in sys.path:  # run as a script from a checkout
     sys.path.insert(0, str(HERE.parent))
 
-from engine.units import factor  # noqa: E402
 from sample_models.ifc_parts import (  # noqa: E402
     analysis_model,
     api,
@@ -63,6 +62,7 @@ from sample_models.ifc_parts import (  # noqa: E402
     grid,
     spatial,
 )
+from stanchion.engine.units import factor  # noqa: E402
 
 SEED = 360_22  # any fixed number; the samples depend on it
 WORKSHOP = "workshop_annex.ifc"
@@ -363,7 +363,7 @@ def write_samples(out_dir: Path) -> list[Path]:
 
 def summarize(folder: Path) -> dict:
     """Check both samples with the real check and keep what the tests compare."""
-    from service.model_check import check_model
+    from stanchion.service.model_check import check_model
 
     out = {}
     for model_name, table in ((WORKSHOP, None), (PAVILION, PAVILION_LOADS)):

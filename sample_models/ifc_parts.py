@@ -26,7 +26,7 @@ import ifcopenshell.api.type
 import ifcopenshell.guid
 import numpy as np
 
-from engine.catalog import catalog_frame
+from stanchion.engine.catalog import catalog_frame
 
 #: Fixed time of every owner history and of the file headers (2024-01-01 00:00 UTC).
 FIXED_EPOCH = 1_704_067_200

@@ -34,17 +34,18 @@ from pydantic import ValidationError
 from starlette.exceptions import HTTPException
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
-from service import jobs as jobs_mod
-from service.core import check_request
-from service.errors import InputError
-from service.jobs import Job, JobRunner, JobStore
-from service.request import MembersRequest
-from service.settings import Settings, get_settings
-from service.upload import UploadError, UploadTooLarge, boundary_of, receive_form
+from stanchion import __version__
+from stanchion.service import jobs as jobs_mod
+from stanchion.service.core import check_request
+from stanchion.service.errors import InputError
+from stanchion.service.jobs import Job, JobRunner, JobStore
+from stanchion.service.request import MembersRequest
+from stanchion.service.settings import Settings, get_settings
+from stanchion.service.upload import UploadError, UploadTooLarge, boundary_of, receive_form
 
 log = logging.getLogger("stanchion.http")
 
-API_VERSION = "0.1.0"
+API_VERSION = __version__
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 HEALTH_PATH = "/v1/health"
 UPLOAD_PATH = "/v1/models"
@@ -274,8 +275,8 @@ def _warm_up() -> None:
     often (:data:`GC_YOUNG_THRESHOLD`), so requests do not pay for either."""
     import gc
 
-    from engine import catalog
-    from engine.combinations import default_combinations
+    from stanchion.engine import catalog
+    from stanchion.engine.combinations import default_combinations
 
     catalog.load_catalog()
     catalog.designations()
@@ -531,8 +532,8 @@ def list_sections(family: str | None) -> dict:
     """
     import numpy as np
 
-    from engine import catalog
-    from engine.sections import Kind
+    from stanchion.engine import catalog
+    from stanchion.engine.sections import Kind
 
     table = catalog.load_catalog()
     if family is None:

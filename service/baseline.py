@@ -18,7 +18,7 @@ from __future__ import annotations
 import json
 from pathlib import Path
 
-from service.errors import InputError
+from stanchion.service.errors import InputError
 
 STATUSES = ("pass", "fail", "not_checked")
 DEFAULT_THRESHOLD = 0.05

@@ -11,9 +11,10 @@ import argparse
 import sys
 from collections.abc import Sequence
 
-from service.errors import EXIT_BAD_INPUT, InputError
+from stanchion.service.errors import EXIT_BAD_INPUT, InputError
 
-VERBS = ("service.cmd_check", "service.cmd_serve", "service.cmd_demo", "service.cmd_select")
+VERBS = ("stanchion.service.cmd_check", "stanchion.service.cmd_serve", "stanchion.service.cmd_demo",
+         "stanchion.service.cmd_select")
 
 
 def build_parser() -> argparse.ArgumentParser:

@@ -15,14 +15,14 @@ from pathlib import Path
 
 from pydantic import ValidationError
 
-from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline, regressions
-from service.cmd_select import family_list
-from service.core import check_request
-from service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
-from service.outputs import write_outputs
-from service.progress import Progress
-from service.request import MembersRequest
-from service.terminal import format_run, warnings
+from stanchion.service.baseline import DEFAULT_THRESHOLD, compare, load_baseline, regressions
+from stanchion.service.cmd_select import family_list
+from stanchion.service.core import check_request
+from stanchion.service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
+from stanchion.service.outputs import write_outputs
+from stanchion.service.progress import Progress
+from stanchion.service.request import MembersRequest
+from stanchion.service.terminal import format_run, warnings
 
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 FAIL_ON = ("any", "new-failures")
@@ -90,7 +90,7 @@ def _check_options(args: argparse.Namespace, is_model: bool) -> None:
 
 
 def _check_members_file(path: Path, args: argparse.Namespace) -> dict:
-    from service.model_check import check_output_paths
+    from stanchion.service.model_check import check_output_paths
 
     check_output_paths(path, {"--report": args.report, "--csv": args.csv,
                               "--junit": args.junit})
@@ -112,7 +112,7 @@ def run_check(args: argparse.Namespace) -> int:
     is_model = path.suffix.lower() in MODEL_SUFFIXES
     _check_options(args, is_model)
     if is_model:
-        from service.model_check import check_model_file
+        from stanchion.service.model_check import check_model_file
 
         if not args.quiet:
             args.progress = Progress(sys.stderr)

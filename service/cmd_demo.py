@@ -17,7 +17,7 @@ from __future__ import annotations
 import argparse
 from pathlib import Path
 
-from service.errors import EXIT_OK, InputError
+from stanchion.service.errors import EXIT_OK, InputError
 
 #: The repository checkout this package sits in (editable install).
 CHECKOUT = Path(__file__).resolve().parents[1]
@@ -55,8 +55,8 @@ def output_paths(model: Path, output_dir: Path) -> dict[str, Path]:
 
 def run_demo(args: argparse.Namespace) -> int:
     """Check the sample, write the outputs, print where they are and the summary."""
-    from service.model_check import check_model
-    from service.terminal import format_run
+    from stanchion.service.model_check import check_model
+    from stanchion.service.terminal import format_run
 
     model, table = sample_paths(args.sample, SAMPLE_DIR)
     output_dir = Path(args.output_dir)

@@ -6,12 +6,12 @@ import argparse
 
 import numpy as np
 
-from engine import catalog
-from engine.compression import OMEGA_C, PHI_C
-from engine.members import E_DEFAULT, G_DEFAULT
-from engine.selection import candidate_indices, select
-from engine.units import UNIT_SYSTEMS, force_factor, length_factor, stress_factor
-from service.errors import EXIT_FAILURES, EXIT_OK, InputError
+from stanchion.engine import catalog
+from stanchion.engine.compression import OMEGA_C, PHI_C
+from stanchion.engine.members import E_DEFAULT, G_DEFAULT
+from stanchion.engine.selection import candidate_indices, select
+from stanchion.engine.units import UNIT_SYSTEMS, force_factor, length_factor, stress_factor
+from stanchion.service.errors import EXIT_FAILURES, EXIT_OK, InputError
 
 
 def family_list(text: str) -> list[str]:

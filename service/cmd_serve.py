@@ -5,16 +5,16 @@ from __future__ import annotations
 import argparse
 import logging
 
-from service.errors import InputError
+from stanchion.service.errors import InputError
 
 
 def run_serve(args: argparse.Namespace) -> int:
     """Read the settings from the environment and serve until interrupted."""
     import uvicorn
 
-    from service.app import create_app
-    from service.jobs import data_dir_in_use
-    from service.settings import Settings
+    from stanchion.service.app import create_app
+    from stanchion.service.jobs import data_dir_in_use
+    from stanchion.service.settings import Settings
 
     settings = Settings.from_env()  # InputError names a bad variable -> exit 2
     try:

@@ -9,16 +9,16 @@ import operator
 
 import numpy as np
 
-from engine import catalog, section_properties
-from engine.check import CheckResults, check_members
-from engine.combinations import custom_combinations
-from engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
-from engine.sections import SectionTable
-from engine.selection import suggest_for_members
-from engine.units import force_factor, length_factor, stress_factor
-from service.errors import InputError
-from service.report import build_report
-from service.request import Member, MembersRequest, Profile
+from stanchion.engine import catalog, section_properties
+from stanchion.engine.check import CheckResults, check_members
+from stanchion.engine.combinations import custom_combinations
+from stanchion.engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
+from stanchion.engine.sections import SectionTable
+from stanchion.engine.selection import suggest_for_members
+from stanchion.engine.units import force_factor, length_factor, stress_factor
+from stanchion.service.errors import InputError
+from stanchion.service.report import build_report
+from stanchion.service.request import Member, MembersRequest, Profile
 
 #: Member fields in the order of the request table's first columns.
 _SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")

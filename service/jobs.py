@@ -7,9 +7,10 @@ Layout of ``STANCHION_DATA_DIR``::
     jobs/<id>/              job.json (parameters), the upload, and the worker's outputs
     jobs/<id>.part/         an upload still being received (never a job yet)
 
-Each job runs in its own child process (``python -m service.worker JOB_DIR``), so a model that
-crashes or hangs the IFC parser cannot take the server down.  One dispatcher thread starts at
-most ``max_workers`` processes at a time, stops a process that runs longer than the time
+Each job runs in its own child process (``python -P -m stanchion.service.worker JOB_DIR``),
+so a model that crashes or hangs the IFC parser cannot take the server down.  One dispatcher
+thread starts at most ``max_workers`` processes at a time, stops a process that runs longer
+than the time
 limit, and records the outcome the worker left in ``result.json``.  Only this process writes
 the job table.  On start, jobs left ``running`` by an earlier server are failed ("interrupted
 by a server restart") and queued ones are run.
@@ -34,8 +35,6 @@ from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
 from typing import IO
-
-import service
 
 log = logging.getLogger("stanchion.jobs")
 
@@ -253,7 +252,9 @@ class _Running:
 
 def worker_command() -> list[str]:
     """The command line of a job's worker process (the job folder is appended)."""
-    return [sys.executable, "-m", "service.worker"]
+    # -P: the server's working folder is not put on sys.path, so a folder that holds packages
+    # of its own can never shadow stanchion's modules in the worker.
+    return [sys.executable, "-P", "-m", "stanchion.service.worker"]
 
 
 #: Environment variable telling a worker its CPU-time limit (seconds), a safety net that
@@ -262,10 +263,8 @@ CPU_LIMIT_ENV = "STANCHION_WORKER_CPU_LIMIT_S"
 
 
 def _worker_env(timeout_s: float) -> dict[str, str]:
-    """The server's environment, with this package importable by the worker."""
+    """The server's environment as it is, plus the worker's CPU-time limit."""
     env = dict(os.environ)
-    root = str(Path(service.__file__).resolve().parent.parent)
-    env["PYTHONPATH"] = os.pathsep.join(p for p in (root, env.get("PYTHONPATH")) if p)
     env[CPU_LIMIT_ENV] = str(int(timeout_s) + 30)
     return env
 
@@ -386,7 +385,7 @@ class JobRunner:
             proc = subprocess.Popen(
                 [*self.command, str(job_dir)], stdin=subprocess.DEVNULL,
                 stdout=logf, stderr=subprocess.STDOUT, env=_worker_env(self.timeout_s),
-                start_new_session=True,
+                cwd=job_dir, start_new_session=True,
             )
         except OSError as exc:
             log.error("cannot start the worker of job %s: %s", job.id, exc)

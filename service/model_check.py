@@ -20,16 +20,16 @@ from pathlib import Path
 
 import numpy as np
 
-from engine.check import check_members
-from engine.units import UNIT_SYSTEMS, length_factor
-from ifc_bridge.model import ModelReadError, open_model
-from ifc_bridge.write import checked_now, write_results
-from service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
-from service.core import suggestions_for
-from service.errors import InputError
-from service.outputs import write_model_checked, write_outputs
-from service.progress import Progress, Silent
-from service.report import DISCLAIMER, build_report
+from stanchion.engine.check import check_members
+from stanchion.engine.units import UNIT_SYSTEMS, length_factor
+from stanchion.ifc_bridge.model import ModelReadError, open_model
+from stanchion.ifc_bridge.write import checked_now, write_results
+from stanchion.service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
+from stanchion.service.core import suggestions_for
+from stanchion.service.errors import InputError
+from stanchion.service.outputs import write_model_checked, write_outputs
+from stanchion.service.progress import Progress, Silent
+from stanchion.service.report import DISCLAIMER, build_report
 
 #: Member-table columns copied into the report rows when the reader provides them.
 EXTRA_FIELDS = ("tag", "ifc_class", "profile_source", "length_source", "load_source",
@@ -71,7 +71,7 @@ def check_output_paths(source: Path, outputs: dict[str, Path | None]) -> None:
 
 
 def _read(path: Path, include_members: bool, loads_table: Path | None):
-    from ifc_bridge.read import read_columns
+    from stanchion.ifc_bridge.read import read_columns
 
     try:
         model = open_model(path)

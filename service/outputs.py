@@ -228,7 +228,7 @@ def write_model(path: Path, model) -> None:
 
 def write_model_checked(path: Path, model) -> None:
     """:func:`write_model`, with a file-system failure as one-line InputError."""
-    from service.errors import InputError
+    from stanchion.service.errors import InputError
 
     try:
         write_model(path, model)
@@ -249,7 +249,7 @@ def write_outputs(
     Raises:
         InputError: a file cannot be written (one line naming it).
     """
-    from service.errors import InputError
+    from stanchion.service.errors import InputError
 
     jobs = [(report_path, lambda p: write_json(p, report)),
             (csv_path, lambda p: write_csv(p, report)),

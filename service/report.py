@@ -9,10 +9,10 @@ from importlib import resources
 
 import numpy as np
 
-from engine.check import NOT_CHECKED, CheckResults
-from engine.masks import all_set
-from engine.members import MemberTable
-from engine.units import factor, force_factor, length_factor, stress_factor
+from stanchion.engine.check import NOT_CHECKED, CheckResults
+from stanchion.engine.masks import all_set
+from stanchion.engine.members import MemberTable
+from stanchion.engine.units import factor, force_factor, length_factor, stress_factor
 
 SCHEMA_VERSION = "1"
 DISCLAIMER = (
@@ -164,7 +164,7 @@ def build_report(
 @cache
 def report_schema() -> dict:
     """The JSON Schema of the report, shipped with the package."""
-    text = resources.files("service").joinpath("schemas/report.schema.json").read_text()
+    text = resources.files("stanchion.service").joinpath("schemas/report.schema.json").read_text()
     return json.loads(text)
 
 

@@ -6,8 +6,8 @@ from typing import Literal
 
 from pydantic import BaseModel, ConfigDict, Field, field_validator, model_validator
 
-from engine.members import LOAD_TYPES
-from engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
 
 ForceUnit = Literal[tuple(FORCE_UNITS)]  # type: ignore[valid-type]
 LengthUnit = Literal[tuple(LENGTH_UNITS)]  # type: ignore[valid-type]

@@ -26,7 +26,7 @@ from pathlib import Path
 from fastapi import Request
 from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
 
-from service.errors import InputError
+from stanchion.service.errors import InputError
 
 #: Environment variable for each setting.
 ENV_NAMES: dict[str, str] = {

@@ -1,4 +1,4 @@
-"""The child process that runs one model job: ``python -m service.worker JOB_DIR``.
+"""The child process that runs one model job: ``python -m stanchion.service.worker JOB_DIR``.
 
 It reads ``JOB_DIR/job.json`` (written by the server when the upload was complete), checks the
 model with :func:`service.model_check.check_model`, leaves the report, checked model and CSV
@@ -21,8 +21,9 @@ import traceback
 from collections.abc import Callable, Sequence
 from pathlib import Path
 
-from service.errors import InputError
-from service.jobs import (
+from stanchion.ifc_bridge.model import ModelReadError
+from stanchion.service.errors import InputError
+from stanchion.service.jobs import (
     CPU_LIMIT_ENV,
     CSV_FILE,
     MODEL_OUT_FILE,
@@ -39,16 +40,13 @@ CheckModel = Callable[..., dict]
 def _is_input_error(exc: BaseException) -> bool:
     """True when the exception describes a problem of the uploaded input.
 
-    That is :class:`InputError`, or the IFC reader's ``ModelReadError`` (matched by name so
-    that the worker does not import the reader before the check does).
+    That is :class:`InputError` or the IFC reader's :class:`ModelReadError`, matched by type.
     """
-    return isinstance(exc, InputError) or any(
-        c.__name__ == "ModelReadError" and c.__module__.startswith("ifc_bridge")
-        for c in type(exc).__mro__)
+    return isinstance(exc, InputError | ModelReadError)
 
 
 def _default_check() -> CheckModel:
-    from service.model_check import check_model
+    from stanchion.service.model_check import check_model
 
     return check_model
 
@@ -132,7 +130,7 @@ def _limit_self() -> None:
 
 def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> int:
     """Entry point of the worker process; 0 once ``result.json`` is written."""
-    p = argparse.ArgumentParser(prog="python -m service.worker")
+    p = argparse.ArgumentParser(prog="python -m stanchion.service.worker")
     p.add_argument("job_dir", type=Path)
     args = p.parse_args(argv)
     logging.basicConfig(level=logging.INFO, stream=sys.stderr,

@@ -27,13 +27,13 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from engine.members import LOAD_TYPES
-from engine.units import factor
-from ifc_bridge.model import open_model
-from ifc_bridge.read import read_columns
-from service import cmd_demo
-from service.cli import main
-from service.model_check import check_model
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.engine.units import factor
+from stanchion.ifc_bridge.model import open_model
+from stanchion.ifc_bridge.read import read_columns
+from stanchion.service import cmd_demo
+from stanchion.service.cli import main
+from stanchion.service.model_check import check_model
 
 ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = ROOT / "sample_models"
@@ -236,7 +236,7 @@ def test_demo_writes_the_four_outputs(tmp_path, capsys, summary):
 
 def test_demo_console_script_from_another_folder(tmp_path):
     done = subprocess.run(
-        [sys.executable, "-m", "service.cli", "demo", "--sample", "pavilion",
+        [sys.executable, "-m", "stanchion.service.cli", "demo", "--sample", "pavilion",
          "--output-dir", "out"], capture_output=True, text=True, cwd=tmp_path, timeout=120)
     assert done.returncode == 0, done.stderr
     assert len(list((tmp_path / "out").iterdir())) == 4

@@ -45,7 +45,7 @@ if mode == "open":
 elif mode == "floor":
     f = ifcopenshell.open(str(src))
     t1 = time.perf_counter(); phases["open"] = t1 - t0
-    from service.report import DISCLAIMER, design_basis
+    from stanchion.service.report import DISCLAIMER, design_basis
     create, gid = f.create_entity, ifcopenshell.guid.new
     texts = ("PASS", "W14X48", "1.2D+1.6L", "flexural buckling about y", design_basis("LRFD"),
              DISCLAIMER)
@@ -83,7 +83,7 @@ elif mode == "floor":
     f.write(str(out / "floor.ifc"))
     phases["write"] = time.perf_counter() - t2
 elif mode in ("stanchion", "all", "rerun"):
-    from service.model_check import check_model
+    from stanchion.service.model_check import check_model
     target = out / ("stanchion.ifc" if mode != "rerun" else "rerun.ifc")
     extra = {}
     if mode == "all":
@@ -91,12 +91,12 @@ elif mode in ("stanchion", "all", "rerun"):
     report = check_model(src, out_model=target, **extra)
     phases["members"] = report["summary"]["members"]
 elif mode == "phases":
-    from engine.check import check_members
-    from ifc_bridge.model import open_model
-    from ifc_bridge.read import read_columns
-    from ifc_bridge.write import write_results
-    from service.outputs import write_model
-    from service.report import DISCLAIMER, build_report
+    from stanchion.engine.check import check_members
+    from stanchion.ifc_bridge.model import open_model
+    from stanchion.ifc_bridge.read import read_columns
+    from stanchion.ifc_bridge.write import write_results
+    from stanchion.service.outputs import write_model
+    from stanchion.service.report import DISCLAIMER, build_report
     model = open_model(src); t = time.perf_counter(); phases["open"] = t - t0
     read = read_columns(model); phases["read"] = time.perf_counter() - t; t = time.perf_counter()
     results = check_members(read.members); phases["check"] = time.perf_counter() - t

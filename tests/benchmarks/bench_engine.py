@@ -19,11 +19,11 @@ import sys
 import numpy as np
 from timing import best_of
 
-from engine import catalog
-from engine.check import check_members
-from engine.compression import available_strength, compressive_strength
-from engine.members import LOAD_TYPES, MemberTable
-from engine.sections import Kind
+from stanchion.engine import catalog
+from stanchion.engine.check import check_members
+from stanchion.engine.compression import available_strength, compressive_strength
+from stanchion.engine.members import LOAD_TYPES, MemberTable
+from stanchion.engine.sections import Kind
 
 
 def bare_e3_kernel(cat, idx, Fy, Lcx, Lcy) -> np.ndarray:

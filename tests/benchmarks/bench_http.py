@@ -148,7 +148,7 @@ class Server:
         env.update(STANCHION_DATA_DIR=str(data_dir), STANCHION_JOB_TIMEOUT_S="900")
         self.log = (data_dir.parent / "server.log").open("wb")
         self.proc = subprocess.Popen(
-            [sys.executable, "-m", "service.cli", "serve", "--host", "127.0.0.1",
+            [sys.executable, "-m", "stanchion.service.cli", "serve", "--host", "127.0.0.1",
              "--port", str(self.port), "--no-access-log", "--log-level", "warning"],
             cwd=ROOT, env=env, stdout=self.log, stderr=subprocess.STDOUT)
         end = time.monotonic() + 30

@@ -34,8 +34,8 @@ import numpy as np
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
 
-from ifc_bridge.model import open_model  # noqa: E402
-from ifc_bridge.read import read_columns  # noqa: E402
+from stanchion.ifc_bridge.model import open_model  # noqa: E402
+from stanchion.ifc_bridge.read import read_columns  # noqa: E402
 
 # (type name, profile class, ProfileName, dimensions in mm) -- AISC Shapes Database v16.0
 # dimensions converted to mm (common practice, no source) for the named shapes.

@@ -14,9 +14,9 @@ import sys
 import numpy as np
 from timing import best_of
 
-from engine import catalog
-from engine.compression import compressive_strength
-from engine.selection import candidate_indices, select
+from stanchion.engine import catalog
+from stanchion.engine.compression import compressive_strength
+from stanchion.engine.selection import candidate_indices, select
 
 
 def main(n: int = 2000) -> None:

@@ -14,7 +14,7 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from engine.catalog import (
+from stanchion.engine.catalog import (
     FAMILIES,
     catalog_frame,
     family_indices,
@@ -25,7 +25,7 @@ from engine.catalog import (
     normalize_designation,
     unknown_section_reason,
 )
-from engine.sections import ElementClass, Kind
+from stanchion.engine.sections import ElementClass, Kind
 
 STEEL_LB_PER_FT_PER_IN2 = 3.40  # 490 lb/ft³ steel: 490/144 (common practice, no source)
 # Inner flange slope 2:12 (16-2/3 %) of S shapes and C channels (AISC Manual Part 1, from memory)

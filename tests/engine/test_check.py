@@ -5,9 +5,9 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from engine import catalog
-from engine.check import _REASONS, FAIL, NOT_CHECKED, PASS, check_members
-from engine.members import LOAD_TYPES, MemberTable
+from stanchion.engine import catalog
+from stanchion.engine.check import _REASONS, FAIL, NOT_CHECKED, PASS, check_members
+from stanchion.engine.members import LOAD_TYPES, MemberTable
 
 FT = 12.0  # in per ft
 

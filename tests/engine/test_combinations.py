@@ -18,7 +18,7 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from hypothesis.extra import numpy as hnp
 
-from engine.combinations import (
+from stanchion.engine.combinations import (
     Combination,
     asd_combinations,
     custom_combinations,
@@ -27,8 +27,8 @@ from engine.combinations import (
     governing,
     lrfd_combinations,
 )
-from engine.members import LOAD_TYPES
-from engine.units import force_factor
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.engine.units import force_factor
 
 NAN = math.nan
 

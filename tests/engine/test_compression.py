@@ -10,8 +10,8 @@ import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from engine import catalog
-from engine.compression import (
+from stanchion.engine import catalog
+from stanchion.engine.compression import (
     OMEGA_C,
     PHI_C,
     Fcr,
@@ -19,7 +19,7 @@ from engine.compression import (
     available_strength,
     compressive_strength,
 )
-from engine.sections import Kind
+from stanchion.engine.sections import Kind
 
 FT = 12.0
 
@@ -258,7 +258,7 @@ def test_capacity_never_increases_with_length_nor_exceeds_squash_load(i, L1, dL,
 def test_several_blocks_give_the_same_results_as_one(monkeypatch) -> None:
     # Consistency of the blocked evaluation (common practice, no source): the same members
     # computed in blocks of 97 and in one block agree field by field.
-    import engine.compression as ce
+    import stanchion.engine.compression as ce
 
     cat = catalog.load_catalog()
     keep = np.flatnonzero(cat.kind != Kind.UNSUPPORTED)

@@ -5,7 +5,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from engine.masks import all_set, any_set
+from stanchion.engine.masks import all_set, any_set
 
 
 @pytest.mark.parametrize("mask", [

@@ -18,7 +18,7 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from engine.section_properties import (
+from stanchion.engine.section_properties import (
     WEIGHT_PER_AREA,
     channel,
     circ_hollow,
@@ -29,7 +29,7 @@ from engine.section_properties import (
     solid_rect,
     tee,
 )
-from engine.sections import ElementClass, Kind, SectionTable
+from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 # ------------------------------------------------------------------ AISC Shapes Database
 

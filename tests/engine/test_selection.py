@@ -5,8 +5,8 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from engine import catalog
-from engine.selection import candidate_indices, select
+from stanchion.engine import catalog
+from stanchion.engine.selection import candidate_indices, select
 
 FT = 12.0
 
@@ -98,8 +98,8 @@ def test_unknown_candidate_is_refused_with_its_name() -> None:
 def test_members_with_infinite_data_get_no_suggestion(column: str) -> None:
     # Never a section chosen for a grade, length or modulus the member was not checked at
     # (common practice, no source): an infinite Fy would pick the lightest shape.
-    from engine.members import MemberTable
-    from engine.selection import suggest_for_members
+    from stanchion.engine.members import MemberTable
+    from stanchion.engine.selection import suggest_for_members
 
     values = dict(Fy=np.full(2, 50.0), length=np.full(2, 16 * FT))
     if column in ("Fy", "lx"):

@@ -34,7 +34,7 @@ import ifcopenshell.api.unit
 import numpy as np
 import pytest
 
-from engine.units import factor
+from stanchion.engine.units import factor
 
 SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")
 

@@ -7,7 +7,7 @@ import math
 import numpy as np
 import pytest
 
-from ifc_bridge.read import read_columns
+from stanchion.ifc_bridge.read import read_columns
 
 # W14X48, AISC Shapes Database v16.0: d, bf, tw, tf (in); A = 14.1 in²
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}
@@ -226,7 +226,7 @@ def test_many_columns_keep_file_order(builder):
 
 
 def test_an_element_that_cannot_be_walked_is_not_checked(builder, monkeypatch):
-    import ifc_bridge.read as read_module
+    import stanchion.ifc_bridge.read as read_module
 
     standard_column(builder, "C1")
     standard_column(builder, "C2")

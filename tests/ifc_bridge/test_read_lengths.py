@@ -6,7 +6,7 @@ import math
 
 import pytest
 
-from ifc_bridge.read import read_columns
+from stanchion.ifc_bridge.read import read_columns
 
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
 

@@ -8,11 +8,11 @@ import ifcopenshell
 import ifcopenshell.guid
 import pytest
 
-from engine.members import LOAD_TYPES
-from ifc_bridge.load_cases import load_type
-from ifc_bridge.loads import LoadTableError
-from ifc_bridge.model import ModelReadError
-from ifc_bridge.read import read_columns
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.ifc_bridge.load_cases import load_type
+from stanchion.ifc_bridge.loads import LoadTableError
+from stanchion.ifc_bridge.model import ModelReadError
+from stanchion.ifc_bridge.read import read_columns
 
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
 KIP_PER_KN = 0.2248089431  # 1 kN in kip (pint; common practice, no source)

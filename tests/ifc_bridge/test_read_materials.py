@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import pytest
 
-from engine.units import factor
-from ifc_bridge.grades import GRADES, match_grade
-from ifc_bridge.read import read_columns
+from stanchion.engine.units import factor
+from stanchion.ifc_bridge.grades import GRADES, match_grade
+from stanchion.ifc_bridge.read import read_columns
 
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
 KSI_PER_MPA = factor("megapascal", "ksi")  # pint (common practice, no source)

@@ -5,8 +5,8 @@ from __future__ import annotations
 import ifcopenshell
 import pytest
 
-from ifc_bridge.model import ModelReadError, open_model
-from ifc_bridge.read import EXTRA_COLUMNS, read_columns
+from stanchion.ifc_bridge.model import ModelReadError, open_model
+from stanchion.ifc_bridge.read import EXTRA_COLUMNS, read_columns
 
 
 def test_missing_file_is_one_line(tmp_path):

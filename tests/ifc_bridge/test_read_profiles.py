@@ -6,8 +6,8 @@ import math
 
 import pytest
 
-from engine.sections import Kind
-from ifc_bridge.read import read_columns
+from stanchion.engine.sections import Kind
+from stanchion.ifc_bridge.read import read_columns
 
 # AISC Shapes Database v16.0 rows used below (dimensions in inches, A in in²):
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # A = 14.1

@@ -17,10 +17,10 @@ import ifcopenshell.validate
 import numpy as np
 import pytest
 
-from engine.check import CheckResults
-from engine.members import MemberTable
-from engine.sections import SectionTable
-from ifc_bridge.write import (
+from stanchion.engine.check import CheckResults
+from stanchion.engine.members import MemberTable
+from stanchion.engine.sections import SectionTable
+from stanchion.ifc_bridge.write import (
     NOT_IN_TABLE,
     PSET_NAME,
     existing_sets,

@@ -14,11 +14,11 @@ from pathlib import Path
 import pytest
 from fastapi.testclient import TestClient
 
-from service import app as app_mod
-from service.app import create_app
-from service.core import check_request
-from service.request import MembersRequest
-from service.settings import Settings
+from stanchion.service import app as app_mod
+from stanchion.service.app import create_app
+from stanchion.service.core import check_request
+from stanchion.service.request import MembersRequest
+from stanchion.service.settings import Settings
 
 STUB = [sys.executable, str(Path(__file__).with_name("test_jobs_stub.py"))]
 TOKEN = "s3cret-token"

@@ -7,9 +7,9 @@ from pathlib import Path
 import pytest
 import uvicorn
 
-from service.cli import main
-from service.jobs import JobRunner, JobStore
-from service.settings import Settings
+from stanchion.service.cli import main
+from stanchion.service.jobs import JobRunner, JobStore
+from stanchion.service.settings import Settings
 
 
 @pytest.fixture

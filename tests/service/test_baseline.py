@@ -11,8 +11,8 @@ import re
 
 import pytest
 
-from service.baseline import compare, format_changes, load_baseline, regressions
-from service.errors import InputError
+from stanchion.service.baseline import compare, format_changes, load_baseline, regressions
+from stanchion.service.errors import InputError
 
 
 def _report(*members: tuple[str, str, float | None], basis: str = "basis A") -> dict:

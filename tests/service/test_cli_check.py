@@ -8,8 +8,8 @@ from pathlib import Path
 import jsonschema
 import pytest
 
-from service.cli import main
-from service.report import report_schema
+from stanchion.service.cli import main
+from stanchion.service.report import report_schema
 
 
 def _write(tmp_path: Path, data: object, name: str = "members.json") -> Path:

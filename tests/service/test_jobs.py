@@ -15,9 +15,9 @@ from pathlib import Path
 
 import pytest
 
-from service import jobs
-from service.jobs import JobRunner, JobStore
-from service.worker import run_job
+from stanchion.service import jobs
+from stanchion.service.jobs import JobRunner, JobStore
+from stanchion.service.worker import run_job
 
 STUB = [sys.executable, str(Path(__file__).with_name("test_jobs_stub.py"))]
 

@@ -22,7 +22,7 @@ def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None
                    out_model: Path | None = None, out_report: Path | None = None,
                    out_csv: Path | None = None, **_: object) -> dict:
     """Behave as the first bytes of the model ask (see the module docstring)."""
-    from service.errors import InputError
+    from stanchion.service.errors import InputError
 
     data = Path(path).read_bytes()
     if data.startswith(b"CRASH"):
@@ -52,6 +52,6 @@ def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None
 
 
 if __name__ == "__main__":
-    from service.worker import main
+    from stanchion.service.worker import main
 
     sys.exit(main(sys.argv[1:], check=stand_in_check))

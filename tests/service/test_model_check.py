@@ -27,13 +27,13 @@ from test_model_check_files import (
     write_model,
 )
 
-from engine.units import factor
-from ifc_bridge.write import PSET_NAME
-from service.core import check_request
-from service.errors import InputError
-from service.model_check import check_model
-from service.report import report_schema
-from service.request import MembersRequest
+from stanchion.engine.units import factor
+from stanchion.ifc_bridge.write import PSET_NAME
+from stanchion.service.core import check_request
+from stanchion.service.errors import InputError
+from stanchion.service.model_check import check_model
+from stanchion.service.report import report_schema
+from stanchion.service.request import MembersRequest
 
 SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")
 ADDED_CLASSES = {"IfcPropertySet", "IfcPropertySingleValue", "IfcRelDefinesByProperties",

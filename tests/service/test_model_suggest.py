@@ -10,9 +10,9 @@ import ifcopenshell.util.element as element_util
 import jsonschema
 import pytest
 
-from engine import catalog
-from service.cli import main
-from service.report import report_schema
+from stanchion.engine import catalog
+from stanchion.service.cli import main
+from stanchion.service.report import report_schema
 
 SAMPLE = Path(__file__).resolve().parents[2] / "sample_models" / "workshop_annex.ifc"
 

@@ -11,7 +11,7 @@ import xml.etree.ElementTree as ET
 import pandas as pd
 import pytest
 
-from service.outputs import (
+from stanchion.service.outputs import (
     NO_STOREY,
     failure_message,
     write_atomic,

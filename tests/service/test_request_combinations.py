@@ -4,9 +4,9 @@ from __future__ import annotations
 
 import pytest
 
-from service.core import check_request
-from service.errors import InputError
-from service.request import MembersRequest
+from stanchion.service.core import check_request
+from stanchion.service.errors import InputError
+from stanchion.service.request import MembersRequest
 
 
 def _report(**extra) -> dict:

@@ -7,8 +7,8 @@ import json
 import jsonschema
 import pytest
 
-from service.cli import main
-from service.report import report_schema
+from stanchion.service.cli import main
+from stanchion.service.report import report_schema
 
 
 def test_select_prints_the_lightest_sections(capsys) -> None:

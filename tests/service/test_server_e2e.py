@@ -1,8 +1,8 @@
-"""End to end: the real server (``python -m service.cli serve``) on 127.0.0.1, driven by httpx.
+"""End to end: the real server (``stanchion serve``) on 127.0.0.1, driven by httpx.
 
 A members check; an IFC upload -> job -> downloads; a broken upload -> failed job, server
 still healthy; concurrent uploads; the upload limit over a real socket; auth on and off;
-restart recovery.  Jobs run in real worker processes (``python -m service.worker``).  Every
+restart recovery.  Jobs run in real worker processes (``stanchion.service.worker``).  Every
 wait is bounded; servers are stopped by their own process handle.
 """
 
@@ -23,12 +23,12 @@ from pathlib import Path
 import httpx
 import pytest
 
-from service.jobs import PARAMS_FILE, JobStore
+from stanchion.service.jobs import PARAMS_FILE, JobStore
 
 ROOT = Path(__file__).resolve().parents[2]
-HAVE_MODEL_CHECK = importlib.util.find_spec("service.model_check") is not None
+HAVE_MODEL_CHECK = importlib.util.find_spec("stanchion.service.model_check") is not None
 needs_model_check = pytest.mark.skipif(not HAVE_MODEL_CHECK,
-                                       reason="service.model_check not available yet")
+                                       reason="stanchion.service.model_check not available yet")
 MEMBER = {"id": "C-12", "section": "W14X48", "fy": 50, "length": 16,
           "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # design.md §2 example
 TOKEN = "e2e-token"
@@ -41,15 +41,17 @@ def _free_port() -> int:
 
 
 @contextmanager
-def running_server(data_dir: Path, **env: str):
-    """Start ``stanchion serve`` on a free port; yield its base URL; stop it."""
+def running_server(data_dir: Path, cwd: Path = ROOT, command: list[str] | None = None,
+                   **env: str):
+    """Start ``stanchion serve`` on a free port (from ``cwd``); yield its base URL; stop it."""
     port = _free_port()
+    command = command or [sys.executable, "-m", "stanchion.service.cli"]
     full_env = {k: v for k, v in os.environ.items() if not k.startswith("STANCHION_")}
     full_env.update(STANCHION_DATA_DIR=str(data_dir), **env)
     log = (data_dir.parent / f"server-{port}.log").open("wb")
     proc = subprocess.Popen(
-        [sys.executable, "-m", "service.cli", "serve", "--host", "127.0.0.1", "--port",
-         str(port), "--no-access-log"], cwd=ROOT, env=full_env, stdout=log,
+        [*command, "serve", "--host", "127.0.0.1", "--port",
+         str(port), "--no-access-log"], cwd=cwd, env=full_env, stdout=log,
         stderr=subprocess.STDOUT)
     url = f"http://127.0.0.1:{port}"
     try:
