@@ -17,7 +17,7 @@ from stanchion.engine.sections import SectionTable
 from stanchion.engine.selection import suggest_for_members
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.errors import InputError
-from stanchion.service.report import build_report
+from stanchion.service.reports.report import build_report
 from stanchion.service.request import Member, MembersRequest, Profile
 
 #: Member fields in the order of the request table's first columns.

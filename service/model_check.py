@@ -24,12 +24,12 @@ from stanchion.engine.check import check_members
 from stanchion.engine.units import UNIT_SYSTEMS, length_factor
 from stanchion.ifc_bridge.model import ModelReadError, open_model
 from stanchion.ifc_bridge.write import checked_now, write_results
-from stanchion.service.baseline import DEFAULT_THRESHOLD, compare, load_baseline
 from stanchion.service.core import suggestions_for
 from stanchion.service.errors import InputError
-from stanchion.service.outputs import write_model_checked, write_outputs
 from stanchion.service.progress import Progress, Silent
-from stanchion.service.report import DISCLAIMER, build_report
+from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
+from stanchion.service.reports.files import write_model_checked, write_outputs
+from stanchion.service.reports.report import DISCLAIMER, build_report
 
 #: Member-table columns copied into the report rows when the reader provides them.
 EXTRA_FIELDS = ("tag", "ifc_class", "profile_source", "length_source", "load_source",
@@ -266,7 +266,7 @@ def check_model_file(path: Path, args: argparse.Namespace) -> dict:
         allow_not_checked=getattr(args, "allow_not_checked", False),
         progress=getattr(args, "progress", None),
         suggest=getattr(args, "suggest", False),
-        max_utilization=getattr(args, "max_utilization", None) or 1.0,
+        max_utilization=getattr(args, "utilization_limit", None) or 1.0,
         oversized=getattr(args, "oversized", None),
         families=getattr(args, "families", None),
     )

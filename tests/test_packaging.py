@@ -24,9 +24,14 @@ PACKAGE_DIRS = ("engine", "ifc_bridge", "service")
 def test_wheel_holds_only_the_stanchion_package(tmp_path: Path) -> None:
     # What `pip install .` puts into site-packages is the wheel's content: build it (no
     # dependencies, this venv's setuptools) and list its top-level names.
+    # A copy of the checkout, so that no earlier build folder can add files to the wheel.
+    src = tmp_path / "src"
+    shutil.copytree(ROOT, src, symlinks=True, ignore=shutil.ignore_patterns(
+        ".git", ".venv", "build", "*.egg-info", "__pycache__", ".*_cache", "demo-output",
+        "stanchion-data"))
     subprocess.run(
         [sys.executable, "-m", "pip", "wheel", "--quiet", "--no-deps", "--no-build-isolation",
-         "--wheel-dir", str(tmp_path), str(ROOT)],
+         "--wheel-dir", str(tmp_path), str(src)],
         check=True, capture_output=True, timeout=300)
     (wheel,) = tmp_path.glob("stanchion-*.whl")
     names = zipfile.ZipFile(wheel).namelist()
@@ -44,7 +49,7 @@ def test_one_version_from_the_package_metadata() -> None:
     from importlib.metadata import version
 
     from stanchion.ifc_bridge.write import APPLICATION_VERSION
-    from stanchion.service.app import API_VERSION
+    from stanchion.service.http.app import API_VERSION
 
     assert stanchion.__version__ == version("stanchion") == APPLICATION_VERSION == API_VERSION
     text = "\n".join(p.read_text(encoding="utf-8")
@@ -73,7 +78,7 @@ def test_every_import_of_our_code_goes_through_stanchion(folder: str) -> None:
 @pytest.mark.skipif(shutil.which("stanchion", path=str(Path(sys.executable).parent)) is None,
                     reason="the stanchion console script is not installed beside this Python")
 def test_server_in_a_folder_with_foreign_packages_runs_none_of_them(tmp_path: Path) -> None:
-    from tests.service.test_server_e2e import _wait, build_model, running_server
+    from tests.service.http.test_server_e2e import _wait, build_model, running_server
 
     work = tmp_path / "work"
     marker = tmp_path / "foreign-code-ran"

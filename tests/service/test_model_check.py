@@ -32,7 +32,7 @@ from stanchion.ifc_bridge.write import PSET_NAME
 from stanchion.service.core import check_request
 from stanchion.service.errors import InputError
 from stanchion.service.model_check import check_model
-from stanchion.service.report import report_schema
+from stanchion.service.reports.report import report_schema
 from stanchion.service.request import MembersRequest
 
 SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")

@@ -8,8 +8,9 @@ import pytest
 import uvicorn
 
 from stanchion.service.cli import main
-from stanchion.service.jobs import JobRunner, JobStore
-from stanchion.service.settings import Settings
+from stanchion.service.http.settings import Settings
+from stanchion.service.jobs.runner import JobRunner
+from stanchion.service.jobs.store import JobStore
 
 
 @pytest.fixture

@@ -8,7 +8,7 @@ from pathlib import Path
 
 import pytest
 
-from stanchion.service.upload import UploadError, UploadTooLarge, boundary_of, receive_form
+from stanchion.service.http.upload import UploadError, UploadTooLarge, boundary_of, receive_form
 
 B = b"----stanchion-test-boundary"
 CHUNK = 64 * 1024

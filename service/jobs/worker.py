@@ -1,4 +1,4 @@
-"""The child process that runs one model job: ``python -m stanchion.service.worker JOB_DIR``.
+"""The child process that runs one model job: ``python -m stanchion.service.jobs.worker JOB_DIR``.
 
 It reads ``JOB_DIR/job.json`` (written by the server when the upload was complete), checks the
 model with :func:`service.model_check.check_model`, leaves the report, checked model and CSV
@@ -23,8 +23,8 @@ from pathlib import Path
 
 from stanchion.ifc_bridge.model import ModelReadError
 from stanchion.service.errors import InputError
-from stanchion.service.jobs import (
-    CPU_LIMIT_ENV,
+from stanchion.service.jobs.runner import CPU_LIMIT_ENV
+from stanchion.service.jobs.store import (
     CSV_FILE,
     MODEL_OUT_FILE,
     PARAMS_FILE,
@@ -130,7 +130,7 @@ def _limit_self() -> None:
 
 def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> int:
     """Entry point of the worker process; 0 once ``result.json`` is written."""
-    p = argparse.ArgumentParser(prog="python -m stanchion.service.worker")
+    p = argparse.ArgumentParser(prog="python -m stanchion.service.jobs.worker")
     p.add_argument("job_dir", type=Path)
     args = p.parse_args(argv)
     logging.basicConfig(level=logging.INFO, stream=sys.stderr,

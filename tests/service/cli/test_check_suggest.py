@@ -12,9 +12,9 @@ import pytest
 
 from stanchion.engine import catalog
 from stanchion.service.cli import main
-from stanchion.service.report import report_schema
+from stanchion.service.reports.report import report_schema
 
-SAMPLE = Path(__file__).resolve().parents[2] / "sample_models" / "workshop_annex.ifc"
+SAMPLE = Path(__file__).resolve().parents[3] / "sample_models" / "workshop_annex.ifc"
 
 
 def _checks(path: Path) -> dict[str, dict]:
@@ -26,7 +26,7 @@ def _checks(path: Path) -> dict[str, dict]:
 @pytest.fixture(scope="module")
 def suggested(tmp_path_factory) -> tuple[dict, dict[str, dict], Path]:
     out = tmp_path_factory.mktemp("suggest")
-    code = main(["check", str(SAMPLE), "--suggest", "--max-utilization", "0.9",
+    code = main(["check", str(SAMPLE), "--suggest", "--utilization-limit", "0.9",
                  "--oversized", "0.3", "--out", str(out / "c.ifc"),
                  "--report", str(out / "r.json"), "--quiet"])
     assert code == 1  # the sample has failing columns (sample_models/README.md)
@@ -99,8 +99,8 @@ def test_explicit_families(tmp_path) -> None:
 
 
 @pytest.mark.parametrize("argv, needle", [
-    (["--max-utilization", "0.9"], "--suggest"),
-    (["--suggest", "--max-utilization", "0"], "greater than zero"),
+    (["--utilization-limit", "0.9"], "--suggest"),
+    (["--suggest", "--utilization-limit", "0"], "greater than zero"),
 ])
 def test_bad_suggestion_options_exit_2(tmp_path, capsys, argv, needle) -> None:
     assert main(["check", str(SAMPLE), *argv, "--quiet"]) == 2

@@ -2,7 +2,7 @@
 
 A members check; an IFC upload -> job -> downloads; a broken upload -> failed job, server
 still healthy; concurrent uploads; the upload limit over a real socket; auth on and off;
-restart recovery.  Jobs run in real worker processes (``stanchion.service.worker``).  Every
+restart recovery.  Jobs run in real worker processes (``stanchion.service.jobs.worker``).  Every
 wait is bounded; servers are stopped by their own process handle.
 """
 
@@ -23,9 +23,9 @@ from pathlib import Path
 import httpx
 import pytest
 
-from stanchion.service.jobs import PARAMS_FILE, JobStore
+from stanchion.service.jobs.store import PARAMS_FILE, JobStore
 
-ROOT = Path(__file__).resolve().parents[2]
+ROOT = Path(__file__).resolve().parents[3]
 HAVE_MODEL_CHECK = importlib.util.find_spec("stanchion.service.model_check") is not None
 needs_model_check = pytest.mark.skipif(not HAVE_MODEL_CHECK,
                                        reason="stanchion.service.model_check not available yet")

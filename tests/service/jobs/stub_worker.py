@@ -1,8 +1,9 @@
 """A stand-in job worker for the job-machinery tests (not a test module; no tests here).
 
-Run as ``python tests/service/test_jobs_stub.py JOB_DIR``: it runs the real
-:func:`service.worker.main` with a stand-in model check whose behaviour is chosen by the first
-bytes of the uploaded file, so the tests can exercise every outcome without IFC parsing:
+Run as ``python tests/service/jobs/stub_worker.py JOB_DIR``: it runs the real
+:func:`stanchion.service.jobs.worker.main` with a stand-in model check whose behaviour is
+chosen by the first bytes of the uploaded file, so the tests can exercise every outcome
+without IFC parsing:
 
 ``CRASH`` abort the process · ``HANG`` sleep for an hour · ``INPUT`` raise InputError naming
 the file's server path · ``BOOM`` raise RuntimeError · ``SLOW<s>`` sleep ``s`` seconds, then
@@ -52,6 +53,6 @@ def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None
 
 
 if __name__ == "__main__":
-    from stanchion.service.worker import main
+    from stanchion.service.jobs.worker import main
 
     sys.exit(main(sys.argv[1:], check=stand_in_check))

@@ -11,7 +11,7 @@ import xml.etree.ElementTree as ET
 import pandas as pd
 import pytest
 
-from stanchion.service.outputs import (
+from stanchion.service.reports.files import (
     NO_STOREY,
     failure_message,
     write_atomic,

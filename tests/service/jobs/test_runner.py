@@ -15,11 +15,12 @@ from pathlib import Path
 
 import pytest
 
-from stanchion.service import jobs
-from stanchion.service.jobs import JobRunner, JobStore
-from stanchion.service.worker import run_job
+from stanchion.service.jobs import store as jobs
+from stanchion.service.jobs.runner import JobRunner
+from stanchion.service.jobs.store import JobStore
+from stanchion.service.jobs.worker import run_job
 
-STUB = [sys.executable, str(Path(__file__).with_name("test_jobs_stub.py"))]
+STUB = [sys.executable, str(Path(__file__).with_name("stub_worker.py"))]
 
 
 def _queue(store: JobStore, content: bytes, *, method: str = "LRFD",
@@ -110,7 +111,7 @@ def test_job_runs_in_a_worker_process_and_leaves_its_outputs(store, runner) -> N
     assert report["stand_in"]["method"] == "ASD"
     assert report["stand_in"]["loads"] == "element,D\nC1,10\n"
     assert report["stand_in"]["pid"] != os.getpid()  # ran in another process
-    assert report["stand_in"]["cpu_limit"] == 30 + 30  # time limit + 30 s grace, jobs.py
+    assert report["stand_in"]["cpu_limit"] == 30 + 30  # time limit + 30 s grace, jobs/runner.py
     assert (d / jobs.MODEL_OUT_FILE).read_bytes() == b"fine model"
     assert (d / jobs.CSV_FILE).is_file()
 

@@ -9,7 +9,7 @@ import jsonschema
 import pytest
 
 from stanchion.service.cli import main
-from stanchion.service.report import report_schema
+from stanchion.service.reports.report import report_schema
 
 
 def _write(tmp_path: Path, data: object, name: str = "members.json") -> Path:

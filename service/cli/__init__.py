@@ -1,6 +1,7 @@
-"""The ``stanchion`` command line (design.md §4).  Thin: parse, call core, format.
+"""The ``stanchion`` command line (design.md §4).  Thin: parse, call the pipeline, format.
 
-Each verb lives in its own module (``service/cmd_*.py``) exposing ``add_parser(subparsers)``
+Each verb lives in its own module of this package (``check``, ``suggest``, ``serve``,
+``demo``) exposing ``add_parser(subparsers)``
 that registers the verb with ``func=`` set.  Exit codes: 0 every member passes; 1 any member
 fails or is not checked; 2 unusable input (one line on stderr, nothing written).
 """
@@ -8,19 +9,21 @@ fails or is not checked; 2 unusable input (one line on stderr, nothing written).
 from __future__ import annotations
 
 import argparse
+import importlib
 import sys
 from collections.abc import Sequence
 
 from stanchion.service.errors import EXIT_BAD_INPUT, InputError
 
-VERBS = ("stanchion.service.cmd_check", "stanchion.service.cmd_serve", "stanchion.service.cmd_demo",
-         "stanchion.service.cmd_select")
+#: The verbs, one module each in this package; each exposes ``add_parser(subparsers)``.
+VERBS = ("check", "suggest", "serve", "demo")
 
 
 def build_parser() -> argparse.ArgumentParser:
-    """The argument parser with every verb that is installed."""
-    import importlib
+    """The argument parser with every verb.
 
+    A verb module that fails to import raises: a verb never disappears silently.
+    """
     p = argparse.ArgumentParser(
         prog="stanchion",
         description="Axial compression checks of steel columns, AISC 360-22 Chapter E "
@@ -28,13 +31,7 @@ def build_parser() -> argparse.ArgumentParser:
     )
     sub = p.add_subparsers(dest="command", required=True)
     for name in VERBS:
-        try:
-            module = importlib.import_module(name)
-        except ModuleNotFoundError as exc:
-            if exc.name != name:
-                raise
-            continue
-        module.add_parser(sub)
+        importlib.import_module(f"{__name__}.{name}").add_parser(sub)
     return p
 
 

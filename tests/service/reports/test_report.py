@@ -7,7 +7,7 @@ import math
 import numpy as np
 import pytest
 
-from stanchion.service.report import _sig, _sig_columns
+from stanchion.service.reports.report import _sig, _sig_columns
 
 
 def _reference(x: float, digits: int) -> float | None:

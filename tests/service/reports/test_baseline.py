@@ -11,8 +11,8 @@ import re
 
 import pytest
 
-from stanchion.service.baseline import compare, format_changes, load_baseline, regressions
 from stanchion.service.errors import InputError
+from stanchion.service.reports.baseline import compare, format_changes, load_baseline, regressions
 
 
 def _report(*members: tuple[str, str, float | None], basis: str = "basis A") -> dict:

@@ -1,4 +1,8 @@
-"""``stanchion select``: the lightest adequate sections for one load, at the terminal."""
+"""``stanchion suggest``: the lightest adequate catalog sections for one load, at the terminal.
+
+The same search as ``check --suggest`` (:func:`stanchion.engine.selection.select`), for one
+required strength typed at the terminal; ``--depth`` limits the nominal depth, in inches.
+"""
 
 from __future__ import annotations
 
@@ -22,7 +26,31 @@ def family_list(text: str) -> list[str]:
     return items
 
 
-def run_select(args: argparse.Namespace) -> int:
+def depth_range(text: str) -> tuple[float | None, float | None]:
+    """A nominal depth range in inches (argparse type).
+
+    ``"10-14"`` (10 to 14), ``"12-"`` (12 and deeper), ``"-14"`` (up to 14), ``"14"`` (14 only).
+    """
+    low, sep, high = text.strip().partition("-")
+    try:
+        lo = float(low) if low.strip() else None
+        hi = float(high) if high.strip() else None
+    except ValueError:
+        raise argparse.ArgumentTypeError(
+            f"expected a nominal depth range in inches such as 10-14, 12- or -14, got {text!r}"
+        ) from None
+    if not sep:
+        hi = lo
+    if lo is None and hi is None:
+        raise argparse.ArgumentTypeError("give at least one end of the depth range, e.g. 12-")
+    if any(v is not None and not v > 0 for v in (lo, hi)):
+        raise argparse.ArgumentTypeError(f"depths must be greater than zero, got {text!r}")
+    if lo is not None and hi is not None and lo > hi:
+        raise argparse.ArgumentTypeError(f"the range {text!r} runs backwards")
+    return lo, hi
+
+
+def run_suggest(args: argparse.Namespace) -> int:
     """Print a small table of the lightest passing sections; exit 1 when none passes."""
     system = UNIT_SYSTEMS[args.units]
     units = (system["force"], system["length"], system["stress"])
@@ -30,9 +58,13 @@ def run_select(args: argparse.Namespace) -> int:
     for name, v in (("--load", args.load), ("--length", args.length), ("--fy", args.fy)):
         if not v > 0:
             raise InputError(f"{name} must be greater than zero (got {v})")
+    if not args.utilization_limit > 0:
+        raise InputError("--utilization-limit must be greater than zero")
+    if not args.count >= 1:
+        raise InputError("--count must be at least 1")
+    min_depth, max_depth = args.depth
     try:
-        cand = candidate_indices(args.families, min_depth=args.min_depth,
-                                 max_depth=args.max_depth)
+        cand = candidate_indices(args.families, min_depth=min_depth, max_depth=max_depth)
     except ValueError as exc:
         raise InputError(str(exc)) from None
     if len(cand) == 0:
@@ -41,14 +73,14 @@ def run_select(args: argparse.Namespace) -> int:
     L = args.length * fL
     sug = select(
         np.array([args.load * fF]), one * args.fy * fS, one * args.kx * L, one * args.ky * L,
-        one * args.kz * L, cand, method=args.method, max_utilization=args.max_utilization,
+        one * args.kz * L, cand, method=args.method, max_utilization=args.utilization_limit,
         max_suggestions=args.count, E=E_DEFAULT, G=G_DEFAULT,
     )
     rows = sug.for_member(0, catalog.load_catalog())
     basis = (f"φc = {PHI_C}" if args.method == "LRFD" else f"Ωc = {OMEGA_C}")
     print(f"{args.method} ({basis}), Fy = {args.fy:g} {units[2]}, L = {args.length:g} "
           f"{units[1]} (K = {args.kx:g}/{args.ky:g}/{args.kz:g}), required {args.load:g} "
-          f"{units[0]}, utilization <= {args.max_utilization:g}")
+          f"{units[0]}, utilization <= {args.utilization_limit:g}")
     if not rows:
         print("no candidate passes; try other families or a larger depth")
         return EXIT_FAILURES
@@ -64,8 +96,11 @@ def run_select(args: argparse.Namespace) -> int:
 
 
 def add_parser(sub: argparse._SubParsersAction) -> None:
-    """Register ``select``."""
-    p = sub.add_parser("select", help="lightest catalog sections for one axial load")
+    """Register ``suggest``."""
+    p = sub.add_parser(
+        "suggest", help="lightest catalog sections for one axial load",
+        description="The lightest catalog sections whose available strength (AISC 360-22 "
+        "Chapter E) carries one required axial strength.")
     p.add_argument("--load", type=float, required=True,
                    help="required strength (factored for LRFD, service for ASD)")
     p.add_argument("--length", type=float, required=True, help="member length")
@@ -76,11 +111,11 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--kx", type=float, default=1.0)
     p.add_argument("--ky", type=float, default=1.0)
     p.add_argument("--kz", type=float, default=1.0)
-    p.add_argument("--max-utilization", type=float, default=1.0,
-                   help="reserve margin: suggestions pass at this utilization")
-    p.add_argument("--min-depth", type=float, help="smallest nominal depth, in")
-    p.add_argument("--max-depth", type=float, help="largest nominal depth, in")
+    p.add_argument("--utilization-limit", type=float, default=1.0, metavar="U",
+                   help="suggestions pass at this utilization or below (default 1.0)")
+    p.add_argument("--depth", type=depth_range, default=(None, None), metavar="RANGE",
+                   help="nominal depth range in inches: 10-14, 12- (and deeper), -14, 14")
     p.add_argument("--count", type=int, default=5, help="how many suggestions (default 5)")
     p.add_argument("--units", choices=["us", "si"], default="us",
                    help="us: kip, ft, ksi (default); si: kN, m, MPa")
-    p.set_defaults(func=run_select)
+    p.set_defaults(func=run_suggest)

@@ -9,8 +9,8 @@ from __future__ import annotations
 
 from collections import Counter
 
-from stanchion.service.baseline import format_changes, regressions
-from stanchion.service.report import format_summary
+from stanchion.service.reports.baseline import format_changes, regressions
+from stanchion.service.reports.report import format_summary
 
 ALL_STOREYS = 12  # up to this many storeys are all listed, in model order
 WORST_STOREYS = 10  # otherwise the worst ones, worst first

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from stanchion.service.terminal import format_run, storey_table, verdict, warnings
+from stanchion.service.reports.terminal import format_run, storey_table, verdict, warnings
 
 
 def _report(rows: list[tuple[str, str, float | None]]) -> dict:

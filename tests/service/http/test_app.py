@@ -14,13 +14,14 @@ from pathlib import Path
 import pytest
 from fastapi.testclient import TestClient
 
-from stanchion.service import app as app_mod
-from stanchion.service.app import create_app
 from stanchion.service.core import check_request
+from stanchion.service.http.app import create_app
+from stanchion.service.http.guard import Guard
+from stanchion.service.http.routes import checks as checks_route
+from stanchion.service.http.settings import Settings
 from stanchion.service.request import MembersRequest
-from stanchion.service.settings import Settings
 
-STUB = [sys.executable, str(Path(__file__).with_name("test_jobs_stub.py"))]
+STUB = [sys.executable, str(Path(__file__).parents[1] / "jobs" / "stub_worker.py")]
 TOKEN = "s3cret-token"
 
 MEMBER = {"id": "C-12", "section": "W14X48", "fy": 50, "length": 16,
@@ -297,7 +298,7 @@ def test_guard_counts_a_chunked_body_whatever_length_it_declares(tmp_path, decla
     if declared is not None:
         headers.append((b"content-length", declared))
     scope = {"type": "http", "path": "/v1/checks", "method": "POST", "headers": headers}
-    asyncio.run(app_mod.Guard(inner, settings)(scope, receive, send))
+    asyncio.run(Guard(inner, settings)(scope, receive, send))
     assert sent[0]["status"] == 413
     assert sum(read) <= 2 * 600  # stopped once past the 1,048-byte limit
 
@@ -381,7 +382,7 @@ def test_internal_errors_are_json_without_traceback(client, monkeypatch, caplog)
     def explode(req):
         raise RuntimeError("secret internals")
 
-    monkeypatch.setattr(app_mod, "check_request", explode)
+    monkeypatch.setattr(checks_route, "check_request", explode)
     r = client.post("/v1/checks", json={"members": [MEMBER]})
     assert r.status_code == 500
     assert r.json() == {"error": "internal error"}

@@ -56,7 +56,7 @@ def output_paths(model: Path, output_dir: Path) -> dict[str, Path]:
 def run_demo(args: argparse.Namespace) -> int:
     """Check the sample, write the outputs, print where they are and the summary."""
     from stanchion.service.model_check import check_model
-    from stanchion.service.terminal import format_run
+    from stanchion.service.reports.terminal import format_run
 
     model, table = sample_paths(args.sample, SAMPLE_DIR)
     output_dir = Path(args.output_dir)

@@ -15,14 +15,19 @@ from pathlib import Path
 
 from pydantic import ValidationError
 
-from stanchion.service.baseline import DEFAULT_THRESHOLD, compare, load_baseline, regressions
-from stanchion.service.cmd_select import family_list
+from stanchion.service.cli.suggest import family_list
 from stanchion.service.core import check_request
 from stanchion.service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
-from stanchion.service.outputs import write_outputs
 from stanchion.service.progress import Progress
+from stanchion.service.reports.baseline import (
+    DEFAULT_THRESHOLD,
+    compare,
+    load_baseline,
+    regressions,
+)
+from stanchion.service.reports.files import write_outputs
+from stanchion.service.reports.terminal import format_run, warnings
 from stanchion.service.request import MembersRequest
-from stanchion.service.terminal import format_run, warnings
 
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 FAIL_ON = ("any", "new-failures")
@@ -80,13 +85,13 @@ def _check_options(args: argparse.Namespace, is_model: bool) -> None:
             if value:
                 raise InputError(f"{option} applies to IFC models; a members file carries "
                                  "its own loads, units and candidates")
-    if args.max_utilization is not None and not args.max_utilization > 0:
-        raise InputError("--max-utilization must be greater than zero")
+    if args.utilization_limit is not None and not args.utilization_limit > 0:
+        raise InputError("--utilization-limit must be greater than zero")
     if args.oversized is not None and not args.oversized > 0:
         raise InputError("--oversized must be greater than zero")
-    if (args.max_utilization is not None or args.oversized is not None
+    if (args.utilization_limit is not None or args.oversized is not None
             or args.families) and not args.suggest:
-        raise InputError("--max-utilization, --oversized and --families go with --suggest")
+        raise InputError("--utilization-limit, --oversized and --families go with --suggest")
 
 
 def _check_members_file(path: Path, args: argparse.Namespace) -> dict:
@@ -170,7 +175,7 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     sug.add_argument("--suggest", action="store_true",
                      help="suggest the lightest adequate catalog section for failing columns "
                      "(SuggestedSection in the model, suggestions in the report)")
-    sug.add_argument("--max-utilization", type=float, metavar="U",
+    sug.add_argument("--utilization-limit", type=float, metavar="U",
                      help="suggestions must pass at this utilization (default 1.0)")
     sug.add_argument("--oversized", type=float, metavar="U",
                      help="also suggest for passing columns below this utilization")

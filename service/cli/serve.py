@@ -12,9 +12,9 @@ def run_serve(args: argparse.Namespace) -> int:
     """Read the settings from the environment and serve until interrupted."""
     import uvicorn
 
-    from stanchion.service.app import create_app
-    from stanchion.service.jobs import data_dir_in_use
-    from stanchion.service.settings import Settings
+    from stanchion.service.http.app import create_app
+    from stanchion.service.http.settings import Settings
+    from stanchion.service.jobs.store import data_dir_in_use
 
     settings = Settings.from_env()  # InputError names a bad variable -> exit 2
     try:

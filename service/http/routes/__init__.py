@@ -1,0 +1,1 @@
+"""One router per resource: health, checks, models (uploads), jobs, sections."""

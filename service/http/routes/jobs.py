@@ -1,0 +1,60 @@
+"""``/v1/jobs/{job_id}``: a model job's status, its outputs once done, and its deletion."""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+from fastapi import APIRouter
+from fastapi.responses import FileResponse, Response
+from starlette.exceptions import HTTPException
+
+from stanchion.service.http.dependencies import AUTH, JobDep, RunnerDep, StoreDep, result_file
+from stanchion.service.jobs.store import CSV_FILE, MODEL_OUT_FILE, REPORT_FILE
+
+router = APIRouter(tags=["models"], dependencies=AUTH)
+
+
+def _stem(filename: str) -> str:
+    stem = Path(filename).stem or "model"
+    return "".join(c if c.isalnum() or c in "-_." else "_" for c in stem)
+
+
+@router.get("/v1/jobs/{job_id}", summary="Job status")
+def job_status(job: JobDep) -> dict[str, Any]:
+    """The job's status (``queued``, ``running``, ``done``, ``failed`` with ``error``)."""
+    return job.public()
+
+
+@router.get("/v1/jobs/{job_id}/report",
+            summary="JSON report of a finished job (409 until it is done)")
+def job_report(job: JobDep, store: StoreDep) -> FileResponse:
+    """The job's JSON report."""
+    path = result_file(store, job, REPORT_FILE, "report")
+    return FileResponse(path, media_type="application/json")
+
+
+@router.get("/v1/jobs/{job_id}/model",
+            summary="The checked IFC model, with Stanchion_ColumnCheck property sets")
+def job_model(job: JobDep, store: StoreDep) -> FileResponse:
+    """The checked copy of the uploaded model."""
+    path = result_file(store, job, MODEL_OUT_FILE, "checked model")
+    return FileResponse(path, media_type="application/x-step",
+                        filename=f"{_stem(job.filename)}-checked.ifc")
+
+
+@router.get("/v1/jobs/{job_id}/csv", summary="CSV report of a finished job")
+def job_csv(job: JobDep, store: StoreDep) -> FileResponse:
+    """One CSV row per member."""
+    path = result_file(store, job, CSV_FILE, "CSV report")
+    return FileResponse(path, media_type="text/csv",
+                        filename=f"{_stem(job.filename)}-report.csv")
+
+
+@router.delete("/v1/jobs/{job_id}", status_code=204,
+               summary="Delete a job and its files (a running job is stopped first)")
+def job_delete(job_id: str, runner: RunnerDep) -> Response:
+    """Stop the job if it runs, then remove it and its files."""
+    if not runner.delete(job_id):
+        raise HTTPException(404, f"no job {job_id!r}")
+    return Response(status_code=204)

@@ -1,0 +1,112 @@
+"""``POST /v1/models``: upload an IFC model (and a load table) to be checked as a job."""
+
+from __future__ import annotations
+
+import json
+import shutil
+from pathlib import Path
+from typing import Any
+
+from fastapi import APIRouter, Request
+from fastapi.responses import JSONResponse
+from starlette.exceptions import HTTPException
+
+from stanchion.service.http.dependencies import AUTH, RunnerDep, SettingsDep, StoreDep
+from stanchion.service.http.errors import FieldError
+from stanchion.service.http.settings import Settings
+from stanchion.service.http.upload import UploadError, UploadTooLarge, boundary_of, receive_form
+from stanchion.service.jobs.runner import JobRunner
+from stanchion.service.jobs.store import PARAMS_FILE, JobStore
+
+MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
+
+router = APIRouter(tags=["models"], dependencies=AUTH)
+
+
+@router.post(
+    "/v1/models", status_code=202,
+    summary="Upload an IFC model to check; returns a job id",
+    openapi_extra={"requestBody": {"required": True, "content": {"multipart/form-data": {
+        "schema": {"type": "object", "required": ["file"], "properties": {
+            "file": {"type": "string", "format": "binary",
+                     "description": "IFC model (.ifc, .ifczip, .ifcxml)"},
+            "loads": {"type": "string", "format": "binary",
+                      "description": "optional CSV load table (design.md §5)"},
+            "design_method": {"type": "string", "enum": ["LRFD", "ASD"], "default": "LRFD"},
+        }}}}}},
+)
+async def upload_model(request: Request, settings: SettingsDep, store: StoreDep,
+                       runner: RunnerDep) -> JSONResponse:
+    """Receive the upload into a new job folder and queue the job."""
+    return await _receive_model(request, settings, store, runner)
+
+
+async def _receive_model(request: Request, settings: Settings, store: JobStore,
+                         runner: JobRunner) -> JSONResponse:
+    """Stream a multipart model upload into a new job folder and queue the job."""
+    try:
+        boundary = boundary_of(request.headers.get("content-type"))
+    except UploadError as exc:
+        raise HTTPException(415, str(exc)) from None
+    length = request.headers.get("content-length")
+    if length is not None and length.isdigit() and int(length) > settings.max_upload_bytes:
+        raise HTTPException(413, f"the upload is larger than {settings.max_upload_mb:g} MiB "
+                            "(STANCHION_MAX_UPLOAD_MB)")
+    store = store
+    job_id = store.new_id()
+    incoming = store.incoming_dir(job_id)
+    incoming.mkdir(parents=True)
+    try:
+        try:
+            parts = await receive_form(
+                request.stream(), boundary, incoming, max_bytes=settings.max_upload_bytes,
+                file_fields={"file", "loads"}, text_fields={"design_method"},
+            )
+        except UploadTooLarge:
+            raise HTTPException(413, f"the upload is larger than {settings.max_upload_mb:g} "
+                                "MiB (STANCHION_MAX_UPLOAD_MB)") from None
+        except UploadError as exc:
+            raise FieldError(422, str(exc), exc.field) from None
+        params = _job_params(parts, incoming)
+        (incoming / PARAMS_FILE).write_text(json.dumps(params), encoding="utf-8")
+        incoming.rename(store.job_dir(job_id))
+    except BaseException:
+        shutil.rmtree(incoming, ignore_errors=True)
+        raise
+    store.add(job_id, filename=params["filename"], design_method=params["design_method"],
+              has_loads=params["loads"] is not None)
+    runner.wake()
+    url = f"/v1/jobs/{job_id}"
+    return JSONResponse({"job_id": job_id, "status": "queued", "url": url},
+                        status_code=202, headers={"Location": url})
+
+
+def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
+    """Validate the received parts, give the files their job names, return job.json."""
+    model = parts.get("file")
+    if model is None:
+        raise FieldError(422, "field required (the IFC model)", "file")
+    filename = model.filename or "model.ifc"
+    suffix = Path(filename).suffix.lower()
+    if suffix not in MODEL_SUFFIXES:
+        raise FieldError(422, f"expected an IFC model ({', '.join(MODEL_SUFFIXES)}), "
+                          f"got {filename!r}", "file")
+    if model.size == 0:
+        raise FieldError(422, "the uploaded model is empty", "file")
+    method_part = parts.get("design_method")
+    method = (method_part.value or "LRFD").upper() if method_part else "LRFD"
+    if method not in ("LRFD", "ASD"):
+        raise FieldError(422, f"expected LRFD or ASD, got {method_part.value!r}",
+                          "design_method")
+    model.path.rename(folder / f"model{suffix}")
+    loads = parts.get("loads")
+    loads_name = None
+    if loads is not None and (loads.size > 0 or loads.filename):
+        if loads.size == 0:
+            raise FieldError(422, "the uploaded load table is empty", "loads")
+        loads.path.rename(folder / "loads.csv")
+        loads_name = "loads.csv"
+    elif loads is not None:  # an empty, unnamed part: a form field left blank
+        loads.path.unlink(missing_ok=True)
+    return {"model": f"model{suffix}", "filename": filename, "design_method": method,
+            "loads": loads_name, "loads_filename": loads.filename if loads_name else None}

@@ -1,0 +1,2 @@
+"""Model jobs: the job table and folders (:mod:`.store`), the dispatcher that runs them in
+worker processes (:mod:`.runner`) and the worker itself (:mod:`.worker`)."""
