@@ -1,8 +1,9 @@
 """Settings of the HTTP service, read from the environment when the app is built.
 
-Nothing is read at import time: :func:`service.app.create_app` takes a :class:`Settings`
-(tests build their own) or calls :meth:`Settings.from_env`; route handlers receive it through
-the :func:`get_settings` FastAPI dependency.
+Nothing is read at import time: :func:`stanchion.service.http.app.create_app` takes a
+:class:`Settings` (tests build their own) or calls :meth:`Settings.from_env` (pydantic-settings
+reads the ``STANCHION_`` variables); routes receive it through the
+:func:`stanchion.service.http.dependencies.get_settings` dependency.
 
 Environment variables (design.md §6):
 
@@ -22,24 +23,18 @@ from __future__ import annotations
 import os
 from collections.abc import Mapping
 from pathlib import Path
+from typing import Any
 
-from fastapi import Request
-from pydantic import BaseModel, ConfigDict, Field, ValidationError, field_validator
+from pydantic import Field, ValidationError, field_validator
+from pydantic_settings import BaseSettings, SettingsConfigDict
 
 from stanchion.service.errors import InputError
 
-#: Environment variable for each setting.
-ENV_NAMES: dict[str, str] = {
-    "api_token": "STANCHION_API_TOKEN",
-    "data_dir": "STANCHION_DATA_DIR",
-    "max_upload_mb": "STANCHION_MAX_UPLOAD_MB",
-    "job_timeout_s": "STANCHION_JOB_TIMEOUT_S",
-    "max_workers": "STANCHION_MAX_WORKERS",
-}
+ENV_PREFIX = "STANCHION_"
 
 
-class Settings(BaseModel):
-    """Service settings (immutable once built).
+class Settings(BaseSettings):
+    """Service settings (immutable once built), from ``STANCHION_*`` environment variables.
 
     Attributes:
         api_token: bearer token required on every endpoint but health; ``None``: no auth.
@@ -49,7 +44,7 @@ class Settings(BaseModel):
         max_workers: model jobs processed at the same time (one process each).
     """
 
-    model_config = ConfigDict(frozen=True, extra="forbid")
+    model_config = SettingsConfigDict(env_prefix=ENV_PREFIX, frozen=True, extra="forbid")
 
     api_token: str | None = None
     data_dir: Path = Path("stanchion-data")
@@ -68,23 +63,24 @@ class Settings(BaseModel):
         return int(self.max_upload_mb * 1024 * 1024)
 
     @classmethod
+    def env_name(cls, field: str) -> str:
+        """The environment variable of a setting."""
+        return f"{ENV_PREFIX}{field.upper()}"
+
+    @classmethod
     def from_env(cls, environ: Mapping[str, str] | None = None) -> Settings:
-        """Build the settings from ``environ`` (default ``os.environ``).
+        """Build the settings from the environment (or from ``environ``, for tests).
 
         Raises:
             InputError: a variable holds an unusable value; the message names the variable.
         """
         env = os.environ if environ is None else environ
-        values = {field: env[name] for field, name in ENV_NAMES.items() if name in env}
+        given: dict[str, Any] = {f: env[cls.env_name(f)] for f in cls.model_fields
+                                 if cls.env_name(f) in env}
         try:
-            return cls.model_validate(values)
+            return cls() if environ is None else cls.model_validate(given)
         except ValidationError as exc:
             err = exc.errors()[0]
             field = str(err["loc"][0]) if err["loc"] else ""
-            name = ENV_NAMES.get(field, field)
-            raise InputError(f"{name}={values.get(field)!r}: {err['msg']}") from None
-
-
-def get_settings(request: Request) -> Settings:
-    """FastAPI dependency: the settings the app was built with."""
-    return request.app.state.settings
+            name = cls.env_name(field) if field in cls.model_fields else field
+            raise InputError(f"{name}={given.get(field)!r}: {err['msg']}") from None
