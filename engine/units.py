@@ -11,7 +11,7 @@ import pint
 
 _UREG = pint.UnitRegistry()
 
-# Names accepted in requests (design.md §2) -> pint unit expressions.
+# Names accepted in requests (docs/design.md §2) -> pint unit expressions.
 FORCE_UNITS = {"kip": "kip", "kN": "kilonewton", "N": "newton", "lbf": "lbf", "MN": "meganewton"}
 LENGTH_UNITS = {"ft": "foot", "in": "inch", "m": "meter", "mm": "millimeter"}
 STRESS_UNITS = {"ksi": "ksi", "MPa": "megapascal", "psi": "psi", "Pa": "pascal"}

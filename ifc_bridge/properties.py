@@ -1,6 +1,6 @@
 """Property sets and quantities: finding them and reading typed numbers out of them.
 
-Our input property sets (design.md §5), on a column or on its element type -- for each
+Our input property sets (docs/design.md §5), on a column or on its element type -- for each
 property the occurrence's value wins over the type's:
 
 ``Stanchion_Design``

@@ -1,6 +1,6 @@
 """Results back into the model: one ``Stanchion_ColumnCheck`` property set per column.
 
-Every value is typed with its IFC measure type (design.md §5): ``Status`` IfcLabel, forces
+Every value is typed with its IFC measure type (docs/design.md §5): ``Status`` IfcLabel, forces
 IfcForceMeasure in the model's force unit, ratios IfcRatioMeasure, texts IfcText.  Nothing is
 left for a library to guess from a Python type.
 

@@ -251,7 +251,7 @@ def analysis_model(model: ifcopenshell.file, ref_ctx: Entity, building: Entity,
     top, tied to the column by IfcRelAssignsToProduct with the member relating) and, per load
     case, an IfcStructuralCurveReaction whose IfcStructuralLoadSingleForce ForceX is the
     member-local axial force, tension positive -- so a compression C is ForceX = -C
-    (design.md §5).  Reactions of one case are grouped in that case's
+    (docs/design.md §5).  Reactions of one case are grouped in that case's
     IfcStructuralResultGroup.
 
     Args:
@@ -298,7 +298,7 @@ def analysis_model(model: ifcopenshell.file, ref_ctx: Entity, building: Entity,
         for key, compression in forces[name].items():
             load = ifcopenshell.api.structural.add_structural_load(
                 model, name=f"{key} at base", ifc_class="IfcStructuralLoadSingleForce")
-            # member-local ForceX, tension positive: compression is negative (design.md §5)
+            # member-local ForceX, tension positive: compression is negative (docs/design.md §5)
             ifcopenshell.api.structural.edit_structural_load(
                 model, structural_load=load, attributes={"ForceX": -compression})
             reactions[key].append(ifcopenshell.api.structural.add_structural_activity(

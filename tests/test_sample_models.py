@@ -206,7 +206,7 @@ def test_workshop_fails_exactly_where_the_scenario_plants_problems():
         assert "no yield strength" in status[name]["reason"]
     for name in no_results:
         assert "no loads" in status[name]["reason"]
-    # A992 via Pset_MaterialSteel, A500 Gr C via the grade name (design.md §5 order)
+    # A992 via Pset_MaterialSteel, A500 Gr C via the grade name (docs/design.md §5 order)
     sources = {m["fy_source"] for n, m in status.items() if n not in planted_nc}
     assert sources == {"material", "grade"}
 

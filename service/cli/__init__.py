@@ -1,4 +1,4 @@
-"""The ``stanchion`` command line (design.md §4).  Thin: parse, call the pipeline, format.
+"""The ``stanchion`` command line (docs/design.md §4).  Thin: parse, call the pipeline, format.
 
 Each verb lives in its own module of this package (``check``, ``suggest``, ``serve``,
 ``demo``) exposing ``add_parser(subparsers)``

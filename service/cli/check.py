@@ -1,6 +1,6 @@
 """``stanchion check INPUT``: check a members JSON file or an IFC model.
 
-Exit codes (design.md §4): 0 every member passes; 1 any member fails or is not checked
+Exit codes (docs/design.md §4): 0 every member passes; 1 any member fails or is not checked
 (``--allow-not-checked``: not-checked members are warnings; ``--fail-on new-failures``: only
 regressions against ``--baseline`` count); 2 unusable input, one line on stderr, nothing
 written.

@@ -1,4 +1,4 @@
-"""``stanchion serve``: run the HTTP service (design.md §6) with uvicorn."""
+"""``stanchion serve``: run the HTTP service (docs/design.md §6) with uvicorn."""
 
 from __future__ import annotations
 

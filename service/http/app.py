@@ -1,4 +1,4 @@
-"""The HTTP service (design.md §6): the FastAPI app factory, all routes under ``/v1``.
+"""The HTTP service (docs/design.md §6): the FastAPI app factory, all routes under ``/v1``.
 
 Thin: a members request is checked at once (:mod:`.routes.checks`); a model upload becomes a
 job checked in a worker process (:mod:`.routes.models`, :mod:`stanchion.service.jobs`).

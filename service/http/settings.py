@@ -5,7 +5,7 @@ Nothing is read at import time: :func:`stanchion.service.http.app.create_app` ta
 reads the ``STANCHION_`` variables); routes receive it through the
 :func:`stanchion.service.http.dependencies.get_settings` dependency.
 
-Environment variables (design.md §6):
+Environment variables (docs/design.md §6):
 
 - ``STANCHION_API_TOKEN``: when set (non-empty), every endpoint but ``GET /v1/health``
   requires ``Authorization: Bearer <token>``.

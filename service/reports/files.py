@@ -2,7 +2,7 @@
 
 Every writer here goes through :func:`write_atomic`, so a reader of the target never sees a
 half-written file and a failure leaves the previous file (or none) in place.  The report dict
-(design.md §3) is the one source of the JSON, CSV and JUnit outputs.
+(docs/design.md §3) is the one source of the JSON, CSV and JUnit outputs.
 """
 
 from __future__ import annotations

@@ -1,4 +1,4 @@
-"""The JSON report (design.md §3): results table -> plain dict, in the request's units."""
+"""The JSON report (docs/design.md §3): results table -> plain dict, in the request's units."""
 
 from __future__ import annotations
 

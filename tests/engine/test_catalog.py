@@ -227,7 +227,7 @@ def test_hss_and_pipe_weight_uses_nominal_wall(frame):
 def test_radius_of_gyration_is_consistent_with_inertia_and_area(frame):
     # r = sqrt(I/A) of the tabulated values (definition); values have three significant
     # figures, measured ≤ 1.23 % except PIPE10STD, whose tabulated A = 11.5 does not go with
-    # its Ix and rx (−1.53 %; see CATALOG_PROVENANCE.md).
+    # its Ix and rx (−1.53 %; see engine/data/CATALOG_PROVENANCE.md).
     for axis in ("x", "y"):
         dev = np.abs(rel(np.sqrt(frame[f"I{axis}"] / frame["A"]), frame[f"r{axis}"]))
         assert set(frame["designation"][dev > 0.013]) == {"PIPE10STD"}
@@ -274,7 +274,8 @@ DIMENSION_TOLERANCE = {
     "ST": (0.03, 0.02),  # sloping flanges 2:12; A 2.89 %, r 1.13 %
     "C": (0.03, 0.02),  # sloping flanges 2:12; A 2.60 % (C4X4.5), r 1.35 %
 }  # MC are left out: their flange slopes differ from size to size and are not tabulated.
-# Pipes whose tabulated A is more than 2 % off the area of OD and tdes (CATALOG_PROVENANCE.md)
+# Pipes whose tabulated A is more than 2 % off the area of OD and tdes
+# (engine/data/CATALOG_PROVENANCE.md)
 IRREGULAR_PIPE_AREA = {"PIPE10STD", "PIPE12XS", "PIPE14XS", "PIPE16XS", "PIPE18XS", "PIPE20XS",
                        "PIPE24XS", "PIPE26XS", "PIPE12XXS"}  # fmt: skip
 

@@ -107,7 +107,7 @@ def test_the_first_reason_that_applies_is_given() -> None:
 
 
 def test_given_required_strength_replaces_the_combinations() -> None:
-    # A given (already factored) strength is used as is (design.md §2); the others still
+    # A given (already factored) strength is used as is (docs/design.md §2); the others still
     # combine D = 95, L = 60 kip to 210 kip (ASCE 7-22 §2.3.1 combination 2, by hand; its
     # Lr, S and R variants tie without roof loads and the first listed is named).
     r = check_members(_members(2, required_strength=np.array([250.0, np.nan])))

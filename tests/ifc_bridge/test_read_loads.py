@@ -256,7 +256,7 @@ def test_pset_loads(builder):
 
 
 def test_pset_loads_on_the_type_with_the_column_winning(builder):
-    # design.md §5: our input property sets are read on a column or its type; the
+    # docs/design.md §5: our input property sets are read on a column or its type; the
     # occurrence's value wins per property (common practice for IFC type/occurrence data).
     ctype = builder.column_type("CT1")
     builder.loads(ctype, D=40.0, L=20.0)

@@ -4,7 +4,7 @@ Uses the shared :class:`ModelBuilder` of ``tests/ifc_bridge/conftest.py`` (loade
 the service tests do not see that folder's fixtures).  Numbers are in kip / inch / ksi.
 
 The standard model: three W14X48 columns, Fy = 50 ksi (ASTM A992), 16 ft long --
-``C1`` on Level 1 with the design.md §2 loads (D 95, L 60, S 12 kip), ``C2`` on Level 2 with
+``C1`` on Level 1 with the docs/design.md §2 loads (D 95, L 60, S 12 kip), ``C2`` on Level 2 with
 D = 300 kip (1.4D = 420 kip > φcPn), ``C3`` on Level 2 without loads (not checked).
 """
 
@@ -34,7 +34,7 @@ def builder_module():
 
 # W14X48 dimensions from the AISC Shapes Database v16.0 (d, bf, tw, tf; inches).
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.34, "tf": 0.595, "r": 0.0}
-LENGTH = 192.0  # 16 ft, the design.md §2 example length
+LENGTH = 192.0  # 16 ft, the docs/design.md §2 example length
 LOADS = {"C1": {"D": 95.0, "L": 60.0, "S": 12.0}, "C2": {"D": 300.0}, "C3": None}
 
 

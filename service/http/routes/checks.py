@@ -52,7 +52,7 @@ def check_body(body: bytes) -> Response:
 
 @router.post(
     "/v1/checks",
-    summary="Check a members request (design.md §2) and return the report (§3)",
+    summary="Check a members request (docs/design.md §2) and return the report (§3)",
     openapi_extra={"security": [{"HTTPBearer": []}], "requestBody": {
         "required": True, "content": {"application/json": {"schema": {
             "$ref": "#/components/schemas/MembersRequest"}}}}},

@@ -31,7 +31,7 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
             "file": {"type": "string", "format": "binary",
                      "description": "IFC model (.ifc, .ifczip, .ifcxml)"},
             "loads": {"type": "string", "format": "binary",
-                      "description": "optional CSV load table (design.md §5)"},
+                      "description": "optional CSV load table (docs/design.md §5)"},
             "design_method": {"type": "string", "enum": ["LRFD", "ASD"], "default": "LRFD"},
         }}}}}},
 )

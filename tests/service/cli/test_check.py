@@ -26,7 +26,7 @@ def _request(**member) -> dict:
 
 
 def test_design_card_example_passes_and_writes_a_valid_report(tmp_path, capsys) -> None:
-    # design.md §2 example: W14X48, Fy = 50 ksi, 16 ft; 1.2(95) + 1.6(60) + 0.3(12) = 213.6
+    # docs/design.md §2 example: W14X48, Fy = 50 ksi, 16 ft; 1.2(95) + 1.6(60) + 0.3(12) = 213.6
     # kips (ASCE 7-22 §2.3.1 combination 2 with the 7-22 companion snow factor 0.3S, from
     # memory) against φcPn = 303 kips (AISC Manual Table 4-1a): utilization 0.705.
     out = tmp_path / "r.json"

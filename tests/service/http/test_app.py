@@ -25,7 +25,7 @@ STUB = [sys.executable, str(Path(__file__).parents[1] / "jobs" / "stub_worker.py
 TOKEN = "s3cret-token"
 
 MEMBER = {"id": "C-12", "section": "W14X48", "fy": 50, "length": 16,
-          "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # design.md §2 example
+          "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # docs/design.md §2 example
 
 
 def _client(tmp_path: Path, **settings) -> TestClient:
@@ -76,7 +76,7 @@ def test_checks_returns_the_core_report(client: TestClient) -> None:
     r = client.post("/v1/checks", json=body)
     assert r.status_code == 200
     report = r.json()
-    # the HTTP answer is the report of the shared core, unchanged (design.md §3)
+    # the HTTP answer is the report of the shared core, unchanged (docs/design.md §3)
     assert report == check_request(MembersRequest.model_validate(body))
     m = report["members"][0]
     assert m["id"] == "C-12" and m["section"] == "W14X48"
@@ -131,7 +131,7 @@ def test_checks_not_json(client: TestClient) -> None:
 def test_unusable_member_is_not_checked_others_are(client: TestClient) -> None:
     body = {"members": [MEMBER, {**MEMBER, "id": "C-13", "section": "W14X47"}]}
     r = client.post("/v1/checks", json=body)
-    assert r.status_code == 200  # design.md §2: well-formed but unusable -> not_checked
+    assert r.status_code == 200  # docs/design.md §2: well-formed but unusable -> not_checked
     status = {m["id"]: m["status"] for m in r.json()["members"]}
     assert status["C-13"] == "not_checked" and status["C-12"] != "not_checked"
 

@@ -32,7 +32,7 @@ def test_serve_defaults_and_settings_from_env(clean_env, monkeypatch) -> None:
     monkeypatch.setenv("STANCHION_API_TOKEN", "tok")
     monkeypatch.setenv("STANCHION_MAX_UPLOAD_MB", "5")
     assert main(["serve"]) == 0
-    assert (seen["host"], seen["port"]) == ("127.0.0.1", 8000)  # design.md §4 defaults
+    assert (seen["host"], seen["port"]) == ("127.0.0.1", 8000)  # docs/design.md §4 defaults
     s: Settings = seen["settings"]
     assert s.api_token == "tok" and s.max_upload_mb == 5 and s.max_upload_bytes == 5 * 2**20
     assert s.data_dir == Path("stanchion-data") and s.job_timeout_s == 600

@@ -30,7 +30,7 @@ HAVE_MODEL_CHECK = importlib.util.find_spec("stanchion.service.model_check") is 
 needs_model_check = pytest.mark.skipif(not HAVE_MODEL_CHECK,
                                        reason="stanchion.service.model_check not available yet")
 MEMBER = {"id": "C-12", "section": "W14X48", "fy": 50, "length": 16,
-          "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # design.md §2 example
+          "loads": {"D": 95.0, "L": 60.0, "S": 12.0}}  # docs/design.md §2 example
 TOKEN = "e2e-token"
 
 
