@@ -161,6 +161,19 @@ def test_ifc_model_report_with_not_checked_columns_and_changes(tmp_path: Path) -
     _validate(json.loads((tmp_path / "report.json").read_text(encoding="utf-8")))
 
 
+@pytest.mark.parametrize(("model", "loads"), [
+    ("workshop_annex.ifc", None), ("garden_pavilion.ifc", "garden_pavilion_loads.csv")])
+def test_sample_model_reports(model: str, loads: str | None) -> None:
+    # The demo models (sample_models/README.md): analysis loads, a load table, W and HSS
+    # columns, failing and not-checked ones on purpose.
+    folder = ROOT / "sample_models"
+    report = check_model(folder / model, loads_table=folder / loads if loads else None,
+                         suggest=True, oversized=0.5, checked_at=None)
+    assert report["summary"]["members"] == len(report["members"]) > 0
+    assert report["source"]["loads_table"] == loads  # the table given, by name
+    _validate(report)
+
+
 # ------------------------------------------------------------------------------ refusals
 
 
