@@ -20,7 +20,7 @@ from pathlib import Path
 from stanchion.service.errors import EXIT_OK, InputError
 
 #: The repository checkout this package sits in (editable install).
-CHECKOUT = Path(__file__).resolve().parents[1]
+CHECKOUT = Path(__file__).resolve().parents[2]  # service/cli/demo.py -> the checkout
 SAMPLE_DIR = CHECKOUT / "sample_models"
 #: Sample name -> (model file, load table or None), inside :data:`SAMPLE_DIR`.
 SAMPLES: dict[str, tuple[str, str | None]] = {

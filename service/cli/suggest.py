@@ -7,6 +7,7 @@ required strength typed at the terminal; ``--depth`` limits the nominal depth, i
 from __future__ import annotations
 
 import argparse
+import math
 
 import numpy as np
 
@@ -55,9 +56,11 @@ def run_suggest(args: argparse.Namespace) -> int:
     system = UNIT_SYSTEMS[args.units]
     units = (system["force"], system["length"], system["stress"])
     fF, fL, fS = force_factor(units[0]), length_factor(units[1]), stress_factor(units[2])
-    for name, v in (("--load", args.load), ("--length", args.length), ("--fy", args.fy)):
-        if not v > 0:
-            raise InputError(f"{name} must be greater than zero (got {v})")
+    for name, v in (("--load", args.load), ("--length", args.length), ("--fy", args.fy),
+                    ("--kx", args.kx), ("--ky", args.ky), ("--kz", args.kz)):
+        # K = 0 would rate every section at its squash load; no number is taken on trust.
+        if not (math.isfinite(v) and v > 0):
+            raise InputError(f"{name} must be a number greater than zero (got {v:g})")
     if not args.utilization_limit > 0:
         raise InputError("--utilization-limit must be greater than zero")
     if not args.count >= 1:
@@ -104,13 +107,17 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     p.add_argument("--load", type=float, required=True,
                    help="required strength (factored for LRFD, service for ASD)")
     p.add_argument("--length", type=float, required=True, help="member length")
-    p.add_argument("--fy", type=float, default=50.0, help="yield stress (default 50 ksi)")
+    p.add_argument("--fy", type=float, required=True,
+                   help="yield stress in the stress unit of --units (ksi or MPa)")
     p.add_argument("--families", type=family_list, default=["W"],
                    help="comma-separated families or designations, e.g. W10,W12,HSS")
     p.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"], default="LRFD")
-    p.add_argument("--kx", type=float, default=1.0)
-    p.add_argument("--ky", type=float, default=1.0)
-    p.add_argument("--kz", type=float, default=1.0)
+    p.add_argument("--kx", type=float, default=1.0,
+                   help="effective length factor, x (major) axis (default 1.0)")
+    p.add_argument("--ky", type=float, default=1.0,
+                   help="effective length factor, y (minor) axis (default 1.0)")
+    p.add_argument("--kz", type=float, default=1.0,
+                   help="effective length factor, torsion (default 1.0)")
     p.add_argument("--utilization-limit", type=float, default=1.0, metavar="U",
                    help="suggestions pass at this utilization or below (default 1.0)")
     p.add_argument("--depth", type=depth_range, default=(None, None), metavar="RANGE",

@@ -1,2 +1,5 @@
-"""The HTTP front end: app factory (:mod:`.app`), one router per resource (:mod:`.routes`),
-guard, error body, settings and multipart upload."""
+"""The HTTP front end.
+
+The app factory (:mod:`.app`), one router per resource (:mod:`.routes`), the guard, the
+error body, the settings and the multipart upload.
+"""

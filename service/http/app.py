@@ -84,9 +84,12 @@ def create_app(settings: Settings | None = None, *,
 
 
 def _warm_up() -> None:
-    """Load the catalog and default combinations once, then keep the long-lived objects out
-    of the garbage collector's generations (gc.freeze) and collect the young generation less
-    often (:data:`GC_YOUNG_THRESHOLD`), so requests do not pay for either."""
+    """Load the catalog and default combinations once, before the first request.
+
+    Then keep the long-lived objects out of the garbage collector's generations (gc.freeze)
+    and collect the young generation less often (:data:`GC_YOUNG_THRESHOLD`), so requests
+    do not pay for either.
+    """
     catalog.load_catalog()
     catalog.designations()
     for method in ("LRFD", "ASD"):
@@ -105,5 +108,24 @@ def _openapi(app: FastAPI) -> dict[str, Any]:
         components = schema.setdefault("components", {}).setdefault("schemas", {})
         components.update(request.pop("$defs", {}))
         components["MembersRequest"] = request
+        _errors_are_error_bodies(schema)
         app.openapi_schema = schema
     return app.openapi_schema
+
+
+def _errors_are_error_bodies(schema: dict[str, Any]) -> None:
+    """Replace FastAPI's default 422 (its own validation body) by ours, where it can occur.
+
+    Every route that reads a body or a query declares its 422 with the error body; the
+    default FastAPI adds for a path parameter (a job id is any string) never occurs.
+    """
+    default = "#/components/schemas/HTTPValidationError"
+    for operations in schema.get("paths", {}).values():
+        for operation in operations.values():
+            answer = operation.get("responses", {}).get("422", {})
+            content = answer.get("content", {}).get("application/json", {})
+            if content.get("schema", {}).get("$ref") == default:
+                del operation["responses"]["422"]
+    components = schema.get("components", {}).get("schemas", {})
+    for name in ("HTTPValidationError", "ValidationError"):
+        components.pop(name, None)

@@ -1,5 +1,8 @@
-"""What the routes share: the settings, the job store and runner, a job by id, and the bearer
-scheme as OpenAPI documents it (:class:`stanchion.service.http.guard.Guard` enforces it)."""
+"""What the routes share.
+
+The settings, the job store and runner, a job by id, and the bearer scheme as OpenAPI
+documents it (:class:`stanchion.service.http.guard.Guard` enforces it).
+"""
 
 from __future__ import annotations
 

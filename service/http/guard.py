@@ -96,8 +96,11 @@ class Guard:
 
 
 def _content_length(scope: Scope) -> int | None:
-    """The declared body length; None when there is none, it is not a number, or the body is
-    also declared chunked (then the length does not frame it)."""
+    """The declared body length.
+
+    None when there is none, it is not a number, or the body is also declared chunked (then
+    the length does not frame it).
+    """
     length = None
     for name, value in scope.get("headers", []):
         if name == b"transfer-encoding":

@@ -15,6 +15,8 @@ from pydantic import ValidationError
 from stanchion.service.core import check_request
 from stanchion.service.errors import InputError
 from stanchion.service.http.errors import error_response, invalid_response
+from stanchion.service.http.responses import errors
+from stanchion.service.report_model import Report
 from stanchion.service.request import MembersRequest
 
 #: Members requests up to this size are checked on the event loop (see :func:`checks`).
@@ -22,8 +24,10 @@ INLINE_CHECK_BYTES = 32 * 1024
 
 
 class DirectRoute(APIRoute):
-    """A documented route whose endpoint is called with the request and returns the response
-    (FastAPI's "custom APIRoute class" hook): no dependency or parameter solving."""
+    """A documented route whose endpoint takes the request and returns the response.
+
+    FastAPI's "custom APIRoute class" hook: no dependency or parameter solving.
+    """
 
     def get_route_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
         """The endpoint itself."""
@@ -53,6 +57,8 @@ def check_body(body: bytes) -> Response:
 @router.post(
     "/v1/checks",
     summary="Check a members request (docs/design.md §2) and return the report (§3)",
+    response_model=Report,
+    responses=errors(401, 413, 422),
     openapi_extra={"security": [{"HTTPBearer": []}], "requestBody": {
         "required": True, "content": {"application/json": {"schema": {
             "$ref": "#/components/schemas/MembersRequest"}}}}},

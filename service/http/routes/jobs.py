@@ -10,9 +10,14 @@ from fastapi.responses import FileResponse, Response
 from starlette.exceptions import HTTPException
 
 from stanchion.service.http.dependencies import AUTH, JobDep, RunnerDep, StoreDep, result_file
+from stanchion.service.http.responses import download, errors, report_download
 from stanchion.service.jobs.store import CSV_FILE, MODEL_OUT_FILE, REPORT_FILE
+from stanchion.service.report_model import JobStatus
 
 router = APIRouter(tags=["models"], dependencies=AUTH)
+
+#: Media type of a checked model (IFC-SPF, ISO 10303-21).
+IFC_MEDIA_TYPE = "application/x-step"
 
 
 def _stem(filename: str) -> str:
@@ -20,13 +25,15 @@ def _stem(filename: str) -> str:
     return "".join(c if c.isalnum() or c in "-_." else "_" for c in stem)
 
 
-@router.get("/v1/jobs/{job_id}", summary="Job status")
+@router.get("/v1/jobs/{job_id}", response_model=JobStatus, responses=errors(401, 404),
+            summary="Job status")
 def job_status(job: JobDep) -> dict[str, Any]:
     """The job's status (``queued``, ``running``, ``done``, ``failed`` with ``error``)."""
     return job.public()
 
 
-@router.get("/v1/jobs/{job_id}/report",
+@router.get("/v1/jobs/{job_id}/report", response_class=FileResponse,
+            responses={**report_download("the job's JSON report"), **errors(401, 404, 409)},
             summary="JSON report of a finished job (409 until it is done)")
 def job_report(job: JobDep, store: StoreDep) -> FileResponse:
     """The job's JSON report."""
@@ -34,16 +41,21 @@ def job_report(job: JobDep, store: StoreDep) -> FileResponse:
     return FileResponse(path, media_type="application/json")
 
 
-@router.get("/v1/jobs/{job_id}/model",
+@router.get("/v1/jobs/{job_id}/model", response_class=FileResponse,
+            responses={**download(IFC_MEDIA_TYPE, "the checked model (IFC-SPF)"),
+                       **errors(401, 404, 409)},
             summary="The checked IFC model, with Stanchion_ColumnCheck property sets")
 def job_model(job: JobDep, store: StoreDep) -> FileResponse:
     """The checked copy of the uploaded model."""
     path = result_file(store, job, MODEL_OUT_FILE, "checked model")
-    return FileResponse(path, media_type="application/x-step",
+    return FileResponse(path, media_type=IFC_MEDIA_TYPE,
                         filename=f"{_stem(job.filename)}-checked.ifc")
 
 
-@router.get("/v1/jobs/{job_id}/csv", summary="CSV report of a finished job")
+@router.get("/v1/jobs/{job_id}/csv", response_class=FileResponse,
+            responses={**download("text/csv", "one row per member", binary=False),
+                       **errors(401, 404, 409)},
+            summary="CSV report of a finished job")
 def job_csv(job: JobDep, store: StoreDep) -> FileResponse:
     """One CSV row per member."""
     path = result_file(store, job, CSV_FILE, "CSV report")
@@ -51,7 +63,7 @@ def job_csv(job: JobDep, store: StoreDep) -> FileResponse:
                         filename=f"{_stem(job.filename)}-report.csv")
 
 
-@router.delete("/v1/jobs/{job_id}", status_code=204,
+@router.delete("/v1/jobs/{job_id}", status_code=204, responses=errors(401, 404),
                summary="Delete a job and its files (a running job is stopped first)")
 def job_delete(job_id: str, runner: RunnerDep) -> Response:
     """Stop the job if it runs, then remove it and its files."""

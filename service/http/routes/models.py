@@ -13,10 +13,12 @@ from starlette.exceptions import HTTPException
 
 from stanchion.service.http.dependencies import AUTH, RunnerDep, SettingsDep, StoreDep
 from stanchion.service.http.errors import FieldError
+from stanchion.service.http.responses import errors
 from stanchion.service.http.settings import Settings
 from stanchion.service.http.upload import UploadError, UploadTooLarge, boundary_of, receive_form
 from stanchion.service.jobs.runner import JobRunner
 from stanchion.service.jobs.store import PARAMS_FILE, JobStore
+from stanchion.service.report_model import JobAccepted
 
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 
@@ -24,7 +26,8 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
 
 
 @router.post(
-    "/v1/models", status_code=202,
+    "/v1/models", status_code=202, response_model=JobAccepted,
+    responses=errors(401, 413, 415, 422),
     summary="Upload an IFC model to check; returns a job id",
     openapi_extra={"requestBody": {"required": True, "content": {"multipart/form-data": {
         "schema": {"type": "object", "required": ["file"], "properties": {

@@ -13,6 +13,8 @@ from stanchion.engine import catalog
 from stanchion.engine.sections import Kind
 from stanchion.service.http.dependencies import AUTH
 from stanchion.service.http.errors import FieldError
+from stanchion.service.http.responses import errors
+from stanchion.service.report_model import SectionList
 
 router = APIRouter(tags=["catalog"], dependencies=AUTH)
 
@@ -51,7 +53,9 @@ def list_sections(family: str | None) -> dict[str, Any]:
             "sections": shapes}
 
 
-@router.get("/v1/sections",
+@router.get("/v1/sections", response_model=SectionList,
+            responses=errors(401, 404, 422, _404="the family selects no catalog shape",
+                             _422="not a family, family with depth or designation"),
             summary="Catalog shapes (AISC Shapes Database v16.0) with key properties")
 def sections(family: Annotated[str | None, Query(
         max_length=40, description="family (W, HSS, PIPE ...), family with nominal depth "

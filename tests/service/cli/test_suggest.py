@@ -14,8 +14,8 @@ from stanchion.service.reports.report import report_schema
 def test_suggest_prints_the_lightest_sections(capsys) -> None:
     # AISC Manual Table 4-1a read-offs at Lc = 16 ft, Fy = 50 ksi, LRFD: W14X48 303 kips,
     # W12X45 290 kips -> for 295 kips among W12/W14 the W14X48 comes first.
-    code = main(["suggest", "--load", "295", "--length", "16", "--families", "W12,W14",
-                 "--count", "3"])
+    code = main(["suggest", "--load", "295", "--length", "16", "--fy", "50",
+                 "--families", "W12,W14", "--count", "3"])
     out = capsys.readouterr().out
     assert code == 0
     table = [line.split() for line in out.splitlines() if line.startswith("W")]
@@ -28,12 +28,14 @@ def test_suggest_prints_the_lightest_sections(capsys) -> None:
 def test_suggest_without_a_passing_section_exits_1(capsys) -> None:
     # 5,000 kips exceeds the squash load 0.9·50·A of every W8 (largest A = 19.7 in², W8X67,
     # Shapes Database v16.0: 0.9·50·19.7 = 887 kips).
-    assert main(["suggest", "--load", "5000", "--length", "10", "--families", "W8"]) == 1
+    assert main(["suggest", "--load", "5000", "--length", "10", "--fy", "50",
+                 "--families", "W8"]) == 1
     assert "no candidate passes" in capsys.readouterr().out
 
 
 def test_suggest_bad_family_exits_2(capsys) -> None:
-    assert main(["suggest", "--load", "100", "--length", "10", "--families", "Q7"]) == 2
+    assert main(["suggest", "--load", "100", "--length", "10", "--fy", "50",
+                 "--families", "Q7"]) == 2
     assert capsys.readouterr().err.startswith("stanchion: ")
 
 
@@ -82,12 +84,13 @@ def test_member_without_length_gets_no_suggestion(tmp_path) -> None:
 def test_suggest_depth_range_limits_the_nominal_depth(capsys) -> None:
     # Same demand as above among all W shapes, nominal depths 12 to 14 in only: every printed
     # section is a W12, W13 or W14 (nominal depth = the number after W; common practice).
-    assert main(["suggest", "--load", "295", "--length", "16", "--depth", "12-14",
+    assert main(["suggest", "--load", "295", "--length", "16", "--fy", "50", "--depth", "12-14",
                  "--count", "10"]) == 0
     names = [line.split()[0] for line in capsys.readouterr().out.splitlines()
              if line.startswith("W")]
     assert names and all(12 <= int(n[1:].split("X")[0]) <= 14 for n in names)
-    assert main(["suggest", "--load", "295", "--length", "16", "--depth", "14"]) == 0
+    assert main(["suggest", "--load", "295", "--length", "16", "--fy", "50",
+                 "--depth", "14"]) == 0
     names = [line.split()[0] for line in capsys.readouterr().out.splitlines()
              if line.startswith("W")]
     assert names and all(n.startswith("W14X") for n in names)
@@ -106,17 +109,34 @@ def test_depth_range_forms(text: str, expected: tuple) -> None:
 @pytest.mark.parametrize("bad", ["14-10", "-", "a-b", "0-4", ""])
 def test_bad_depth_range_exits_2(bad: str, capsys) -> None:
     with pytest.raises(SystemExit) as exc:
-        main(["suggest", "--load", "100", "--length", "10", "--depth", bad])
+        main(["suggest", "--load", "100", "--length", "10", "--fy", "50", "--depth", bad])
     assert exc.value.code == 2
     assert "--depth" in capsys.readouterr().err
 
 
-@pytest.mark.parametrize("old", [["select", "--load", "100", "--length", "10"],
-                                 ["suggest", "--load", "100", "--length", "10",
+@pytest.mark.parametrize("old", [["select", "--load", "100", "--length", "10", "--fy", "50"],
+                                 ["suggest", "--load", "100", "--length", "10", "--fy", "50",
                                   "--min-depth", "10"],
-                                 ["suggest", "--load", "100", "--length", "10",
+                                 ["suggest", "--load", "100", "--length", "10", "--fy", "50",
                                   "--max-utilization", "0.9"]])
 def test_old_verb_and_options_are_gone(old: list[str]) -> None:
     with pytest.raises(SystemExit) as exc:  # no alias: nobody depends on them yet
         main(old)
+    assert exc.value.code == 2
+
+
+@pytest.mark.parametrize("option, value", [("--kx", "0"), ("--ky", "-1"), ("--kz", "nan"),
+                                           ("--fy", "0"), ("--load", "inf")])
+def test_suggest_refuses_unusable_numbers(option: str, value: str, capsys) -> None:
+    # K = 0 gives Lc = 0 and would rate every shape at its squash load (AISC 360-22 E3-2 at
+    # Lc/r = 0): refused with one line naming the option, like every other bad number.
+    args = {"--load": "100", "--length": "10", "--fy": "50", option: value}
+    assert main(["suggest", *[x for kv in args.items() for x in kv]]) == 2
+    err = capsys.readouterr().err
+    assert err.startswith("stanchion: ") and option in err
+
+
+def test_suggest_needs_the_yield_stress() -> None:
+    with pytest.raises(SystemExit) as exc:  # no default: 50 would mean ksi or MPa by --units
+        main(["suggest", "--load", "100", "--length", "10"])
     assert exc.value.code == 2
