@@ -8,7 +8,15 @@ EXIT_OK, EXIT_FAILURES, EXIT_BAD_INPUT = 0, 1, 2
 
 
 class InputError(Exception):
-    """Unusable input: the message is one line naming the problem (CLI exit code 2)."""
+    """Unusable input: the message is one line naming the problem (CLI exit code 2).
+
+    Attributes:
+        field: the request field at fault, dotted (``combinations.1.name``), when one is.
+    """
+
+    def __init__(self, message: str, field: str | None = None) -> None:
+        super().__init__(message)
+        self.field = field
 
 
 def validation_message(exc: ValidationError) -> str:

@@ -50,7 +50,8 @@ def check_body(body: bytes) -> Response:
     try:
         report = check_request(req)
     except InputError as exc:
-        return error_response(422, str(exc))
+        return error_response(422, f"invalid request: {exc}",
+                              details=[{"loc": exc.field or "request", "msg": str(exc)}])
     return Response(orjson.dumps(report), media_type="application/json")
 
 

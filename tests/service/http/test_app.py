@@ -101,6 +101,11 @@ def test_checks_malformed_body_names_the_fields(client: TestClient) -> None:
     ({"members": [MEMBER, MEMBER]}, "request"),  # repeated ids: a whole-request rule
     ({"members": [{**MEMBER, "loads": {"D": 10, "T": 5}}]}, "members.0.loads.T"),  # no type T
     ({"members": [{**MEMBER, "loads": {"D": "heavy"}}]}, "members.0.loads.D"),
+    # a rule checked after validation: repeated combination names (the error body still
+    # names the field)
+    ({"members": [MEMBER], "combinations": [{"name": "x", "factors": {"D": 1}},
+                                           {"name": "x", "factors": {"D": 2}}]},
+     "combinations"),
 ])
 def test_checks_refuses_malformed_requests_as_a_whole(client, payload, loc) -> None:
     r = client.post("/v1/checks", json=payload)
