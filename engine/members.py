@@ -11,14 +11,14 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.sections import SectionTable
 
 # Order of the load-type columns of MemberTable.loads (design.md §2).  W and E are reversible.
 LOAD_TYPES: tuple[str, ...] = ("D", "L", "Lr", "S", "R", "W", "E")
 REVERSIBLE: tuple[str, ...] = ("W", "E")
 
-E_DEFAULT = 29000.0  # ksi, AISC 360-22 (modulus of elasticity of steel)
-G_DEFAULT = 11200.0  # ksi, AISC 360-22 (shear modulus of steel)
+__all__ = ["E_DEFAULT", "G_DEFAULT", "LOAD_TYPES", "REVERSIBLE", "MemberTable"]
 
 
 @dataclass

@@ -1,0 +1,246 @@
+"""Steel materials: moduli, minimum yield stress by grade, and the product standard named.
+
+Every reader (members JSON, IFC) matches grade names here; nothing else holds a grade table.
+
+Moduli: E = 29,000 ksi (AISC 360-22 §E3, "modulus of elasticity of steel") and G = 11,200 ksi
+(AISC 360-22 §E4, "shear modulus of elasticity of steel"); a request may override both.
+
+Yield stress by grade: each row cites the material specification that fixes the value; the
+ASTM values are the specified minimum yield stresses also listed in the AISC Steel
+Construction Manual, 16th ed., Table 2-4.  EN grades depend on the nominal element thickness
+t; the two bands of EN 1993-1-1:2005 Table 3.1 are used (t <= 40 mm, 40 mm < t <= 80 mm), with
+t the thickest element of the section; Table 3.1 gives EN 10219 (cold-formed hollow sections)
+values for t <= 40 mm only.  Thicker elements get no value (the member is not checked).
+
+Matching is on the upper-cased name, e.g. ``"ASTM A992"``, ``"A572 Gr. 50"``, ``"A572-50"``,
+``"A500 Grade C"``, ``"S355JR"``, ``"EN 10025-2 S275J0"``, ``"S355J2H EN 10210"``.  A grade
+without its required grade letter / number (``"A572"``, ``"A500"``) gives no yield stress (but
+still names its product standard, see :func:`product_standard`).  When a name matches several
+rows with different values (dual certification), the lowest value is used and noted.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass
+from functools import lru_cache
+
+from stanchion.engine.units import factor
+
+#: Modulus of elasticity of steel, ksi (AISC 360-22 §E3: E = 29,000 ksi).
+E_DEFAULT = 29000.0
+#: Shear modulus of elasticity of steel, ksi (AISC 360-22 §E4: G = 11,200 ksi).
+G_DEFAULT = 11200.0
+
+_GR = r"(?:[\s\-/.]*(?:GR(?:ADE)?)?[\s.\-]*)"
+
+#: Families whose yield stress follows the round-HSS value of ASTM A500.
+_ROUND = ("HSS_ROUND", "PIPE")
+
+
+@dataclass(frozen=True)
+class Grade:
+    """One grade row.
+
+    Attributes:
+        name: display name (``"ASTM A572 Gr 50"``).
+        pattern: regular expression on the upper-cased material name.
+        source: the specification (and table) the value comes from.
+        fy: minimum yield stress, ksi, for every shape (None: see the other fields).
+        fy_round, fy_rect: ksi for round and for rectangular (shaped) HSS (ASTM A500).
+        bands_mpa: ((t_max_mm, fy_MPa), ...) thickness bands (EN grades).
+    """
+
+    name: str
+    pattern: str
+    source: str
+    fy: float | None = None
+    fy_round: float | None = None
+    fy_rect: float | None = None
+    bands_mpa: tuple[tuple[float, float], ...] = ()
+
+
+def _astm_numbered(spec: str, grades: tuple[int, ...], source: str) -> list[Grade]:
+    return [
+        Grade(f"ASTM {spec} Gr {g}", rf"\b{spec[0]}\s?{spec[1:]}M?\b{_GR}{g}\b",
+              f"{source}, Grade {g}: Fy = {g} ksi min.", fy=float(g))
+        for g in grades
+    ]
+
+
+_EN_BANDS = "EN 1993-1-1:2005 Table 3.1 (t <= 40 mm / 40 < t <= 80 mm)"
+
+
+def _en(g: int, bands: tuple[tuple[float, float], ...]) -> Grade:
+    return Grade(f"EN S{g}", rf"\bS\s?{g}[A-Z0-9+]*\b",
+                 f"EN 10025-2 S{g} (and S{g}H of EN 10210-1 / EN 10219-1); fy per {_EN_BANDS}",
+                 bands_mpa=bands)
+
+
+GRADES: tuple[Grade, ...] = (
+    Grade("ASTM A992", r"\bA\s?992M?\b", "ASTM A992/A992M: Fy = 50 ksi min.", fy=50.0),
+    Grade("ASTM A36", r"\bA\s?36M?\b", "ASTM A36/A36M (shapes): Fy = 36 ksi min.", fy=36.0),
+    *_astm_numbered("A572", (42, 50, 55, 60, 65), "ASTM A572/A572M"),
+    *_astm_numbered("A913", (50, 60, 65, 70), "ASTM A913/A913M"),
+    Grade("ASTM A500 Gr B", rf"\bA\s?500M?\b{_GR}B\b",
+          "ASTM A500/A500M Grade B: Fy = 42 ksi round, 46 ksi rectangular, min.",
+          fy_round=42.0, fy_rect=46.0),
+    Grade("ASTM A500 Gr C", rf"\bA\s?500M?\b{_GR}C\b",
+          "ASTM A500/A500M Grade C: Fy = 46 ksi round, 50 ksi rectangular, min.",
+          fy_round=46.0, fy_rect=50.0),
+    Grade("ASTM A1085", r"\bA\s?1085M?\b", "ASTM A1085/A1085M: Fy = 50 ksi min.", fy=50.0),
+    Grade("ASTM A53 Gr B", rf"\bA\s?53M?\b{_GR}B\b", "ASTM A53/A53M Grade B: Fy = 35 ksi min.",
+          fy=35.0),
+    *(_en(g, bands) for g, bands in (
+        (235, ((40.0, 235.0), (80.0, 215.0))),
+        (275, ((40.0, 275.0), (80.0, 255.0))),
+        (355, ((40.0, 355.0), (80.0, 335.0))),
+    )),
+    Grade("EN S460", r"\bS\s?460[A-Z0-9+]*\b",
+          "EN 10025-3 S460N/NL, EN 10025-4 S460M/ML (and S460NH/MH of EN 10210-1 / "
+          f"EN 10219-1); fy per {_EN_BANDS}",
+          bands_mpa=((40.0, 460.0), (80.0, 430.0))),
+)
+
+
+@dataclass(frozen=True)
+class Standard:
+    """A product standard a material name can name.
+
+    Attributes:
+        name: display name (``"ASTM A500"``); what :func:`product_standard` returns.
+        pattern: regular expression on the upper-cased text.
+        tube: how tubes of this standard take their design wall (see
+            :func:`engine.tubes.design_wall`): ``"erw"`` (0.93 x nominal), ``"nominal"``, or
+            ``""`` (not a tube standard).
+        max_en_thickness_mm: EN grades: the thickest element Table 3.1 gives values for.
+    """
+
+    name: str
+    pattern: str
+    tube: str = ""
+    max_en_thickness_mm: float = 80.0
+
+
+STANDARDS: tuple[Standard, ...] = (
+    Standard("ASTM A500", r"\bA\s?500M?\b", tube="erw"),
+    Standard("ASTM A53", r"\bA\s?53M?\b", tube="erw"),
+    Standard("ASTM A1085", r"\bA\s?1085M?\b", tube="nominal"),
+    Standard("ASTM A1065", r"\bA\s?1065M?\b", tube="nominal"),
+    Standard("EN 10210", r"\bEN\s?10210(?:-[12])?\b", tube="nominal"),
+    Standard("EN 10219", r"\bEN\s?10219(?:-[12])?\b", tube="nominal", max_en_thickness_mm=40.0),
+    Standard("EN 10025", r"\bEN\s?10025(?:-[1-6])?\b"),
+    # A hollow-section grade (EN 10210 / EN 10219 name their grades with a final H, e.g.
+    # S355J2H, S355NLH) without its standard: either way a nominal-wall tube; Fy limited
+    # to the t <= 40 mm EN 10219 values of Table 3.1, the conservative reading.
+    Standard("EN 10210 or EN 10219", r"\bS\s?(?:235|275|355|420|460)[A-Z0-9]*H\b",
+             tube="nominal", max_en_thickness_mm=40.0),
+)
+
+_COMPILED = tuple((g, re.compile(g.pattern)) for g in GRADES)
+_COMPILED_STANDARDS = tuple((s, re.compile(s.pattern)) for s in STANDARDS)
+_STANDARD_BY_NAME = {s.name: s for s in STANDARDS}
+_MM_PER_IN = factor("inch", "millimeter")
+_KSI_PER_MPA = factor("megapascal", "ksi")
+
+
+def _upper(text: str) -> str:
+    return text.upper().replace("_", " ")
+
+
+@lru_cache(maxsize=1024)
+def product_standards(text: str | None) -> tuple[Standard, ...]:
+    """Every product standard named in ``text`` (ASTM A500, EN 10219 ...), in table order."""
+    if not text:
+        return ()
+    upper = _upper(text)
+    return tuple(s for s, rx in _COMPILED_STANDARDS if rx.search(upper))
+
+
+def product_standard(text: str | None) -> Standard | None:
+    """The product standard ``text`` names (``"A1085"``, ``"S355J2H EN 10219"``), or None.
+
+    A standard given by its display name (``"ASTM A500"``) is returned as is.  When the text
+    names several tube standards, the one with the thinner design wall (ERW, 0.93 tnom) is
+    returned: the conservative reading of a dual designation; otherwise the first in
+    :data:`STANDARDS` order (a standard named explicitly before one inferred from a grade).
+    """
+    if text in _STANDARD_BY_NAME:
+        return _STANDARD_BY_NAME[text]
+    found = product_standards(text)
+    if not found:
+        return None
+    return min(found, key=lambda s: {"erw": 0, "nominal": 1}.get(s.tube, 2))
+
+
+@dataclass(frozen=True)
+class GradeMatch:
+    """A grade found in a material name and the yield stress it gives."""
+
+    grade: Grade
+    fy: float  # ksi
+    note: str  # member message (which grade, which source)
+
+
+def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm: float
+           ) -> tuple[float | None, str]:
+    if grade.fy is not None:
+        return grade.fy, ""
+    if grade.fy_rect is not None:
+        if family in _ROUND:
+            return grade.fy_round, "round HSS"
+        if family == "HSS":
+            return grade.fy_rect, "rectangular HSS"
+        return None, f"{grade.name} applies to HSS only"
+    if thickness_in is None:
+        t_mm, extra = 0.0, "element thickness unknown: t <= 40 mm assumed"
+    else:
+        t_mm, extra = thickness_in * _MM_PER_IN, ""
+    for t_max, fy_mpa in grade.bands_mpa:
+        if t_mm <= t_max and t_mm <= max_mm:
+            text = extra or f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
+            return fy_mpa * _KSI_PER_MPA, text
+    return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {min(80.0, max_mm):.0f} mm"
+
+
+def match_grade(
+    text: str | None, family: str | None = None, thickness_in: float | None = None
+) -> tuple[GradeMatch | None, list[str]]:
+    """Minimum yield stress from a grade named in ``text``.
+
+    Args:
+        text: material name (and description), or a members-file ``grade``.
+        family: profile family (``"HSS"``, ``"HSS_ROUND"``, ``"PIPE"`` ...) for grades that
+            depend on it.
+        thickness_in: thickest element of the section, in (EN grades).
+
+    Returns:
+        (match or None, notes).  Notes explain a grade that was recognised but gave no
+        value (A500 on a W shape, EN grade over 80 mm, EN 10219 over 40 mm) or several
+        conflicting grades.
+    """
+    if not text:
+        return None, []
+    upper = _upper(text)
+    standard = product_standard(text)
+    max_mm = standard.max_en_thickness_mm if standard is not None else 80.0
+    found: list[GradeMatch] = []
+    notes: list[str] = []
+    for grade, rx in _COMPILED:
+        if not rx.search(upper):
+            continue
+        fy, detail = _value(grade, family, thickness_in, max_mm)
+        if fy is None:
+            notes.append(f"material grade {grade.name} recognised but {detail}")
+            continue
+        where = f", {detail}" if detail else ""
+        found.append(GradeMatch(grade, fy, f"Fy = {fy:.4g} ksi from material grade "
+                                           f"{grade.name}{where} ({grade.source})"))
+    if not found:
+        return None, notes
+    best = min(found, key=lambda m: m.fy)
+    if len({round(m.fy, 6) for m in found}) > 1:
+        names = ", ".join(m.grade.name for m in found)
+        notes.append(f"material name '{text}' names several grades ({names}); "
+                     f"the lowest Fy is used")
+    return best, notes

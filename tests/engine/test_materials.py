@@ -1,0 +1,146 @@
+"""Materials: moduli, the grade table (minimum yield stress) and product standards."""
+
+from __future__ import annotations
+
+import pytest
+
+from stanchion.engine.materials import (
+    E_DEFAULT,
+    G_DEFAULT,
+    GRADES,
+    STANDARDS,
+    match_grade,
+    product_standard,
+)
+from stanchion.engine.units import factor
+
+KSI_PER_MPA = factor("megapascal", "ksi")  # pint (common practice, no source)
+
+
+def test_moduli():
+    assert E_DEFAULT == 29000.0  # AISC 360-22 §E3: E = 29,000 ksi
+    assert G_DEFAULT == 11200.0  # AISC 360-22 §E4: G = 11,200 ksi
+
+
+def test_moduli_still_importable_from_the_member_table_module():
+    from stanchion.engine import members
+
+    assert members.E_DEFAULT is E_DEFAULT and members.G_DEFAULT is G_DEFAULT
+
+
+# ------------------------------------------------------------------ grade table
+
+
+def test_every_grade_row_cites_its_specification():
+    for grade in GRADES:
+        assert grade.source.startswith(("ASTM ", "EN ")), grade.name
+
+
+@pytest.mark.parametrize(
+    ("text", "family", "thickness", "expected"),
+    [
+        ("A992/A992M", "I", 0.6, 50.0),  # ASTM A992/A992M
+        ("A572 GRADE 42", "I", 0.6, 42.0),  # ASTM A572/A572M Grade 42
+        ("A913 Gr 70", "I", 0.6, 70.0),  # ASTM A913/A913M Grade 70
+        ("A500 Gr B", "HSS", 0.5, 46.0),  # ASTM A500/A500M Grade B, rectangular
+        ("A500 Gr B", "HSS_ROUND", 0.5, 42.0),  # ASTM A500/A500M Grade B, round
+        ("A500 Gr C", "HSS_ROUND", 0.5, 46.0),  # ASTM A500/A500M Grade C, round
+        ("A1085", "HSS", 0.5, 50.0),  # ASTM A1085/A1085M
+        ("A53 Grade B", "HSS_ROUND", 0.3, 35.0),  # ASTM A53/A53M Grade B
+        ("S275J0", "I", 0.5, 275.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
+        ("S355J2", "I", 2.0, 335.0 * KSI_PER_MPA),  # 50.8 mm: 40 < t <= 80 mm band
+        ("S460N", "I", 1.0, 460.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
+        ("EN 10025-2 S235JR", "I", 2.5, 215.0 * KSI_PER_MPA),  # 63.5 mm: second band
+    ],
+)
+def test_grade_values(text, family, thickness, expected):
+    found, _ = match_grade(text, family, thickness)
+    assert found is not None
+    assert found.fy == pytest.approx(expected)
+
+
+@pytest.mark.parametrize("text", ["A572", "A500", "Steel", "A3600", "S999", "", None])
+def test_grade_not_recognised(text):
+    assert match_grade(text, "I", 0.5)[0] is None
+
+
+def test_a500_on_a_w_shape_is_not_matched():
+    found, notes = match_grade("A500 Gr C", "I", 0.5)
+    assert found is None and "applies to HSS only" in notes[0]
+
+
+def test_en_grade_too_thick():
+    found, notes = match_grade("S355", "I", 4.0)  # 101.6 mm > 80 mm
+    assert found is None and "> 80 mm" in notes[0]
+
+
+def test_dual_grade_uses_the_lowest():
+    found, notes = match_grade("A992 / A36", "I", 0.5)
+    assert found.fy == pytest.approx(36.0)  # ASTM A36 is the lower of the two
+    assert "several grades" in notes[0]
+
+
+@pytest.mark.parametrize(
+    ("text", "family", "thickness", "expected"),
+    [
+        ("A500 Gr C", "PIPE", 0.3, 46.0),  # ASTM A500/A500M Grade C, round
+        ("S355J2H EN 10210", "HSS", 2.0, 335.0 * KSI_PER_MPA),  # Table 3.1, 40 < t <= 80 mm
+        ("S355J2H EN 10219", "HSS", 1.0, 355.0 * KSI_PER_MPA),  # Table 3.1, t <= 40 mm
+    ],
+)
+def test_grade_values_of_tubes(text, family, thickness, expected):
+    found, _ = match_grade(text, family, thickness)
+    assert found is not None
+    assert found.fy == pytest.approx(expected)
+
+
+def test_en_10219_tube_over_40_mm_has_no_value():
+    # EN 1993-1-1:2005 Table 3.1 lists EN 10219 (cold-formed) hollow sections for t <= 40 mm
+    found, notes = match_grade("S355J2H EN 10219", "HSS", 2.0)  # 50.8 mm
+    assert found is None and "> 40 mm" in notes[0]
+
+
+@pytest.mark.parametrize(
+    ("text", "expected"),
+    [
+        ("ASTM A500 Gr. C", "ASTM A500"),
+        ("A500", "ASTM A500"),  # no grade letter: no Fy, but the standard is named
+        ("A53 Grade B", "ASTM A53"),
+        ("A1085", "ASTM A1085"),
+        ("ASTM A1065", "ASTM A1065"),
+        ("S355J2H EN 10210", "EN 10210"),
+        ("EN 10219-2 S355J2H", "EN 10219"),
+        ("EN 10025-2 S355JR", "EN 10025"),
+        ("ASTM A500", "ASTM A500"),  # a display name is returned as is
+        ("A992", None),
+        ("S355J2H", "EN 10210 or EN 10219"),  # a hollow-section grade (final H)
+        ("S355NLH EN 10210", "EN 10210"),  # the named standard, not the inferred one
+        ("S355J2", None),  # EN 10025 grade: the standard is not named
+        ("", None),
+        (None, None),
+    ],
+)
+def test_product_standard(text, expected):
+    found = product_standard(text)
+    assert (found.name if found else None) == expected
+
+
+def test_dual_tube_standard_takes_the_thinner_wall():
+    # "A500/A1085" dual certification: the ERW (0.93 tnom) reading is the conservative one
+    assert product_standard("A500 / A1085").name == "ASTM A500"
+
+
+def test_tube_standards_have_a_wall_rule():
+    tubes = {s.name: s.tube for s in STANDARDS if s.tube}
+    assert tubes == {"ASTM A500": "erw", "ASTM A53": "erw", "ASTM A1085": "nominal",
+                     "ASTM A1065": "nominal", "EN 10210": "nominal", "EN 10219": "nominal",
+                     "EN 10210 or EN 10219": "nominal"}
+
+
+def test_hollow_section_grade_without_its_standard_stops_at_40_mm():
+    # EN 1993-1-1:2005 Table 3.1: EN 10219 values only for t <= 40 mm; EN 10210 goes to
+    # 80 mm, but the grade alone does not say which, so the conservative reading is used
+    found, notes = match_grade("S355J2H", "HSS", 2.0)  # 50.8 mm
+    assert found is None and "> 40 mm" in notes[0]
+    found, _ = match_grade("S355J2H", "HSS", 1.0)  # 25.4 mm
+    assert found.fy == pytest.approx(355.0 * KSI_PER_MPA)  # Table 3.1, t <= 40 mm
