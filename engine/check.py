@@ -17,6 +17,7 @@ from stanchion.engine.compression import (
     compressive_strength,
 )
 from stanchion.engine.masks import all_set, any_set, finite_positive
+from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.members import MemberTable
 from stanchion.engine.sections import Kind
 
@@ -151,7 +152,7 @@ def check_members(
 
     idx = (usable(m.section_index, 0) if len(m.sections)
            else np.zeros(n, dtype=np.int64))
-    Fy, E, G = usable(m.Fy, 50.0), usable(m.E, 29000.0), usable(m.G, 11200.0)
+    Fy, E, G = usable(m.Fy, 50.0), usable(m.E, E_DEFAULT), usable(m.G, G_DEFAULT)
     Lcx, Lcy, Lcz = (usable(k, 1.0) * usable(length, 1.0)
                      for k, length in ((m.kx, m.lx), (m.ky, m.ly), (m.kz, m.lz)))
 
@@ -163,11 +164,11 @@ def check_members(
             reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
             ok &= comp.in_scope
             every = False
-        Pa = available_strength(comp.Pn, method)
+        available = available_strength(comp.Pn, method)
         limit_state = comp.limit_state_names()
         slenderness, Fcr_, Ae = comp.slenderness, comp.Fcr, comp.Ae
     else:
-        Pa = np.full(n, np.nan)
+        available = np.full(n, np.nan)
         limit_state = np.full(n, "", dtype=object)
         slenderness = Fcr_ = Ae = np.full(n, np.nan)
 
@@ -189,7 +190,7 @@ def check_members(
         combination[given] = GIVEN_REQUIRED
 
     with np.errstate(divide="ignore", invalid="ignore"):
-        utilization = required / Pa
+        utilization = required / available
 
     status = _STATUS[(utilization <= 1.0).view(np.int8)]
     if not every:
@@ -197,7 +198,7 @@ def check_members(
         status[bad] = NOT_CHECKED
         # The demand stays known where it can be computed (selection uses it even for a
         # member whose own section is unusable); everything capacity-related is blanked.
-        for arr in (Pa, utilization, slenderness, Fcr_, Ae):
+        for arr in (available, utilization, slenderness, Fcr_, Ae):
             arr[bad] = np.nan
         required[bad & ((gov.no_loads & ~given) | unknown_demand)] = np.nan
         limit_state = np.where(ok, limit_state, "").astype(object)
@@ -210,7 +211,7 @@ def check_members(
         method=method,
         status=status,
         required_strength=required,
-        available_strength=Pa,
+        available_strength=available,
         utilization=utilization,
         limit_state=limit_state,
         combination=combination,
