@@ -14,6 +14,7 @@ import numpy as np
 from stanchion.engine import catalog
 from stanchion.engine.compression import available_strength, compressive_strength
 from stanchion.engine.masks import finite_positive
+from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.sections import Kind, SectionTable
 
 DEFAULT_MAX_SUGGESTIONS = 5
@@ -85,8 +86,8 @@ def select(
     method: str = "LRFD",
     max_utilization: np.ndarray | float = 1.0,
     max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
-    E: np.ndarray | float = 29000.0,
-    G: np.ndarray | float = 11200.0,
+    E: np.ndarray | float = E_DEFAULT,
+    G: np.ndarray | float = G_DEFAULT,
 ) -> Suggestions:
     """Lightest passing candidates for every member (one members × candidates computation).
 
@@ -188,3 +189,17 @@ def suggest_for_members(
         E=m.E[rows], G=m.G[rows],
     )
     return sug, rows, skipped
+
+
+#: Catalog family searched for a section whose own family is not a catalog one (parametric
+#: profiles): the closest rolled / tube family (common practice, no source).
+_SUGGESTION_FAMILIES = {"I": "W", "T": "WT", "U": "C", "RECT": "HSS", "ROUND": "HSS_ROUND"}
+
+
+def suggestion_family(family: str) -> str:
+    """The catalog family to suggest sections from for a section of ``family``.
+
+    Parametric families map to a catalog one (I -> W, T -> WT, U -> C, RECT -> HSS,
+    ROUND -> HSS_ROUND); a catalog family (``"W"``, ``"HSS"`` ...) is returned as is.
+    """
+    return _SUGGESTION_FAMILIES.get(family, family)

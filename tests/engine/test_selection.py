@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 
 from stanchion.engine import catalog
-from stanchion.engine.selection import candidate_indices, select
+from stanchion.engine.selection import candidate_indices, select, suggestion_family
 
 FT = 12.0
 
@@ -111,3 +111,12 @@ def test_members_with_infinite_data_get_no_suggestion(column: str) -> None:
     sug, rows, skipped = suggest_for_members(m, np.array([295.0, 295.0]), [["W14"], ["W14"]])
     assert rows.tolist() == [0] and skipped.tolist() == [1]
     assert sug.for_member(0, catalog.load_catalog())[0]["section"] == "W14X48"  # Table 4-1a
+
+
+@pytest.mark.parametrize(("family", "expected"), [
+    ("I", "W"), ("T", "WT"), ("U", "C"), ("RECT", "HSS"), ("ROUND", "HSS_ROUND"),
+    ("HSS", "HSS"), ("W", "W"), ("PIPE", "PIPE"),
+])
+def test_suggestion_family(family, expected):
+    # parametric families map to the closest catalog family (common practice, no source)
+    assert suggestion_family(family) == expected
