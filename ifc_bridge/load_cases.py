@@ -15,132 +15,36 @@ compression is -ForceX.  Per load case the largest compression over the member's
 is taken.  Reactions given in GLOBAL_COORDS, and structural *actions* (applied loads, not
 internal forces), are not used.
 
-Load case -> load type (:func:`load_type`), first rule that applies:
-
-=====================================  ==================================================
-rule                                   load type
-=====================================  ==================================================
-PredefinedType LOAD_COMBINATION(_GROUP)  ignored: combinations are formed by ASCE 7-22
-ActionSource DEAD_LOAD_G, COMPLETION_G1  D
-ActionSource LIVE_LOAD_Q                 L; Lr when Name/Description/ObjectType has the
-                                         token ``Lr`` (any case) or the word "roof"
-ActionSource SNOW_S / RAIN / WIND_W /    S / R / W / E
-EARTHQUAKE_E
-any other ActionSource (TEMPERATURE_T,   ignored, with a model message
-PRESTRESSING_P, ICE, ...)
-ActionSource NOTDEFINED / USERDEFINED /  the Name / Description / ObjectType: a token
-unset                                    ``D L Lr S R W E`` (case as written, optional
-                                         trailing digits, e.g. ``D1``, ``Lr``, ``W2``), else
-                                         the words dead / self weight / superimposed -> D,
-                                         roof live -> Lr, live -> L, snow -> S, rain -> R,
-                                         wind -> W, seismic / earthquake -> E; several
-                                         different types -> ignored (ambiguous)
-ActionType PERMANENT_G (nothing else)    D
-otherwise                                ignored, with a model message
-=====================================  ==================================================
-
-Several load cases of one type: D, L, Lr, S and R cases are added (taken to act together,
-which is conservative when they are alternative patterns); W and E cases are alternatives
-(directions), the one of largest magnitude is used (the engine reverses W and E itself).
+Which load type a case is, and how several cases of one type (and several analysis models)
+combine, is the engine's load-case policy (:mod:`engine.loads`); this module only extracts
+the cases, their attributes and their axial forces, and says so in the messages.
 """
 
 from __future__ import annotations
 
-import re
-from collections import defaultdict
 from dataclasses import dataclass, field
 
 import ifcopenshell
 
-from stanchion.engine.members import REVERSIBLE
+from stanchion.engine.loads import CaseForce, case_load_type, combine_cases
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.units import ModelUnits
 
 Entity = ifcopenshell.entity_instance
-
-#: ActionSource -> load type.
-ACTION_SOURCES: dict[str, str] = {
-    "DEAD_LOAD_G": "D",
-    "COMPLETION_G1": "D",
-    "LIVE_LOAD_Q": "L",
-    "SNOW_S": "S",
-    "RAIN": "R",
-    "WIND_W": "W",
-    "EARTHQUAKE_E": "E",
-}
-_UNSPECIFIED = (None, "NOTDEFINED", "USERDEFINED")
-_TOKEN = re.compile(r"^(D|L|Lr|LR|lr|S|R|W|E)\d*$")
-#: (regex on lower-cased text, load type), tried in order.
-_WORDS: tuple[tuple[re.Pattern, str], ...] = (
-    (re.compile(r"\broof\s*live\b|\blive\s*roof\b|\broof\b"), "Lr"),
-    (re.compile(r"\bdead\b|\bself[\s\-]*weight\b|\bsuperimposed\b"), "D"),
-    (re.compile(r"\blive\b"), "L"),
-    (re.compile(r"\bsnow\b"), "S"),
-    (re.compile(r"\brain\b"), "R"),
-    (re.compile(r"\bwind\b"), "W"),
-    (re.compile(r"\bseismic\b|\bearthquake\b"), "E"),
-)
 
 
 def _texts(group: Entity) -> list[str]:
     return [t for t in (group.Name, group.Description, getattr(group, "ObjectType", None)) if t]
 
 
-def _tokens(texts: list[str]) -> set[str]:
-    found = set()
-    for text in texts:
-        for tok in re.split(r"[^A-Za-z0-9]+", text):
-            m = _TOKEN.match(tok)
-            if m:
-                found.add("Lr" if m.group(1).lower() == "lr" else m.group(1))
-    return found
-
-
-def _by_name(texts: list[str]) -> tuple[str | None, str]:
-    tokens = _tokens(texts)
-    if len(tokens) == 1:
-        return next(iter(tokens)), "name token"
-    if len(tokens) > 1:
-        return None, f"ambiguous name (types {', '.join(sorted(tokens))})"
-    words = set()
-    for text in texts:
-        low = text.lower()
-        for rx, kind in _WORDS:
-            if rx.search(low):
-                words.add(kind)
-                break
-    if len(words) == 1:
-        return next(iter(words)), "name"
-    if len(words) > 1:
-        return None, f"ambiguous name (types {', '.join(sorted(words))})"
-    return None, "name does not tell"
-
-
 def load_type(group: Entity) -> tuple[str | None, str]:
-    """Load type of a load case / group, with the rule that decided (see module table)."""
+    """Load type of a load case / group (:func:`engine.loads.case_load_type`), with its rule."""
     predefined = getattr(group, "PredefinedType", None)
-    if predefined in ("LOAD_COMBINATION", "LOAD_COMBINATION_GROUP") or group.is_a(
-        "IfcStructuralLoadCombination"
-    ):
-        return None, "a load combination (combinations are formed by ASCE 7-22 here)"
-    source = getattr(group, "ActionSource", None)
-    texts = _texts(group)
-    if source in ACTION_SOURCES:
-        kind = ACTION_SOURCES[source]
-        if kind == "L":
-            roof = "Lr" in _tokens(texts) or any(re.search(r"\broof\b", t.lower()) for t in texts)
-            if roof:
-                return "Lr", f"ActionSource {source} and a roof name"
-        return kind, f"ActionSource {source}"
-    if source not in _UNSPECIFIED:
-        return None, f"ActionSource {source} has no ASCE 7-22 load type here"
-    kind, rule = _by_name(texts)
-    if kind is not None:
-        return kind, rule
-    if getattr(group, "ActionType", None) == "PERMANENT_G":
-        return "D", "ActionType PERMANENT_G"
-    return None, f"ActionSource {source or 'unset'}, ActionType " \
-                 f"{getattr(group, 'ActionType', None) or 'unset'}, {rule}"
+    combination = predefined in ("LOAD_COMBINATION", "LOAD_COMBINATION_GROUP") or group.is_a(
+        "IfcStructuralLoadCombination")
+    return case_load_type(_texts(group), action_source=getattr(group, "ActionSource", None),
+                          action_type=getattr(group, "ActionType", None),
+                          combination=combination)
 
 
 def _axial_forces(load: Entity | None) -> list[float]:
@@ -231,39 +135,14 @@ class AnalysisLoads:
         if ungrouped:
             notes.append(f"{ungrouped} analysis result(s) in no IfcStructuralResultGroup "
                          "ignored (their load case is unknown)")
-        per_model: dict[int, dict[str, list[tuple[str, float]]]] = defaultdict(
-            lambda: defaultdict(list))
+        cases: list[CaseForce] = []
         for (model_key, case_key), value in per_case.items():
             kind = self.case_type(case_of[case_key])
             if kind is not None:
-                per_model[model_key][kind].append(
-                    (case_of[case_key].Name or f"#{case_key}", value))
-        results: list[dict[str, float]] = []
-        for by_type in per_model.values():
-            one: dict[str, float] = {}
-            for kind, items in by_type.items():
-                if kind in REVERSIBLE:
-                    one[kind] = max((v for _, v in items), key=abs)
-                else:
-                    one[kind] = sum(v for _, v in items)
-                if len(items) > 1:
-                    how = "largest magnitude used" if kind in REVERSIBLE else "added"
-                    names = ", ".join(n for n, _ in items)
-                    notes.append(f"{kind} from {len(items)} load cases ({names}): {how}")
-            results.append(one)
-        out: dict[str, float] = {}
-        for one in results:  # several analysis models: the envelope, per load type
-            for kind, value in one.items():
-                if kind not in out:
-                    out[kind] = value
-                elif kind in REVERSIBLE:
-                    out[kind] = max(out[kind], value, key=abs)
-                else:
-                    out[kind] = max(out[kind], value)
-        if len(results) > 1:
-            names = ", ".join(sorted(model_names.values())) or f"{len(results)} groups"
-            notes.append(f"results of {len(results)} analysis models ({names}) are not "
-                         "added: the largest compression per load type is used")
+                cases.append(CaseForce(model_key, kind, case_of[case_key].Name or f"#{case_key}",
+                                       value, model_names.get(model_key, "")))
+        out, combined = combine_cases(cases)
+        notes.extend(combined)
         if out:
             note = self.units.note_use("force")
             if note:

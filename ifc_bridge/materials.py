@@ -12,7 +12,11 @@ Yield stress precedence (first found wins; the source goes in the member's messa
 2. ``Pset_MaterialSteel.YieldStress`` of the material (IFC4 / IFC4X3; read with
    ``ifcopenshell.util.element.get_psets`` on the material), or
    ``IfcMechanicalSteelMaterialProperties.YieldStress`` (IFC2X3);
-3. the grade named in the material's Name / Description (:mod:`ifc_bridge.grades`).
+3. the grade named in the material's Name / Description, matched by the engine's grade
+   table (:func:`engine.materials.match_grade`, :func:`grade_yield` here).
+
+The product standard named there (ASTM A500, A1085, EN 10219 ...) decides the design wall of
+tubes (:func:`material_standard`, :func:`engine.tubes.design_wall`).
 
 None of these -> the member is not checked, reason "no yield strength".
 """
@@ -25,6 +29,7 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element
 
+from stanchion.engine.materials import GradeMatch, match_grade, product_standard
 from stanchion.ifc_bridge.properties import PropertyValue, to_internal
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.units import ModelUnits
@@ -182,3 +187,35 @@ class YieldReader:
         if value is None or not math.isfinite(value) or value <= 0:
             return None, "", notes + (f"{where}: YieldStress is not a positive stress",)
         return value, where, notes
+
+
+def material_text(material: Entity) -> str:
+    """A material's Name and Description (what grades and standards are matched on)."""
+    return " ".join(t for t in (material.Name, getattr(material, "Description", None)) if t)
+
+
+def grade_yield(materials: tuple[Entity, ...], family: str | None, thickness: float | None
+                ) -> tuple[GradeMatch | None, list[str]]:
+    """The first material whose name gives a yield stress by grade (engine grade table).
+
+    Args:
+        materials: the element's materials, in order.
+        family: the profile family.
+        thickness: the section's thickest element, in (EN grades).
+
+    Returns:
+        (match or None, notes of every material tried).
+    """
+    notes: list[str] = []
+    for mat in materials:
+        found, gnotes = match_grade(material_text(mat), family, thickness)
+        notes.extend(gnotes)
+        if found is not None:
+            return found, notes
+    return None, notes
+
+
+def material_standard(materials: tuple[Entity, ...]) -> str | None:
+    """The product standard the materials' names give (engine table), or None."""
+    std = product_standard(" ".join(material_text(m) for m in materials))
+    return std.name if std is not None else None

@@ -22,21 +22,27 @@ import functools
 import gc
 import math
 from dataclasses import dataclass, field
-from pathlib import Path
+from pathlib import PurePath
 
 import ifcopenshell
 import ifcopenshell.util.placement
 import numpy as np
 
+from stanchion.engine.loads import LoadTable
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.access import get
 from stanchion.ifc_bridge.elements import PlanPositions, select_elements
-from stanchion.ifc_bridge.grades import match_grade
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
-from stanchion.ifc_bridge.loads import match_table, merge_loads, read_load_table
-from stanchion.ifc_bridge.materials import MaterialInfo, YieldReader, element_material
+from stanchion.ifc_bridge.loads import match_table, merge_loads
+from stanchion.ifc_bridge.materials import (
+    MaterialInfo,
+    YieldReader,
+    element_material,
+    grade_yield,
+    material_standard,
+)
 from stanchion.ifc_bridge.profiles import ProfileSpec, profile_spec
 from stanchion.ifc_bridge.properties import (
     AXES,
@@ -59,7 +65,6 @@ Entity = ifcopenshell.entity_instance
 
 NO_YIELD = "no yield strength"
 BROKEN = "error"  # profile_origin of an element the reader could not walk
-_A1085 = "A1085"
 
 
 @dataclass
@@ -247,13 +252,11 @@ class _Reader:
             if value is not None:
                 notes.append(f"Fy = {value:.4g} ksi from {where}")
                 return value, "material", notes
-        for mat in row.material.materials:
-            text = " ".join(t for t in (mat.Name, getattr(mat, "Description", None)) if t)
-            found, gnotes = match_grade(text, family, thickness)
-            notes.extend(gnotes)
-            if found is not None:
-                notes.append(found.note)
-                return found.fy, "grade", notes
+        found, gnotes = grade_yield(row.material.materials, family, thickness)
+        notes.extend(gnotes)
+        if found is not None:
+            notes.append(found.note)
+            return found.fy, "grade", notes
         return math.nan, "none", notes
 
 
@@ -289,11 +292,6 @@ def _default_note(design: DesignInputs) -> str | None:
     return _default_text(frozenset(design.k), frozenset(design.unbraced))
 
 
-def _material_text(info: MaterialInfo) -> str:
-    return " ".join(t for m in info.materials for t in (m.Name, getattr(m, "Description", None))
-                    if t)
-
-
 EXTRA_COLUMNS = ("global_id", "tag", "storey", "x", "y", "ifc_class", "length_source",
                  "profile_source", "load_source", "fy_source")
 
@@ -307,7 +305,7 @@ def read_columns(
     model: ifcopenshell.file,
     *,
     include_members: bool = False,
-    loads_table: str | Path | None = None,
+    loads_table: LoadTable | None = None,
 ) -> ReadResult:
     """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
 
@@ -315,14 +313,19 @@ def read_columns(
         model: an opened model (:func:`ifc_bridge.model.open_model`); not modified.
         include_members: also read IfcMember elements whose predefined type (own or of
             their type) is STRUT or POST.
-        loads_table: optional CSV load table (see :mod:`ifc_bridge.loads`).
+        loads_table: optional load table, already parsed by the front end
+            (``service.load_table.read_load_table``); its rows are matched to the columns
+            (:func:`ifc_bridge.loads.match_table`).
 
     Returns:
         :class:`ReadResult`.
 
     Raises:
-        LoadTableError: the load table cannot be used (a :class:`ModelReadError`).
+        TypeError: ``loads_table`` is a path (parse it first).
     """
+    if isinstance(loads_table, str | PurePath):
+        raise TypeError("read_columns takes a parsed load table "
+                        "(service.load_table.read_load_table), not a path")
     # The read creates many small, acyclic objects; the cyclic garbage collector's repeated
     # scans of them would cost about a third of the run on large models.
     was_enabled = gc.isenabled()
@@ -335,9 +338,8 @@ def read_columns(
 
 
 def _read(model: ifcopenshell.file, include_members: bool,
-          loads_table: str | Path | None) -> ReadResult:
+          table: LoadTable | None) -> ReadResult:
     units = read_units(model)
-    table = read_load_table(loads_table, units) if loads_table is not None else None
     reader = _Reader(model, units)
     elements = select_elements(model, reader.index, include_members)
     messages: list[str] = []
@@ -351,14 +353,14 @@ def _read(model: ifcopenshell.file, include_members: bool,
     requests = []
     for r in rows:
         spec = r.spec or ProfileSpec("none", None, None, problem="no profile")
-        requests.append(SectionRequest(spec, _A1085 in _material_text(r.material).upper()))
+        requests.append(SectionRequest(spec, material_standard(r.material.materials)))
     res = resolve_sections(requests)
 
     matched = None
     if table is not None:
-        matched = match_table(table, [r.gid for r in rows], [r.tag for r in rows],
-                              [r.element.Name for r in rows])
-        if table.used_model_unit and table.rows:
+        matched = match_table(table, units.force, [r.gid for r in rows],
+                              [r.tag for r in rows], [r.element.Name for r in rows])
+        if table.uses_model_unit:
             units.note_use("force")
     n = len(rows)
     fy = np.full(n, math.nan)

@@ -6,8 +6,8 @@ Rules, per distinct profile (one computation per distinct spec, not per column):
 * A ProfileName found in the catalog (``engine.catalog.lookup``) whose modeled dimensions agree
   within 2 % (d, bf, tw, tf; rectangular HSS: the two outside dimensions in either order and
   the wall; round HSS / pipe: D and the wall) uses the tabulated properties (AISC Shapes
-  Database v16.0).  An HSS / pipe wall agrees when it matches the design thickness tdes or the
-  nominal thickness tdes/0.93 (AISC 360-22 B4.2).
+  Database v16.0).  An HSS / pipe wall agrees when it matches the design thickness tdes, or
+  when it is a nominal wall whose A500 design wall (:func:`engine.tubes.design_wall`) does.
 * Name in the catalog but dimensions disagree (or a profile type that cannot be that shape,
   e.g. a W name on a hollow rectangle): checked with the modeled dimensions, and the member's
   messages say so.
@@ -17,8 +17,9 @@ Rules, per distinct profile (one computation per distinct spec, not per column):
   profile types and broken dimensions: not checked, with the reason.
 
 HSS walls from dimensions: an IFC WallThickness is the nominal thickness of the tube; the
-design thickness is taken as 0.93 of it (AISC 360-22 B4.2, electric-resistance-welded HSS),
-except for ASTM A1085 material, whose design thickness is the nominal one.
+design thickness is the engine's rule (:func:`engine.tubes.design_wall`) for the product
+standard named by the material (ASTM A500 / A53: 0.93 tnom; A1085, EN 10210 / 10219: tnom;
+unknown: 0.93 tnom, conservatively, with a message).
 """
 
 from __future__ import annotations
@@ -30,10 +31,12 @@ import numpy as np
 from stanchion.engine import section_properties as sp
 from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
 from stanchion.engine.sections import Kind, SectionTable
+from stanchion.engine.tubes import catalog_wall_note, design_wall
 from stanchion.ifc_bridge.profiles import ProfileSpec
 
 AGREE = 0.02
-HSS_DESIGN_RATIO = 0.93  # AISC 360-22 B4.2: tdes = 0.93 tnom for ERW HSS
+#: The product standard the catalog's HSS and pipe rows are tabulated for (tdes = 0.93 tnom).
+_CATALOG_TUBES = "ASTM A500"
 
 _COMPATIBLE: dict[str, Kind] = {
     "I": Kind.I_SHAPE, "ASYM_I": Kind.I_SHAPE, "HSS": Kind.RECT_HSS,
@@ -48,10 +51,10 @@ _CATALOG_SOURCE = "AISC Shapes Database v16.0"
 
 @dataclass(frozen=True)
 class SectionRequest:
-    """One member's profile and whether its HSS wall counts in full (A1085)."""
+    """One member's profile and the product standard its material names (None: unknown)."""
 
     spec: ProfileSpec
-    full_wall: bool = False
+    standard: str | None = None
 
 
 @dataclass
@@ -71,7 +74,13 @@ def _close(a: float | None, b: float) -> bool:
 
 
 def _wall_agrees(t: float | None, tdes: float) -> bool:
-    return _close(t, tdes) or _close(t, tdes / HSS_DESIGN_RATIO)
+    return t is not None and (_close(t, tdes) or _close(design_wall(t, _CATALOG_TUBES)[0], tdes))
+
+
+def _wall_diff(t: float | None, tdes: float) -> str:
+    shown = "unset" if t is None else (f"{t:.4g} in (as nominal: design wall "
+                                       f"{design_wall(t, _CATALOG_TUBES)[0]:.4g} in)")
+    return f"wall {shown} vs tdes {tdes:.4g} in"
 
 
 def _compare(spec: ProfileSpec, row: dict) -> list[str]:
@@ -97,13 +106,11 @@ def _compare(spec: ProfileSpec, row: dict) -> list[str]:
             diffs.append(f"outside {'x'.join(f'{v:.4g}' for v in modeled)} in vs "
                          f"{tab[1]:.4g}x{tab[0]:.4g} in")
         if not _wall_agrees(spec.dim("t"), row["tw"]):
-            diffs.append(f"wall {spec.dim('t'):.4g} in vs tdes {row['tw']:.4g} in / "
-                         f"tnom {row['tw'] / HSS_DESIGN_RATIO:.4g} in")
+            diffs.append(_wall_diff(spec.dim("t"), row["tw"]))
     elif fam == "HSS_ROUND":
         check("D", spec.dim("D"), row["d"])
         if not _wall_agrees(spec.dim("t"), row["tw"]):
-            diffs.append(f"wall {spec.dim('t'):.4g} in vs tdes {row['tw']:.4g} in / "
-                         f"tnom {row['tw'] / HSS_DESIGN_RATIO:.4g} in")
+            diffs.append(_wall_diff(spec.dim("t"), row["tw"]))
     return diffs
 
 
@@ -111,21 +118,18 @@ def _builder_dims(req: SectionRequest) -> dict[str, float]:
     """Arguments for the section_properties builder (design wall thickness applied)."""
     spec = req.spec
     dims = {k: v for k, v in spec.dims}
-    if spec.family in ("HSS", "HSS_ROUND"):
-        ratio = 1.0 if req.full_wall else HSS_DESIGN_RATIO
-        dims["t"] = dims["t"] * ratio
+    if spec.family in ("HSS", "HSS_ROUND") and dims.get("t") is not None:
+        dims["t"] = design_wall(dims["t"], req.standard, spec.family)[0]
         if spec.family == "HSS" and dims.get("r_out") is None:
             dims["r_out"] = 2.0 * dims["t"]  # the builder's default (AISC practice)
     return dims
 
 
 def _wall_note(req: SectionRequest) -> str | None:
-    if req.spec.family not in ("HSS", "HSS_ROUND"):
+    if req.spec.family not in ("HSS", "HSS_ROUND") or req.spec.dim("t") is None:
         return None
-    if req.full_wall:
-        return "HSS design wall thickness = modeled thickness (ASTM A1085, AISC 360-22 B4.2)"
-    return ("HSS design wall thickness = 0.93 x modeled thickness (AISC 360-22 B4.2, "
-            "electric-resistance-welded HSS)")
+    return "modeled WallThickness taken as the nominal wall; " + design_wall(
+        req.spec.dim("t"), req.standard, req.spec.family)[1]
 
 
 def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
@@ -151,8 +155,12 @@ def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
         diffs = _compare(spec, row) if compatible else [
             f"the catalog shape is a {row['family']} but the model has {spec.ifc_class}"]
         if not diffs:
-            return cat_index, [f"section properties of {designation} from the catalog "
-                               f"({_CATALOG_SOURCE})"], None
+            notes = [f"section properties of {designation} from the catalog "
+                     f"({_CATALOG_SOURCE})"]
+            wall = catalog_wall_note(req.standard)
+            if wall and row["kind"] in (Kind.RECT_HSS, Kind.ROUND_HSS):
+                notes.append(wall)
+            return cat_index, notes, None
         if spec.family == "ASYM_I":
             return -2, [], (f"{spec.describe()}: modeled dimensions disagree with catalog "
                             f"{designation} ({'; '.join(diffs)}); asymmetric I sections are "

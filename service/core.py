@@ -12,9 +12,11 @@ import numpy as np
 from stanchion.engine import catalog, section_properties
 from stanchion.engine.check import CheckResults, check_members
 from stanchion.engine.combinations import custom_combinations
-from stanchion.engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
-from stanchion.engine.sections import SectionTable
+from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, match_grade, product_standard
+from stanchion.engine.members import LOAD_TYPES, MemberTable
+from stanchion.engine.sections import Kind, SectionTable
 from stanchion.engine.selection import suggest_for_members
+from stanchion.engine.tubes import catalog_wall_note, design_wall
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.errors import InputError
 from stanchion.service.reports.report import build_report
@@ -27,6 +29,8 @@ _loads_item = operator.itemgetter("loads")
 _id_item = operator.itemgetter("id")
 _NO_LOADS: dict = {}
 _profile_attr = operator.attrgetter("profile")
+_grade_item = operator.itemgetter("grade")
+_TUBES = (int(Kind.RECT_HSS), int(Kind.ROUND_HSS))
 _candidates_attr = operator.attrgetter("candidates")
 _max_utilization_attr = operator.attrgetter("max_utilization")
 
@@ -38,8 +42,14 @@ def _floats(values: list[float | None]) -> np.ndarray:
     return np.array(values, dtype=float)  # None -> NaN
 
 
-def _profile_section(p: Profile, default_unit: str) -> SectionTable:
-    """Section properties of a parametric profile (dimensions converted to inches)."""
+def _profile_section(p: Profile, default_unit: str, grade: str | None = None
+                     ) -> tuple[SectionTable, str | None]:
+    """Section properties of a parametric profile (dimensions converted to inches).
+
+    Returns:
+        The section row, and for tubes the message naming the design-wall rule applied to
+        the nominal ``t`` (:func:`engine.tubes.design_wall` with the member's ``grade``).
+    """
     f = length_factor(p.unit or default_unit)
 
     def v(name: str) -> float:
@@ -48,23 +58,33 @@ def _profile_section(p: Profile, default_unit: str) -> SectionTable:
 
     r = v("r") or 0.0
     if p.shape == "I":
-        return section_properties.i_section(v("d"), v("bf"), v("tw"), v("tf"), r)
+        return section_properties.i_section(v("d"), v("bf"), v("tw"), v("tf"), r), None
     if p.shape == "T":
-        return section_properties.tee(v("d"), v("bf"), v("tw"), v("tf"), r)
+        return section_properties.tee(v("d"), v("bf"), v("tw"), v("tf"), r), None
     if p.shape == "U":
-        return section_properties.channel(v("d"), v("bf"), v("tw"), v("tf"), r)
+        return section_properties.channel(v("d"), v("bf"), v("tw"), v("tf"), r), None
     if p.shape == "RECT_HOLLOW":
-        return section_properties.rect_hollow(v("h"), v("b"), v("t"), v("r"))
+        t, note = design_wall(v("t"), grade, "HSS")
+        label = f"HSS {v('h'):.4g}x{v('b'):.4g}x{v('t'):.4g}"  # nominal wall
+        return section_properties.rect_hollow(v("h"), v("b"), t, v("r"), label=label), note
     if p.shape == "CIRC_HOLLOW":
-        return section_properties.circ_hollow(v("D"), v("t"))
+        t, note = design_wall(v("t"), grade, "HSS_ROUND")
+        label = f"HSS_ROUND {v('D'):.4g}x{v('t'):.4g}"  # nominal wall
+        return section_properties.circ_hollow(v("D"), t, label=label), note
     if p.shape == "RECT":
-        return section_properties.solid_rect(v("h"), v("b"))
-    return section_properties.solid_circle(v("D"))
+        return section_properties.solid_rect(v("h"), v("b")), None
+    return section_properties.solid_circle(v("D")), None
 
 
-def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np.ndarray,
-                                                                 list[str | None], list[str]]:
-    """Section rows for the members: catalog rows plus one row per parametric profile."""
+def _sections(members: list[Member], length_unit: str
+              ) -> tuple[SectionTable, np.ndarray, list[str | None], list[str],
+                         dict[int, list[str]]]:
+    """Section rows for the members: catalog rows plus one row per parametric profile.
+
+    Returns:
+        The section table, each member's row (-1: none), reasons, labels, and messages by
+        member row (tube design walls).
+    """
     cat = catalog.load_catalog()
     names = [m.section or "" for m in members]
     idx = catalog.lookup(names)
@@ -75,6 +95,7 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
     labels = [designations[i] if i >= 0 else name
               for i, name in zip(idx.tolist(), names, strict=True)]
     extra: list[SectionTable] = []
+    notes: dict[int, list[str]] = {}
     odd = sorted({*(~found).nonzero()[0].tolist(),
                   *(i for i, p in enumerate(map(_profile_attr, members)) if p is not None)})
     for i in odd:
@@ -85,7 +106,7 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
             labels[i] = m.section
         elif m.profile is not None:
             try:
-                row = _profile_section(m.profile, length_unit)
+                row, wall = _profile_section(m.profile, length_unit, m.grade)
             except ValueError as exc:
                 reasons[i] = f"profile: {exc}"
                 idx[i] = -1
@@ -93,12 +114,61 @@ def _sections(members: list[Member], length_unit: str) -> tuple[SectionTable, np
             idx[i] = len(cat) + sum(len(t) for t in extra)
             labels[i] = str(row.designation[0])
             extra.append(row)
+            if wall:
+                notes[i] = [wall]
         elif not m.section:
             reasons[i] = "no section or profile given"
         else:
             reasons[i] = catalog.unknown_section_reason(m.section)
     table = SectionTable.concat([cat, *extra]) if extra else cat
-    return table, idx, reasons, labels
+    return table, idx, reasons, labels, notes
+
+
+def _thickest(sections: SectionTable, row: int) -> float:
+    """The thickest element of a section, in (EN grades are banded by it)."""
+    kind = int(sections.kind[row])
+    if kind == Kind.SOLID_RECT:
+        return float(min(sections.d[row], sections.bf[row]))
+    if kind == Kind.SOLID_ROUND:
+        return float(sections.d[row])
+    return float(max(sections.tw[row], sections.tf[row]))
+
+
+def _apply_grades(
+    grades: list[str | None], sections: SectionTable, idx: np.ndarray, Fy: np.ndarray,
+    stress: str, reasons: list[str | None], notes: dict[int, list[str]],
+) -> None:
+    """Members with a ``grade``: Fy from it where ``fy`` is absent, and their messages.
+
+    ``Fy`` (ksi) is filled in place; a grade that gives no yield stress for a member without
+    ``fy`` makes it not checked, with the reason.
+    """
+    to_user = 1.0 / stress_factor(stress)
+    for i, grade in enumerate(grades):
+        if grade is None:
+            continue
+        row = int(idx[i])
+        family = str(sections.family[row]) if row >= 0 else None
+        found, gnotes = match_grade(grade, family, _thickest(sections, row) if row >= 0 else None)
+        said = notes.setdefault(i, [])
+        said.extend(gnotes)
+        if found is None and product_standard(grade) is None:
+            said.append(f"grade '{grade}' is not a grade or product standard stanchion knows")
+        if row >= 0 and int(sections.kind[row]) in _TUBES and row < len(catalog.load_catalog()):
+            wall = catalog_wall_note(grade)
+            if wall:
+                said.append(wall)
+        if not np.isnan(Fy[i]):
+            if found is not None and abs(Fy[i] - found.fy) > 0.005 * found.fy:
+                said.append(f"fy = {Fy[i] * to_user:.4g} {stress} given is used; grade "
+                            f"{found.grade.name} specifies {found.fy * to_user:.4g} {stress} "
+                            f"min. ({found.grade.source})")
+        elif found is not None:
+            Fy[i] = found.fy
+            said.append(found.note)
+        elif reasons[i] is None:
+            reasons[i] = (f"no yield stress: fy is not given and grade '{grade}' gives none "
+                          "(name the grade, e.g. 'A500 Gr C', 'A992', 'S355', or give fy)")
 
 
 def members_from_request(req: MembersRequest) -> MemberTable:
@@ -107,7 +177,7 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     fL = length_factor(req.units.length)
     fF = force_factor(req.units.force)
     fS = stress_factor(req.units.stress)
-    sections, idx, reasons, labels = _sections(ms, req.units.length)
+    sections, idx, reasons, labels, notes = _sections(ms, req.units.length)
 
     # The members' numbers, one float column per field (None -> NaN), each read in one pass
     # over the models' field dicts (itemgetter) or load mappings (a type may be absent):
@@ -119,6 +189,10 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     loads = np.stack([_floats([d.get(t) for d in loads_of]) for t in LOAD_TYPES], axis=1) * fF
     length = length * fL
     lx, ly, lz = (lx * fL, ly * fL, lz * fL)
+    Fy = fy * fS
+    grades = list(map(_grade_item, fields))
+    if grades.count(None) != len(grades):
+        _apply_grades(grades, sections, idx, Fy, req.units.stress, reasons, notes)
     E = (req.E * fS) if req.E is not None else E_DEFAULT
     G = (req.G * fS) if req.G is not None else G_DEFAULT
     return MemberTable.build(
@@ -127,7 +201,7 @@ def members_from_request(req: MembersRequest) -> MemberTable:
         section_label=labels,
         sections=sections,
         section_index=idx,
-        Fy=fy * fS,
+        Fy=Fy,
         length=length,
         lx=np.where(np.isnan(lx), length, lx),
         ly=np.where(np.isnan(ly), length, ly),
@@ -140,6 +214,7 @@ def members_from_request(req: MembersRequest) -> MemberTable:
         loads=loads,
         required_strength=required * fF,
         reason=reasons,
+        messages=[notes.get(i, []) for i in range(len(ms))] if notes else None,
     )
 
 
@@ -150,7 +225,7 @@ def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
         combos = (custom_combinations([c.model_dump() for c in req.combinations])
                   if req.combinations else None)
     except ValueError as exc:
-        raise InputError(f"combinations: {exc}") from None
+        raise InputError(f"combinations: {exc}", field="combinations") from None
     results = check_members(members, req.design_method, combos,
                             half_live=req.half_live_exception, detail=req.detail)
     return members, results

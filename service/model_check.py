@@ -21,11 +21,13 @@ from pathlib import Path
 import numpy as np
 
 from stanchion.engine.check import check_members
+from stanchion.engine.selection import suggestion_family
 from stanchion.engine.units import UNIT_SYSTEMS, length_factor
 from stanchion.ifc_bridge.model import ModelReadError, open_model
 from stanchion.ifc_bridge.write import checked_now, write_results
 from stanchion.service.core import suggestions_for
 from stanchion.service.errors import InputError
+from stanchion.service.load_table import read_load_table
 from stanchion.service.progress import Progress, Silent
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
 from stanchion.service.reports.files import write_model_checked, write_outputs
@@ -73,10 +75,10 @@ def check_output_paths(source: Path, outputs: dict[str, Path | None]) -> None:
 def _read(path: Path, include_members: bool, loads_table: Path | None):
     from stanchion.ifc_bridge.read import read_columns
 
+    table = read_load_table(loads_table) if loads_table is not None else None  # InputError
     try:
         model = open_model(path)
-        return model, read_columns(model, include_members=include_members,
-                                   loads_table=loads_table)
+        return model, read_columns(model, include_members=include_members, loads_table=table)
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
 
@@ -230,7 +232,7 @@ def _suggest(members, results, max_utilization: float, oversized: float | None,
     own[has] = members.sections.family[members.section_index[has]]
     specs: list[list[str] | None] = [None] * len(members)
     for i in np.flatnonzero(wanted):
-        fam = families or ([SUGGEST_FAMILY.get(str(own[i]), str(own[i]))] if own[i] else None)
+        fam = families or ([suggestion_family(str(own[i]))] if own[i] else None)
         specs[i] = fam
     found, problems = suggestions_for(
         members, results, specs, [max_utilization] * len(members))
@@ -242,11 +244,6 @@ def _suggest(members, results, max_utilization: float, oversized: float | None,
                                    f"no section of {', '.join(specs[i])} passes at "
                                    f"utilization <= {max_utilization:g}"]
     return found
-
-
-#: Family searched for a column whose section has no catalog family of its own
-#: (parametric profiles from the IFC reader).
-SUGGEST_FAMILY = {"I": "W", "T": "WT", "U": "C", "RECT": "HSS", "ROUND": "HSS_ROUND"}
 
 
 def check_model_file(path: Path, args: argparse.Namespace) -> dict:

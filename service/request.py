@@ -39,6 +39,11 @@ class Profile(_Strict):
     Dimensions are in ``unit`` (default: the request's length unit).  Which are needed
     depends on ``shape``: I, T, U: d, bf, tw, tf (r optional root radius); RECT_HOLLOW: h,
     b, t (r optional outer corner radius); CIRC_HOLLOW: D, t; RECT: h, b; CIRCLE: D.
+
+    A tube's ``t`` is its nominal wall.  The design wall follows the member's ``grade``
+    (:func:`engine.tubes.design_wall`, AISC 360-22 §B4.2): ASTM A500 / A53 0.93 t; A1085,
+    A1065, EN 10210 and EN 10219 t; no grade or an unknown standard 0.93 t, conservatively,
+    with a message saying so.
     """
 
     shape: ProfileShape
@@ -73,7 +78,13 @@ class Member(_Strict):
     name: str | None = None
     section: str | None = None
     profile: Profile | None = None
-    fy: float | None = None
+    grade: str | None = Field(
+        None, min_length=1, description="material grade / product standard, e.g. "
+        "'A500 Gr. C', 'A1085', 'A992', 'S355J2H EN 10210': decides a tube's design wall "
+        "(AISC 360-22 §B4.2; without it, 0.93 t with a message) and, when fy is absent, "
+        "gives the specified minimum yield stress (stated in the member's messages)")
+    fy: float | None = Field(
+        None, description="yield stress, stress unit; absent: from grade (if it names one)")
     length: float | None = None
     kx: float = 1.0
     ky: float = 1.0

@@ -31,8 +31,9 @@ from stanchion.engine.members import LOAD_TYPES
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import read_columns
-from stanchion.service import cmd_demo
+from stanchion.service.cli import demo as cmd_demo
 from stanchion.service.cli import main
+from stanchion.service.load_table import read_load_table
 from stanchion.service.model_check import check_model
 
 ROOT = Path(__file__).resolve().parents[1]
@@ -153,7 +154,7 @@ def test_workshop_loads_read_back_as_the_generated_forces():
 
 def test_pavilion_table_rows_match_columns_by_tag():
     read = read_columns(open_model(SAMPLES / "garden_pavilion.ifc"),
-                        loads_table=SAMPLES / "garden_pavilion_loads.csv")
+                        loads_table=read_load_table(SAMPLES / "garden_pavilion_loads.csv"))
     table = pd.read_csv(SAMPLES / "garden_pavilion_loads.csv", dtype={"element": str})
     by_tag = table.set_index("element")
     members = read.members

@@ -5,7 +5,6 @@ from __future__ import annotations
 import pytest
 
 from stanchion.engine.units import factor
-from stanchion.ifc_bridge.grades import GRADES, match_grade
 from stanchion.ifc_bridge.read import read_columns
 
 W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
@@ -126,55 +125,3 @@ def test_undeclared_pressure_unit_is_warned(make_builder, schema):
     assert result.members.Fy[0] == pytest.approx(50.0)  # builder stored pascals
     assert any(s.startswith("model declares no pressure unit") for s in result.messages)
     assert any("pressure read in an undeclared unit" in s for s in result.members.messages[0])
-
-
-# ------------------------------------------------------------------ grade table alone
-
-
-def test_every_grade_row_cites_its_specification():
-    for grade in GRADES:
-        assert grade.source.startswith(("ASTM ", "EN ")), grade.name
-
-
-@pytest.mark.parametrize(
-    ("text", "family", "thickness", "expected"),
-    [
-        ("A992/A992M", "I", 0.6, 50.0),  # ASTM A992/A992M
-        ("A572 GRADE 42", "I", 0.6, 42.0),  # ASTM A572/A572M Grade 42
-        ("A913 Gr 70", "I", 0.6, 70.0),  # ASTM A913/A913M Grade 70
-        ("A500 Gr B", "HSS", 0.5, 46.0),  # ASTM A500/A500M Grade B, rectangular
-        ("A500 Gr B", "HSS_ROUND", 0.5, 42.0),  # ASTM A500/A500M Grade B, round
-        ("A500 Gr C", "HSS_ROUND", 0.5, 46.0),  # ASTM A500/A500M Grade C, round
-        ("A1085", "HSS", 0.5, 50.0),  # ASTM A1085/A1085M
-        ("A53 Grade B", "HSS_ROUND", 0.3, 35.0),  # ASTM A53/A53M Grade B
-        ("S275J0", "I", 0.5, 275.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
-        ("S355J2", "I", 2.0, 335.0 * KSI_PER_MPA),  # 50.8 mm: 40 < t <= 80 mm band
-        ("S460N", "I", 1.0, 460.0 * KSI_PER_MPA),  # EN 1993-1-1 Table 3.1, t <= 40 mm
-        ("EN 10025-2 S235JR", "I", 2.5, 215.0 * KSI_PER_MPA),  # 63.5 mm: second band
-    ],
-)
-def test_grade_values(text, family, thickness, expected):
-    found, _ = match_grade(text, family, thickness)
-    assert found is not None
-    assert found.fy == pytest.approx(expected)
-
-
-@pytest.mark.parametrize("text", ["A572", "A500", "Steel", "A3600", "S999", "", None])
-def test_grade_not_recognised(text):
-    assert match_grade(text, "I", 0.5)[0] is None
-
-
-def test_a500_on_a_w_shape_is_not_matched():
-    found, notes = match_grade("A500 Gr C", "I", 0.5)
-    assert found is None and "applies to HSS only" in notes[0]
-
-
-def test_en_grade_too_thick():
-    found, notes = match_grade("S355", "I", 4.0)  # 101.6 mm > 80 mm
-    assert found is None and "> 80 mm" in notes[0]
-
-
-def test_dual_grade_uses_the_lowest():
-    found, notes = match_grade("A992 / A36", "I", 0.5)
-    assert found.fy == pytest.approx(36.0)  # ASTM A36 is the lower of the two
-    assert "several grades" in notes[0]

@@ -131,13 +131,36 @@ def test_unnamed_round_hss_uses_design_wall(builder):
     m, row = _read_one(builder, builder.profile("CHS", None, D=10.0, t=0.5), "A500 Gr B")
     t = 0.93 * 0.5  # AISC 360-22 B4.2 design wall thickness
     assert row["A"] == pytest.approx(math.pi / 4 * (10.0**2 - (10.0 - 2 * t) ** 2))
-    assert any("0.93 x modeled thickness" in s for s in m.messages[0])
+    assert any("design wall = 0.93 x nominal wall (ASTM A500" in s for s in m.messages[0])
 
 
 def test_a1085_round_hss_uses_full_wall(builder):
     m, row = _read_one(builder, builder.profile("CHS", None, D=10.0, t=0.5), "ASTM A1085")
     # AISC 360-22 B4.2: A1085 design thickness = nominal; A = π/4 (D² - (D - 2t)²)
     assert row["A"] == pytest.approx(math.pi / 4 * (10.0**2 - 9.0**2))
+    assert any("design wall = nominal wall (ASTM A1085" in s for s in m.messages[0])
+
+
+def test_en_10219_rectangular_hss_uses_the_nominal_wall(builder):
+    m, row = _read_one(builder, builder.profile("RHS", None, H=8.0, B=8.0, t=0.25),
+                       "S355J2H EN 10219")
+    assert row["tw"] == pytest.approx(0.25)  # EN tubes: nominal wall (engine.tubes rule)
+    assert any("nominal wall (EN 10219 tube" in s for s in m.messages[0])
+
+
+def test_unknown_tube_standard_uses_093_with_a_message(builder):
+    # material with a yield stress but no grade or standard in its name
+    m, row = _read_one(builder, builder.profile("RHS", None, H=8.0, B=8.0, t=0.25), "Steel")
+    assert row["tw"] == pytest.approx(0.2325)  # 0.93 × 0.25, conservatively (AISC 360-22 B4.2)
+    assert any("product standard unknown" in s and "conservatively" in s
+               for s in m.messages[0])
+
+
+def test_catalog_hss_with_a1085_material_keeps_the_tabulated_wall(builder):
+    m, row = _read_one(builder, builder.profile("RHS", "HSS8X8X1/2", H=8.0, B=8.0, t=0.5),
+                       "ASTM A1085")
+    assert row["A"] == pytest.approx(HSS8X8X1_2_A)  # AISC Shapes Database v16.0 (tdes 0.465)
+    assert any("A1085 would permit the nominal wall" in s for s in m.messages[0])
 
 
 def test_unnamed_rectangular_hss(builder):

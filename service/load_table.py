@@ -1,0 +1,115 @@
+"""The CSV load table (``stanchion check model.ifc --loads LOADS.csv``): parsed here, at the edge.
+
+::
+
+    element,D,L,Lr [kip],S [kN]
+    2O2Fr$t4X7Zf8NOew3FLOH,95,60,,12
+    C-12,100,55,4,
+
+``element`` is a GlobalId, Tag or Name (matched to the model's columns by
+:func:`ifc_bridge.loads.match_table`).  Load columns are ``D L Lr S R W E``
+(case-insensitive), optionally with a unit in brackets -- any force unit pint understands
+(``kip``, ``kN``, ``lbf``, ``N``, ``MN`` ...); without one, values are in the model's force
+unit (converted by the reader, which knows it).  Empty cells mean "not given".  Anything else
+(unknown column, text in a number cell, a unit that is not a force) makes the whole table
+unusable: :class:`LoadTableError`, one line naming the problem (exit 2).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from pathlib import Path
+
+import pandas as pd
+import pint
+
+from stanchion.engine.loads import LoadTable
+from stanchion.engine.members import LOAD_TYPES
+from stanchion.engine.units import FORCE_UNITS, factor
+from stanchion.service.errors import InputError
+
+__all__ = ["LoadTable", "LoadTableError", "read_load_table"]
+
+_HEADER = re.compile(r"^\s*([A-Za-z]+)\s*(?:\[\s*([^\]]*?)\s*\])?\s*$")
+_TYPES_BY_LOWER = {t.lower(): t for t in LOAD_TYPES}
+
+
+class LoadTableError(InputError):
+    """The CSV load table cannot be used (message is one line)."""
+
+
+def _force_factor(unit: str, label: str) -> float:
+    expr = FORCE_UNITS.get(unit, unit)
+    try:
+        return factor(expr, "kip")
+    except (pint.errors.UndefinedUnitError, pint.errors.DimensionalityError, AttributeError,
+            TypeError, ValueError, AssertionError):
+        raise LoadTableError(f"load table {label}: '{unit}' is not a force unit") from None
+
+
+def _frame(path: str | Path, label: str) -> pd.DataFrame:
+    try:
+        # header=None keeps repeated column names as written (pandas would rename them)
+        return pd.read_csv(path, dtype=str, keep_default_na=False, skipinitialspace=True,
+                           header=None)
+    except FileNotFoundError:
+        raise LoadTableError(f"cannot read load table {label}: no such file") from None
+    except (OSError, UnicodeDecodeError, pd.errors.ParserError, pd.errors.EmptyDataError) as exc:
+        detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+        raise LoadTableError(f"cannot read load table {label}: {detail}") from None
+
+
+def read_load_table(path: str | Path) -> LoadTable:
+    """Parse the CSV load table.
+
+    Args:
+        path: the CSV file.
+
+    Returns:
+        The table; values of columns with a unit are converted to kip when the reader asks
+        (:meth:`engine.loads.LoadTable.in_kip`), the others take the model's force unit.
+
+    Raises:
+        LoadTableError: unreadable file or bad content, one line naming the problem.
+    """
+    label = str(path)
+    frame = _frame(path, label)
+    columns = [str(c).strip() for c in frame.iloc[0]] if len(frame) else []
+    if not columns or columns[0].lower() != "element":
+        raise LoadTableError(f"load table {label}: the first column must be 'element' "
+                             f"(header is {','.join(columns)})")
+    plan: list[tuple[int, str]] = []
+    to_kip: dict[str, float | None] = {}
+    for pos, col in enumerate(columns[1:], start=1):
+        m = _HEADER.match(col)
+        kind = _TYPES_BY_LOWER.get(m.group(1).lower()) if m else None
+        if kind is None:
+            raise LoadTableError(f"load table {label}: column '{col}' is not a load type "
+                                 f"({', '.join(LOAD_TYPES)}, optionally with a [unit])")
+        if kind in to_kip:
+            raise LoadTableError(f"load table {label}: load type {kind} appears twice")
+        unit = m.group(2)
+        to_kip[kind] = _force_factor(unit, label) if unit else None
+        plan.append((pos, kind))
+    rows: list[tuple[str, dict[str, float]]] = []
+    for line, values in enumerate(frame.iloc[1:].itertuples(index=False, name=None), start=2):
+        element = str(values[0]).strip()
+        if not element:
+            raise LoadTableError(f"load table {label}, line {line}: no element")
+        loads: dict[str, float] = {}
+        for pos, kind in plan:
+            cell = str(values[pos]).strip()
+            if not cell:
+                continue
+            try:
+                number = float(cell)
+            except ValueError:
+                raise LoadTableError(f"load table {label}, line {line}, column {kind}: "
+                                     f"'{cell}' is not a number") from None
+            if not math.isfinite(number):
+                raise LoadTableError(f"load table {label}, line {line}, column {kind}: "
+                                     f"'{cell}' is not a finite number")
+            loads[kind] = number
+        rows.append((element, loads))
+    return LoadTable(tuple(rows), to_kip, label)

@@ -1,0 +1,61 @@
+"""The CSV load table, parsed by the front end (service.load_table) before any model is read."""
+
+from __future__ import annotations
+
+import pytest
+
+from stanchion.service.errors import InputError
+from stanchion.service.load_table import LoadTableError, read_load_table
+
+KIP_PER_KN = 0.2248089431  # 1 kN in kip (pint; common practice, no source)
+
+
+def _table(tmp_path, text):
+    path = tmp_path / "loads.csv"
+    path.write_text(text)
+    return read_load_table(path)
+
+
+def test_values_and_header_units(tmp_path):
+    table = _table(tmp_path, "element,D [kip],L [kN],S\nC1,95,100,\nC2,,,7\n")
+    # expected: the cells as written (input round trip); units from the header
+    assert table.rows == (("C1", {"D": 95.0, "L": 100.0}), ("C2", {"S": 7.0}))
+    assert table.to_kip["D"] == 1.0  # kip -> kip
+    assert table.to_kip["L"] == pytest.approx(KIP_PER_KN)
+    assert table.to_kip["S"] is None  # no unit: the model's force unit
+    assert table.uses_model_unit  # C2's S has no unit
+    # in kip with a model unit of 2 kip (stand-in factor): S = 7 × 2 = 14 kip (hand computed)
+    assert table.in_kip(2.0) == [("C1", {"D": 95.0, "L": pytest.approx(100 * KIP_PER_KN)}),
+                                 ("C2", {"S": 14.0})]
+
+
+def test_unit_less_column_without_values_uses_no_model_unit(tmp_path):
+    table = _table(tmp_path, "element,D [kip],L\nC1,95,\n")
+    assert not table.uses_model_unit  # the unit-less L column has no value
+
+
+@pytest.mark.parametrize(
+    ("text", "problem"),
+    [
+        ("name,D\nC1,1\n", "first column must be 'element'"),
+        ("element,Dead\nC1,1\n", "column 'Dead' is not a load type"),
+        ("element,D,D\nC1,1,2\n", "load type D appears twice"),
+        ("element,D [ft]\nC1,1\n", "'ft' is not a force unit"),
+        ("element,D [furlongs]\nC1,1\n", "'furlongs' is not a force unit"),
+        ("element,D\nC1,lots\n", "line 2, column D: 'lots' is not a number"),
+        ("element,D\nC1,inf\n", "line 2, column D: 'inf' is not a finite number"),
+        ("element,D\n,5\n", "line 2: no element"),
+        ("", "cannot read load table"),
+    ],
+)
+def test_bad_tables_are_refused(tmp_path, text, problem):
+    with pytest.raises(LoadTableError) as err:
+        _table(tmp_path, text)
+    assert problem in str(err.value)
+    assert "\n" not in str(err.value)
+    assert isinstance(err.value, InputError)  # the CLI's one-line exit-2 path
+
+
+def test_missing_table_file(tmp_path):
+    with pytest.raises(LoadTableError, match="no such file"):
+        read_load_table(tmp_path / "none.csv")
