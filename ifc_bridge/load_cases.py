@@ -62,6 +62,19 @@ def _axial_forces(load: Entity | None) -> list[float]:
 
 
 @dataclass
+class _Found:
+    """Results found for one column, largest compression per (analysis model, load case).
+
+    Keyed by (analysis model, load case): results of several analysis models (e.g. an old
+    and a new run kept in one file) are kept apart and enveloped by the engine, never added.
+    """
+
+    per_case: dict[tuple[int, int], float] = field(default_factory=dict)
+    case_of: dict[int, Entity] = field(default_factory=dict)
+    model_names: dict[int, str] = field(default_factory=dict)
+
+
+@dataclass
 class AnalysisLoads:
     """Reads analysis-result axial forces for columns (kip, compression positive)."""
 
@@ -87,6 +100,33 @@ class AnalysisLoads:
                            f"{rule}")
         return self._case_types[key][0]
 
+    def _record(self, found: _Found, groups: tuple, compression: float) -> None:
+        """Add one reaction's compression to the load cases its result groups name."""
+        for group in groups:
+            case = group.ResultForLoadGroup
+            if case is None:
+                self._tell(f"result group '{group.Name}' names no load case; ignored")
+                continue
+            owners = getattr(group, "ResultGroupFor", None) or ()
+            owner = owners[0] if owners else None
+            model_key = owner.id() if owner is not None else 0
+            if owner is not None:
+                found.model_names[model_key] = owner.Name or f"#{model_key}"
+            key = (model_key, case.id())
+            found.case_of[case.id()] = case
+            found.per_case[key] = max(found.per_case.get(key, -float("inf")), compression)
+
+    def _cases(self, found: _Found) -> list[CaseForce]:
+        """The found results of the load cases that have a load type (engine.loads)."""
+        cases: list[CaseForce] = []
+        for (model_key, case_key), value in found.per_case.items():
+            case = found.case_of[case_key]
+            kind = self.case_type(case)
+            if kind is not None:
+                cases.append(CaseForce(model_key, kind, case.Name or f"#{case_key}", value,
+                                       found.model_names.get(model_key, "")))
+        return cases
+
     def for_column(
         self, column: Entity, members: list[Entity]
     ) -> tuple[dict[str, float], list[str]]:
@@ -95,11 +135,7 @@ class AnalysisLoads:
         Returns:
             ({load type: kip}, member notes).  Empty when the model holds no results.
         """
-        # Keyed by (analysis model, load case): results of several analysis models (e.g. an
-        # old and a new run kept in one file) are never added together.
-        per_case: dict[tuple[int, int], float] = {}
-        case_of: dict[int, Entity] = {}
-        model_names: dict[int, str] = {}
+        found = _Found()
         notes: list[str] = []
         skipped_global = ungrouped = 0
         for item in [column, *members]:
@@ -112,36 +148,17 @@ class AnalysisLoads:
                 forces = _axial_forces(activity.AppliedLoad)
                 if not forces:
                     continue
-                compression = max(-f for f in forces) * self.units.force
                 groups = self.index.result_groups.get(activity.id(), ())
                 if not groups:
                     ungrouped += 1
-                for group in groups:
-                    case = group.ResultForLoadGroup
-                    if case is None:
-                        self._tell(f"result group '{group.Name}' names no load case; ignored")
-                        continue
-                    owners = getattr(group, "ResultGroupFor", None) or ()
-                    owner = owners[0] if owners else None
-                    model_key = owner.id() if owner is not None else 0
-                    if owner is not None:
-                        model_names[model_key] = owner.Name or f"#{model_key}"
-                    key = (model_key, case.id())
-                    case_of[case.id()] = case
-                    per_case[key] = max(per_case.get(key, -float("inf")), compression)
+                self._record(found, groups, max(-f for f in forces) * self.units.force)
         if skipped_global:
             notes.append(f"{skipped_global} analysis result(s) in global coordinates ignored "
                          "(axial force needs member-local ForceX)")
         if ungrouped:
             notes.append(f"{ungrouped} analysis result(s) in no IfcStructuralResultGroup "
                          "ignored (their load case is unknown)")
-        cases: list[CaseForce] = []
-        for (model_key, case_key), value in per_case.items():
-            kind = self.case_type(case_of[case_key])
-            if kind is not None:
-                cases.append(CaseForce(model_key, kind, case_of[case_key].Name or f"#{case_key}",
-                                       value, model_names.get(model_key, "")))
-        out, combined = combine_cases(cases)
+        out, combined = combine_cases(self._cases(found))
         notes.extend(combined)
         if out:
             note = self.units.note_use("force")

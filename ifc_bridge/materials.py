@@ -103,7 +103,9 @@ def element_material(
     """Material of an occurrence, else of its type; a profile set on either is used.
 
     Args:
-        element, etype: the occurrence and its type (or None).  index: relationship maps.
+        element: the occurrence.
+        etype: its type (or None).
+        index: relationship maps.
         cache: optional dict shared between calls (results per select and per
             occurrence/type select pair).
     """

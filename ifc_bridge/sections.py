@@ -1,5 +1,7 @@
-"""Profile specs -> engine section rows: the catalog when the name and dimensions agree, else
-the section computed from the modeled dimensions.
+"""Profile specs -> engine section rows: the catalog row, or a section from the dimensions.
+
+The catalog row when the name and dimensions agree, else the section computed from the
+modeled dimensions.
 
 Rules, per distinct profile (one computation per distinct spec, not per column):
 
@@ -125,11 +127,12 @@ def _builder_dims(req: SectionRequest) -> dict[str, float]:
     return dims
 
 
-def _wall_note(req: SectionRequest) -> str | None:
+def _wall_notes(req: SectionRequest) -> list[str]:
+    """The design-wall message of a tube built from its dimensions (none for other shapes)."""
     if req.spec.family not in ("HSS", "HSS_ROUND") or req.spec.dim("t") is None:
-        return None
-    return "modeled WallThickness taken as the nominal wall; " + design_wall(
-        req.spec.dim("t"), req.standard, req.spec.family)[1]
+        return []
+    return ["modeled WallThickness taken as the nominal wall; " + design_wall(
+        req.spec.dim("t"), req.standard, req.spec.family)[1]]
 
 
 def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
@@ -177,6 +180,13 @@ def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
     else:
         notes.append(f"unnamed {spec.ifc_class}: properties from the modeled dimensions")
     return -1, notes, None
+
+
+def _thickest(spec: ProfileSpec) -> float | None:
+    """The thickest element of a profile, in (EN grades are banded by it), None if unknown."""
+    keys = ("B", "D") if spec.family in ("RECT", "ROUND") else ("tw", "tf", "t", "tf_top")
+    ts = [v for k, v in spec.dims if k in keys and v is not None]
+    return max(ts) if ts else None
 
 
 def resolve_sections(requests: list[SectionRequest]) -> Resolution:
@@ -230,16 +240,10 @@ def resolve_sections(requests: list[SectionRequest]) -> Resolution:
             u = members[k]
             u_row[u], u_basis[u] = offset + j, "dimensions"
             u_notes[u].extend(reqs[u].spec.notes)
-            wall = _wall_note(reqs[u])
-            if wall:
-                u_notes[u].append(wall)
+            u_notes[u].extend(_wall_notes(reqs[u]))
         offset += len(good)
     sections = SectionTable.concat(tables) if tables else SectionTable.empty()
-    thickness = []
-    for r in reqs:
-        keys = ("B", "D") if r.spec.family in ("RECT", "ROUND") else ("tw", "tf", "t", "tf_top")
-        ts = [v for k, v in r.spec.dims if k in keys and v is not None]
-        thickness.append(max(ts) if ts else None)
+    thickness = [_thickest(r.spec) for r in reqs]
     return Resolution(
         sections=sections,
         index=u_row[member_key] if n else np.zeros(0, dtype=np.int64),

@@ -131,10 +131,14 @@ def check_model(
     Args:
         path: the model (``.ifc``, ``.ifczip``, ``.ifcxml``); never modified.
         method: "LRFD" or "ASD".
-        loads_table: CSV load table (design.md §5), or None.
+        loads_table: CSV load table (design.md §5; parsed by :mod:`service.load_table`
+            before the model is opened), or None.
         include_members: also check IfcMember elements.
         units: report units, "us" (kip / ft / ksi) or "si" (kN / m / MPa).
-        out_model, out_report, out_csv, out_junit: output files (None: not written).
+        out_model: the checked copy of the model (None: not written).
+        out_report: the JSON report (None: not written).
+        out_csv: the CSV report (None: not written).
+        out_junit: the JUnit XML report (None: not written).
         baseline: a previous report (path or dict) to compare with; adds ``changes``.
         change_threshold: utilization change reported against the baseline (absolute).
         allow_not_checked: JUnit lists not-checked members as skipped instead of failed.

@@ -171,6 +171,17 @@ def test_load_table_supplies_missing_loads(tmp_path) -> None:
     assert report["source"]["loads_table"] == "loads.csv"
 
 
+def test_bad_load_table_is_one_line_and_writes_nothing(tmp_path) -> None:
+    src = write_model(tmp_path / "model.ifc")
+    table = tmp_path / "loads.csv"
+    table.write_text("element,D [ft]\nC3,10\n")
+    out, report = tmp_path / "checked.ifc", tmp_path / "report.json"
+    with pytest.raises(InputError) as err:
+        check_model(src, loads_table=table, out_model=out, out_report=report)
+    assert "'ft' is not a force unit" in str(err.value) and "\n" not in str(err.value)
+    assert not out.exists() and not report.exists()
+
+
 def test_zipped_output(tmp_path) -> None:
     src = write_model(tmp_path / "model.ifc")
     out = tmp_path / "checked.ifczip"
