@@ -14,7 +14,7 @@ import numpy as np
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.sections import SectionTable
 
-# Order of the load-type columns of MemberTable.loads (design.md §2).  W and E are reversible.
+# Order of the load-type columns of MemberTable.loads (docs/design.md §2).  W and E are reversible.
 LOAD_TYPES: tuple[str, ...] = ("D", "L", "Lr", "S", "R", "W", "E")
 REVERSIBLE: tuple[str, ...] = ("W", "E")
 

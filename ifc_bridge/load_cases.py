@@ -1,6 +1,6 @@
 """Axial forces from structural analysis results stored in the model, by ASCE 7 load type.
 
-Path from a column to its results (design.md §5):
+Path from a column to its results (docs/design.md §5):
 
     IfcColumn <-IfcRelAssignsToProduct (either direction)-> IfcStructuralCurveMember
     IfcStructuralCurveMember (or the column itself) <-IfcRelConnectsStructuralActivity->

@@ -277,7 +277,7 @@ def suggestions_for(
 
 
 def check_request(req: MembersRequest) -> dict:
-    """Members request -> report (design.md §3)."""
+    """Members request -> report (docs/design.md §3)."""
     members, results = run_request(req)
     suggestions, problems = suggestions_for(
         members, results, list(map(_candidates_attr, req.members)),

@@ -131,7 +131,7 @@ def check_model(
     Args:
         path: the model (``.ifc``, ``.ifczip``, ``.ifcxml``); never modified.
         method: "LRFD" or "ASD".
-        loads_table: CSV load table (design.md §5; parsed by :mod:`service.load_table`
+        loads_table: CSV load table (docs/design.md §5; parsed by :mod:`service.load_table`
             before the model is opened), or None.
         include_members: also check IfcMember elements.
         units: report units, "us" (kip / ft / ksi) or "si" (kN / m / MPa).
@@ -153,7 +153,7 @@ def check_model(
         families: candidate families / designations (default: each column's own family).
 
     Returns:
-        The report dict (design.md §3) with ``source`` (and ``changes`` with a baseline).
+        The report dict (docs/design.md §3) with ``source`` (and ``changes`` with a baseline).
 
     Raises:
         InputError: unreadable model or load table, malformed baseline, bad output paths.

@@ -1,4 +1,4 @@
-"""The members request (design.md §2): pydantic models shared by the CLI and the HTTP API."""
+"""The members request (docs/design.md §2): pydantic models shared by the CLI and the HTTP API."""
 
 from __future__ import annotations
 
@@ -72,7 +72,7 @@ class Profile(_Strict):
 
 
 class Member(_Strict):
-    """One member to check (design.md §2)."""
+    """One member to check (docs/design.md §2)."""
 
     id: str = Field(min_length=1)
     name: str | None = None
