@@ -163,3 +163,14 @@ def test_progress_lines_only_for_large_jobs() -> None:
     text = stream.getvalue()
     assert text.startswith("stanchion: checking 20,000 members ...") and text.endswith(" s\n")
     assert "10 / 20" not in text
+
+
+def test_bad_load_table_exits_2_with_one_line(tmp_path, capsys) -> None:
+    src = write_model(tmp_path / "model.ifc")
+    table = tmp_path / "loads.csv"
+    table.write_text("element,Dead\nC3,10\n")
+    report = tmp_path / "r.json"
+    assert main(["check", str(src), "--loads", str(table), "--report", str(report)]) == 2
+    err = capsys.readouterr().err.strip()
+    assert "column 'Dead' is not a load type" in err and "\n" not in err
+    assert not report.exists()
