@@ -16,7 +16,7 @@ from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, match_grade, produc
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import Kind, SectionTable
 from stanchion.engine.selection import suggest_for_members
-from stanchion.engine.tubes import catalog_wall_note, design_wall
+from stanchion.engine.tubes import ERW_RATIO, catalog_wall_note, design_wall
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.errors import InputError
 from stanchion.service.reports.report import build_report
@@ -124,32 +124,50 @@ def _sections(members: list[Member], length_unit: str
     return table, idx, reasons, labels, notes
 
 
-def _thickest(sections: SectionTable, row: int) -> float:
-    """The thickest element of a section, in (EN grades are banded by it)."""
+def _thickest(sections: SectionTable, row: int, profile: Profile | None, length_unit: str
+              ) -> float:
+    """The thickest element of a section, nominal, in (EN grades are banded by it).
+
+    A profile's dimensions as given (a tube's ``t`` is nominal); a catalog tube's nominal
+    wall is its tabulated tdes / 0.93 (the catalog's A500 rule, :data:`engine.tubes.ERW_RATIO`).
+    """
+    if profile is not None:
+        if profile.shape == "RECT":
+            dims = (min(profile.h, profile.b),)
+        elif profile.shape == "CIRCLE":
+            dims = (profile.D,)
+        else:  # walls, webs and flanges
+            dims = (profile.t, profile.tw, profile.tf)
+        return max(v for v in dims if v is not None) * length_factor(profile.unit or length_unit)
     kind = int(sections.kind[row])
     if kind == Kind.SOLID_RECT:
         return float(min(sections.d[row], sections.bf[row]))
     if kind == Kind.SOLID_ROUND:
         return float(sections.d[row])
+    if kind in _TUBES:
+        return float(sections.tw[row]) / ERW_RATIO
     return float(max(sections.tw[row], sections.tf[row]))
 
 
 def _apply_grades(
-    grades: list[str | None], sections: SectionTable, idx: np.ndarray, Fy: np.ndarray,
-    stress: str, reasons: list[str | None], notes: dict[int, list[str]],
+    req: MembersRequest, grades: list[str | None], sections: SectionTable, idx: np.ndarray,
+    Fy: np.ndarray, reasons: list[str | None], notes: dict[int, list[str]],
 ) -> None:
     """Members with a ``grade``: Fy from it where ``fy`` is absent, and their messages.
 
     ``Fy`` (ksi) is filled in place; a grade that gives no yield stress for a member without
     ``fy`` makes it not checked, with the reason.
     """
+    stress = req.units.stress
     to_user = 1.0 / stress_factor(stress)
     for i, grade in enumerate(grades):
         if grade is None:
             continue
         row = int(idx[i])
         family = str(sections.family[row]) if row >= 0 else None
-        found, gnotes = match_grade(grade, family, _thickest(sections, row) if row >= 0 else None)
+        thickness = (_thickest(sections, row, req.members[i].profile, req.units.length)
+                     if row >= 0 else None)
+        found, gnotes = match_grade(grade, family, thickness)
         said = notes.setdefault(i, [])
         said.extend(gnotes)
         if found is None and product_standard(grade) is None:
@@ -192,7 +210,7 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     Fy = fy * fS
     grades = list(map(_grade_item, fields))
     if grades.count(None) != len(grades):
-        _apply_grades(grades, sections, idx, Fy, req.units.stress, reasons, notes)
+        _apply_grades(req, grades, sections, idx, Fy, reasons, notes)
     E = (req.E * fS) if req.E is not None else E_DEFAULT
     G = (req.G * fS) if req.G is not None else G_DEFAULT
     return MemberTable.build(

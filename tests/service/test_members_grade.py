@@ -115,3 +115,23 @@ def test_catalog_tube_with_a1085_keeps_the_tabulated_wall():
 def test_empty_grade_is_refused():
     with pytest.raises(ValueError, match="grade"):
         MembersRequest.model_validate({"members": [_member(0, section="W14X48", grade="")]})
+
+
+def test_en_thickness_band_uses_the_nominal_wall():
+    # S355 (EN 10025: not a tube standard, so 0.93 t for the wall) on a 42 mm nominal wall:
+    # EN 1993-1-1:2005 Table 3.1 bands by the nominal thickness, 40 < 42 <= 80 mm: 335 MPa,
+    # though the design wall 0.93 x 42 = 39.1 mm would fall in the first band
+    req = MembersRequest.model_validate({
+        "units": {"force": "kN", "length": "m", "stress": "MPa"},
+        "members": [{"id": "A", "grade": "S355J2", "length": 4, "loads": {"D": 100},
+                     "profile": {"shape": "RECT_HOLLOW", "h": 400, "b": 400, "t": 42,
+                                 "unit": "mm"}}]})
+    assert members_from_request(req).Fy[0] == pytest.approx(335.0 * 0.1450377, rel=1e-6)
+
+
+def test_catalog_tube_thickness_band_uses_its_nominal_wall():
+    # HSS8X8X1/2: tdes 0.465 in, tnom 0.5 in = 12.7 mm (AISC Shapes Database v16.0);
+    # S355J2H, t <= 40 mm: fy = 355 MPa (EN 1993-1-1:2005 Table 3.1)
+    req = MembersRequest.model_validate({"members": [_member(0, section="HSS8X8X1/2",
+                                                              grade="S355J2H")]})
+    assert members_from_request(req).Fy[0] == pytest.approx(355.0 * 0.1450377, rel=1e-6)
