@@ -26,7 +26,6 @@ from types import ModuleType
 import jsonschema
 import pytest
 from pydantic import BaseModel, ValidationError
-from test_model_check_files import write_model
 
 from stanchion.service.cli import main as cli_main
 from stanchion.service.core import check_request
@@ -41,6 +40,7 @@ from stanchion.service.report_model import (
 )
 from stanchion.service.reports.report import report_schema
 from stanchion.service.request import MembersRequest
+from tests.service.test_model_check_files import write_model
 
 ROOT = Path(__file__).resolve().parents[2]
 CHANGE_KINDS = ("new_failures", "fixed", "new_not_checked", "added", "removed",
