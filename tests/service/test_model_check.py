@@ -17,15 +17,6 @@ import ifcopenshell.validate
 import jsonschema
 import pandas as pd
 import pytest
-from test_model_check_files import (
-    LENGTH,
-    build_model,
-    class_counts,
-    column_guids,
-    digest,
-    guids,
-    write_model,
-)
 
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.write import PSET_NAME
@@ -34,6 +25,15 @@ from stanchion.service.errors import InputError
 from stanchion.service.model_check import check_model
 from stanchion.service.reports.report import report_schema
 from stanchion.service.request import MembersRequest
+from tests.service.test_model_check_files import (
+    LENGTH,
+    build_model,
+    class_counts,
+    column_guids,
+    digest,
+    guids,
+    write_model,
+)
 
 SCHEMAS = ("IFC2X3", "IFC4", "IFC4X3")
 ADDED_CLASSES = {"IfcPropertySet", "IfcPropertySingleValue", "IfcRelDefinesByProperties",

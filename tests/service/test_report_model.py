@@ -243,7 +243,7 @@ def test_models_and_schema_refuse_a_broken_report(good_report: dict, change) -> 
 # ------------------------------------------------------------------------------ HTTP bodies
 
 
-MEMBER = _member("C-12", D=95.0, L=60.0, S=12.0)  # design.md §2 example
+MEMBER = _member("C-12", D=95.0, L=60.0, S=12.0)  # docs/design.md §2 example
 
 
 def _fits(model: type[BaseModel], body: object) -> None:
