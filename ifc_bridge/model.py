@@ -13,15 +13,13 @@ from pathlib import Path
 
 import ifcopenshell
 
+from stanchion.ifc_bridge.errors import ModelReadError
+
 #: Schema identifiers accepted by :func:`open_model` (prefix match on ``file.schema``).
 SUPPORTED_SCHEMAS: tuple[str, ...] = ("IFC2X3", "IFC4", "IFC4X3")
 
 #: File endings ifcopenshell can open (STEP, zipped STEP, IFC-XML).
 _SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
-
-
-class ModelReadError(Exception):
-    """An IFC model (or its load table) cannot be used; the message is one line."""
 
 
 def supported_schema(schema: str) -> bool:

@@ -14,7 +14,7 @@ Outputs (see ``sample_models/README.md`` for the scenario):
   IfcStructuralCurveReaction forces).
 * ``garden_pavilion.ifc`` -- IFC2X3, inch / kip / ksi: a two-storey pavilion of 8 columns
   whose loads come from ``garden_pavilion_loads.csv`` (rows keyed by the columns' Tags).
-* ``expected_summary.json`` -- the counts of a real ``check_model`` run on both (not written
+* ``expected_summary.json`` -- the counts of a real ``pipeline.check`` run on both (not written
   with ``--no-summary``).
 
 Every number below -- grid, storey heights, area loads, wind forces, sections picked, the
@@ -363,12 +363,12 @@ def write_samples(out_dir: Path) -> list[Path]:
 
 def summarize(folder: Path) -> dict:
     """Check both samples with the real check and keep what the tests compare."""
-    from stanchion.service.model_check import check_model
+    from stanchion.service.pipeline import CheckOptions, check
 
     out = {}
     for model_name, table in ((WORKSHOP, None), (PAVILION, PAVILION_LOADS)):
-        report = check_model(Path(folder) / model_name,
-                             loads_table=Path(folder) / table if table else None)
+        options = CheckOptions(loads_table=Path(folder) / table if table else None)
+        report = check(Path(folder) / model_name, options).report
         s = report["summary"]
         by_status = {st: sorted(m["name"] for m in report["members"] if m["status"] == st)
                      for st in ("fail", "not_checked")}

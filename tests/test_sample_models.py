@@ -34,7 +34,7 @@ from stanchion.ifc_bridge.read import read_columns
 from stanchion.service.cli import demo as cmd_demo
 from stanchion.service.cli import main
 from stanchion.service.load_table import read_load_table
-from stanchion.service.model_check import check_model
+from tests.service.checking import check_file as check_model
 
 ROOT = Path(__file__).resolve().parents[1]
 SAMPLES = ROOT / "sample_models"

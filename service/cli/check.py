@@ -9,52 +9,23 @@ written.
 from __future__ import annotations
 
 import argparse
-import json
 import sys
 from pathlib import Path
+from typing import Any
 
 from pydantic import ValidationError
 
+from stanchion.service.cli.progress import Progress
 from stanchion.service.cli.suggest import family_list
-from stanchion.service.core import check_request
 from stanchion.service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
-from stanchion.service.progress import Progress
-from stanchion.service.reports.baseline import (
-    DEFAULT_THRESHOLD,
-    compare,
-    load_baseline,
-    regressions,
-)
-from stanchion.service.reports.files import write_outputs
+from stanchion.service.pipeline import CheckOptions, OutputPaths, check
+from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, regressions
 from stanchion.service.reports.terminal import format_run, warnings
-from stanchion.service.request import MembersRequest
 
-MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 FAIL_ON = ("any", "new-failures")
 
 
-def load_members_request(path: Path, method: str | None = None) -> MembersRequest:
-    """Read and validate a members JSON file (InputError on any problem)."""
-    try:
-        text = path.read_text(encoding="utf-8")
-    except (OSError, UnicodeDecodeError) as exc:
-        raise InputError(f"cannot read {path}: {getattr(exc, 'strerror', None) or exc}") from None
-    try:
-        data = json.loads(text)
-    except json.JSONDecodeError as exc:
-        raise InputError(
-            f"cannot read {path}: not valid JSON (line {exc.lineno}, column {exc.colno}: "
-            f"{exc.msg})"
-        ) from None
-    if isinstance(data, dict) and method:
-        data["design_method"] = method
-    try:
-        return MembersRequest.model_validate(data)
-    except ValidationError as exc:
-        raise InputError(f"{path}: {validation_message(exc)}") from None
-
-
-def exit_code(report: dict, allow_not_checked: bool = False, fail_on: str = "any") -> int:
+def exit_code(report: dict[str, Any], allow_not_checked: bool = False, fail_on: str = "any") -> int:
     """The exit code of a finished check.
 
     ``fail_on="any"``: 1 when any member fails or is not checked (not-checked members allowed
@@ -72,58 +43,41 @@ def exit_code(report: dict, allow_not_checked: bool = False, fail_on: str = "any
     return EXIT_FAILURES if bad else EXIT_OK
 
 
-def _check_options(args: argparse.Namespace, is_model: bool) -> None:
-    """Refuse option combinations that cannot work, before anything is read or written."""
+def _check_options(args: argparse.Namespace) -> None:
+    """Refuse option values that cannot work, naming the option, before anything is read."""
     if args.fail_on == "new-failures" and not args.baseline:
         raise InputError("--fail-on new-failures needs --baseline")
     if not args.change_threshold >= 0:
         raise InputError("--change-threshold must be zero or positive")
-    if not is_model:
-        for option, value in (("--out", args.out), ("--loads", args.loads),
-                              ("--include-members", args.include_members),
-                              ("--units", args.units), ("--suggest", args.suggest)):
-            if value:
-                raise InputError(f"{option} applies to IFC models; a members file carries "
-                                 "its own loads, units and candidates")
     if args.utilization_limit is not None and not args.utilization_limit > 0:
         raise InputError("--utilization-limit must be greater than zero")
     if args.oversized is not None and not args.oversized > 0:
         raise InputError("--oversized must be greater than zero")
-    if (args.utilization_limit is not None or args.oversized is not None
-            or args.families) and not args.suggest:
-        raise InputError("--utilization-limit, --oversized and --families go with --suggest")
 
 
-def _check_members_file(path: Path, args: argparse.Namespace) -> dict:
-    from stanchion.service.model_check import check_output_paths
-
-    check_output_paths(path, {"--report": args.report, "--csv": args.csv,
-                              "--junit": args.junit})
-    base = load_baseline(Path(args.baseline)) if args.baseline else None
-    req = load_members_request(path, args.method)
-    report = check_request(req)
-    report["source"] = {"file": path.name, "members": len(report["members"])}
-    if base is not None:
-        report["changes"] = compare(base, report, args.change_threshold,
-                                    Path(args.baseline).name)
-    write_outputs(report, report_path=args.report, csv_path=args.csv, junit_path=args.junit,
-                  allow_not_checked=args.allow_not_checked)
-    return report
+def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
+    """The pipeline's options and outputs from the command line."""
+    _check_options(args)
+    try:
+        options = CheckOptions(
+            method=args.method, units=args.units,
+            loads_table=Path(args.loads) if args.loads else None,
+            include_members=args.include_members, suggest=args.suggest,
+            utilization_limit=args.utilization_limit, oversized=args.oversized,
+            families=tuple(args.families) if args.families else None,
+            baseline=Path(args.baseline) if args.baseline else None,
+            change_threshold=args.change_threshold, allow_not_checked=args.allow_not_checked)
+    except ValidationError as exc:  # pragma: no cover - argparse and the checks above refuse first
+        raise InputError(validation_message(exc)) from None
+    outputs = OutputPaths(model=args.out, report=args.report, csv=args.csv, junit=args.junit)
+    return options, outputs
 
 
 def run_check(args: argparse.Namespace) -> int:
     """Run the check verb."""
-    path = Path(args.input)
-    is_model = path.suffix.lower() in MODEL_SUFFIXES
-    _check_options(args, is_model)
-    if is_model:
-        from stanchion.service.model_check import check_model_file
-
-        if not args.quiet:
-            args.progress = Progress(sys.stderr)
-        report = check_model_file(path, args)
-    else:
-        report = _check_members_file(path, args)
+    options, outputs = options_from(args)
+    progress = None if args.quiet else Progress(sys.stderr)
+    report = check(Path(args.input), options, outputs, progress).report
     code = exit_code(report, args.allow_not_checked, args.fail_on)
     if not args.quiet:
         print(format_run(report, fail_on=args.fail_on,
@@ -184,4 +138,4 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      "each column's own family)")
     c.add_argument("--quiet", action="store_true",
                    help="print nothing but errors (no progress, summary or warnings)")
-    c.set_defaults(func=run_check, progress=None)
+    c.set_defaults(func=run_check)

@@ -55,7 +55,7 @@ def output_paths(model: Path, output_dir: Path) -> dict[str, Path]:
 
 def run_demo(args: argparse.Namespace) -> int:
     """Check the sample, write the outputs, print where they are and the summary."""
-    from stanchion.service.model_check import check_model
+    from stanchion.service.pipeline import CheckOptions, OutputPaths, check
     from stanchion.service.reports.terminal import format_run
 
     model, table = sample_paths(args.sample, SAMPLE_DIR)
@@ -67,10 +67,10 @@ def run_demo(args: argparse.Namespace) -> int:
     outputs = output_paths(model, output_dir)
     print(f"stanchion demo: checking {model.name}, an invented sample building "
           "(demo data, not a design)")
-    report = check_model(
-        model, loads_table=table, out_model=outputs["checked model"],
-        out_report=outputs["JSON report"], out_csv=outputs["CSV"],
-        out_junit=outputs["JUnit XML"], suggest=True)
+    report = check(
+        model, CheckOptions(loads_table=table, suggest=True),
+        OutputPaths(model=outputs["checked model"], report=outputs["JSON report"],
+                    csv=outputs["CSV"], junit=outputs["JUnit XML"])).report
     print(format_run(report))
     for m in report["members"]:
         if m.get("suggestions"):

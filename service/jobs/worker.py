@@ -1,9 +1,10 @@
 """The child process that runs one model job: ``python -m stanchion.service.jobs.worker JOB_DIR``.
 
 It reads ``JOB_DIR/job.json`` (written by the server when the upload was complete), checks the
-model with :func:`service.model_check.check_model`, leaves the report, checked model and CSV
-in the folder, and writes ``result.json``: ``{"status": "done", "summary": {...}}`` or
-``{"status": "failed", "error": "one line"}``.  The server (:mod:`service.jobs`) reads that
+model with the pipeline (:func:`stanchion.service.pipeline.check`), leaves the report, checked
+model and CSV in the folder, and writes ``result.json``: ``{"status": "done", "summary":
+{...}}`` or ``{"status": "failed", "error": "one line"}``.  The server
+(:mod:`stanchion.service.jobs.runner`) reads that
 file once the process has ended; a process that crashes or is killed leaves none and its job
 is failed by the server.  Tracebacks go to this process's stderr (``worker.log`` in the job
 folder, server-side only), never into ``result.json``.
@@ -20,8 +21,9 @@ import sys
 import traceback
 from collections.abc import Callable, Sequence
 from pathlib import Path
+from typing import Any
 
-from stanchion.ifc_bridge.model import ModelReadError
+from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.service.errors import InputError
 from stanchion.service.jobs.runner import CPU_LIMIT_ENV
 from stanchion.service.jobs.store import (
@@ -31,10 +33,12 @@ from stanchion.service.jobs.store import (
     REPORT_FILE,
     RESULT_FILE,
 )
+from stanchion.service.pipeline import CheckOptions, OutputPaths, check
 
 log = logging.getLogger("stanchion.worker")
 
-CheckModel = Callable[..., dict]
+#: The check a job runs: (model, options, outputs) -> report.  Tests pass a stand-in.
+CheckModel = Callable[[Path, CheckOptions, OutputPaths], dict[str, Any]]
 
 
 def _is_input_error(exc: BaseException) -> bool:
@@ -45,10 +49,10 @@ def _is_input_error(exc: BaseException) -> bool:
     return isinstance(exc, InputError | ModelReadError)
 
 
-def _default_check() -> CheckModel:
-    from stanchion.service.model_check import check_model
-
-    return check_model
+def pipeline_check(model: Path, options: CheckOptions, outputs: OutputPaths
+                   ) -> dict[str, Any]:
+    """The pipeline's check of a model; returns its report."""
+    return check(model, options, outputs).report
 
 
 def _write_json(path: Path, data: dict) -> None:
@@ -67,12 +71,12 @@ def _public_message(msg: str, job_dir: Path, names: dict[str, str]) -> str:
     return first[:500]
 
 
-def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
+def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
     """Check the model of one job folder and write ``result.json``.
 
     Args:
         job_dir: the job folder.
-        check: the model check (default :func:`service.model_check.check_model`).
+        check: the model check (default :func:`pipeline_check`).
 
     Returns:
         The result written to ``result.json``.
@@ -85,13 +89,11 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict:
     if params.get("loads"):
         names[params["loads"]] = params.get("loads_filename") or params["loads"]
     try:
-        if check is None:
-            check = _default_check()
-        report = check(
-            model, method=params.get("design_method", "LRFD"), loads_table=loads,
-            out_model=job_dir / MODEL_OUT_FILE, out_report=job_dir / REPORT_FILE,
-            out_csv=job_dir / CSV_FILE, source_name=names[params["model"]],
-        )
+        options = CheckOptions(method=params.get("design_method", "LRFD"), loads_table=loads,
+                               source_name=names[params["model"]])
+        outputs = OutputPaths(model=job_dir / MODEL_OUT_FILE, report=job_dir / REPORT_FILE,
+                              csv=job_dir / CSV_FILE)
+        report = (check or pipeline_check)(model, options, outputs)
         if not (job_dir / REPORT_FILE).exists():
             _write_json(job_dir / REPORT_FILE, report)
         result = {"status": "done", "summary": report.get("summary")}

@@ -14,8 +14,11 @@ import xml.etree.ElementTree as ET
 import zipfile
 from collections.abc import Callable
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-import pandas as pd
+if TYPE_CHECKING:
+    import pandas as pd
+
 
 NOT_CHECKED = "not_checked"
 #: Suite name for members that carry no storey.
@@ -66,6 +69,8 @@ def report_frame(report: dict) -> pd.DataFrame:
     available_strength [F], limit_state, combination, slenderness, critical_stress [S],
     reason, messages (joined with "; "), plus any further scalar member fields (tag ...).
     """
+    import pandas as pd  # only for the CSV: keeps the job worker's start-up short
+
     units = report.get("units", {})
     force, stress = units.get("force", ""), units.get("stress", "")
     rows = report.get("members", [])

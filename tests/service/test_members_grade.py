@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from stanchion.service.core import check_request, members_from_request
+from stanchion.service.members_check import check_request, members_from_request
 from stanchion.service.request import MembersRequest
 
 # HSS8X8X1/4, Fy = 50 ksi, 14 ft, LRFD: φPn = 259.5 kip -- hand computation in

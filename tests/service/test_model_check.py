@@ -1,4 +1,4 @@
-"""check_model end to end on real IFC files: lossless output, validity, reruns, outputs.
+"""The pipeline on IFC models end to end, real files: lossless output, validity, reruns, outputs.
 
 Expected values: 1.4D = 1.4 x 300 = 420 kips (ASCE 7-22 §2.3.1, combination 1); φcPn of a
 W14X48, Fy = 50 ksi, Lc = 16 ft is 303 kips (AISC Manual Table 4-1a, 16th ed.).  Unit
@@ -20,11 +20,11 @@ import pytest
 
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.write import PSET_NAME
-from stanchion.service.core import check_request
 from stanchion.service.errors import InputError
-from stanchion.service.model_check import check_model
+from stanchion.service.members_check import check_request
 from stanchion.service.reports.report import report_schema
 from stanchion.service.request import MembersRequest
+from tests.service.checking import check_file as check_model
 from tests.service.test_model_check_files import (
     LENGTH,
     build_model,

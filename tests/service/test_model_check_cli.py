@@ -16,7 +16,7 @@ import ifcopenshell.util.element
 
 from stanchion.engine.units import factor
 from stanchion.service.cli import main
-from stanchion.service.progress import Progress
+from stanchion.service.cli.progress import Progress
 from tests.service.test_model_check_files import column_guids, digest, write_model
 
 PASSING = {"C1": {"D": 95.0, "L": 60.0, "S": 12.0}, "C2": {"D": 10.0}}

@@ -28,8 +28,7 @@ import pytest
 from pydantic import BaseModel, ValidationError
 
 from stanchion.service.cli import main as cli_main
-from stanchion.service.core import check_request
-from stanchion.service.model_check import check_model
+from stanchion.service.members_check import check_request
 from stanchion.service.report_model import (
     ErrorBody,
     Health,
@@ -40,6 +39,7 @@ from stanchion.service.report_model import (
 )
 from stanchion.service.reports.report import report_schema
 from stanchion.service.request import MembersRequest
+from tests.service.checking import check_file as check_model
 from tests.service.test_model_check_files import write_model
 
 ROOT = Path(__file__).resolve().parents[2]

@@ -4,8 +4,8 @@ from __future__ import annotations
 
 import pytest
 
-from stanchion.service.core import check_request
 from stanchion.service.errors import InputError
+from stanchion.service.members_check import check_request
 from stanchion.service.request import MembersRequest
 
 

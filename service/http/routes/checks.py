@@ -12,10 +12,10 @@ from fastapi.responses import Response
 from fastapi.routing import APIRoute, APIRouter
 from pydantic import ValidationError
 
-from stanchion.service.core import check_request
 from stanchion.service.errors import InputError
 from stanchion.service.http.errors import error_response, invalid_response
 from stanchion.service.http.responses import errors
+from stanchion.service.members_check import check_request
 from stanchion.service.report_model import Report
 from stanchion.service.request import MembersRequest
 

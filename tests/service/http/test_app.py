@@ -14,11 +14,11 @@ from pathlib import Path
 import pytest
 from fastapi.testclient import TestClient
 
-from stanchion.service.core import check_request
 from stanchion.service.http.app import create_app
 from stanchion.service.http.guard import Guard
 from stanchion.service.http.routes import checks as checks_route
 from stanchion.service.http.settings import Settings
+from stanchion.service.members_check import check_request
 from stanchion.service.request import MembersRequest
 
 STUB = [sys.executable, str(Path(__file__).parents[1] / "jobs" / "stub_worker.py")]

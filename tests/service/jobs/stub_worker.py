@@ -18,13 +18,15 @@ import sys
 import time
 from pathlib import Path
 
+from stanchion.service.pipeline import CheckOptions, OutputPaths
 
-def stand_in_check(path: Path, *, method: str = "LRFD", loads_table: Path | None = None,
-                   out_model: Path | None = None, out_report: Path | None = None,
-                   out_csv: Path | None = None, **_: object) -> dict:
+
+def stand_in_check(path: Path, options: CheckOptions, outputs: OutputPaths) -> dict:
     """Behave as the first bytes of the model ask (see the module docstring)."""
     from stanchion.service.errors import InputError
 
+    method, loads_table = options.method, options.loads_table
+    out_model, out_csv = outputs.model, outputs.csv
     data = Path(path).read_bytes()
     if data.startswith(b"CRASH"):
         os.abort()

@@ -1,11 +1,14 @@
-"""Core functions shared by the command line and the HTTP service.
+"""Checking a members request: request -> member table -> engine -> report.
 
-Members request -> member table (units converted here, at the edge) -> engine -> report.
+Units are converted here, at the edge: the request's units in, the engine's kip, inch and
+ksi inside, the request's units again in the report.  Used by the pipeline for members files
+(:mod:`stanchion.service.pipeline`) and by the HTTP checks route.
 """
 
 from __future__ import annotations
 
 import operator
+from typing import Any
 
 import numpy as np
 
@@ -15,12 +18,12 @@ from stanchion.engine.combinations import custom_combinations
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, match_grade, product_standard
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import Kind, SectionTable
-from stanchion.engine.selection import suggest_for_members
 from stanchion.engine.tubes import ERW_RATIO, catalog_wall_note, design_wall
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.errors import InputError
 from stanchion.service.reports.report import build_report
 from stanchion.service.request import Member, MembersRequest, Profile
+from stanchion.service.suggestions import suggest
 
 #: Member fields in the order of the request table's first columns.
 _SCALARS = ("fy", "length", "lx", "ly", "lz", "kx", "ky", "kz", "required_strength")
@@ -249,61 +252,24 @@ def run_request(req: MembersRequest) -> tuple[MemberTable, CheckResults]:
     return members, results
 
 
-def suggestions_for(
-    members: MemberTable,
-    results: CheckResults,
-    specs: list[list[str] | None],
-    max_utilization: list[float | None],
-    *,
-    min_depth: float | None = None,
-    max_depth: float | None = None,
-    max_suggestions: int = 5,
-) -> tuple[dict[int, list[dict]], dict[int, str]]:
-    """Suggested sections (internal units) for the members whose ``specs`` ask for them.
+def check_members_request(req: MembersRequest
+                          ) -> tuple[MemberTable, CheckResults, dict[str, Any]]:
+    """Check a members request: the member table, the results and the report.
 
-    Returns:
-        suggestions by member row, and a message by member row for unusable candidates.
+    Members with ``candidates`` get suggestions (:func:`stanchion.service.suggestions.suggest`).
     """
-    if not any(specs):
-        return {}, {}
-    problems: dict[int, str] = {}
-    usable: list[list[str] | None] = []
-    for i, spec in enumerate(specs):
-        if not spec:
-            usable.append(None)
-            continue
-        try:
-            for item in spec:
-                if len(catalog.family_indices(item)) == 0:
-                    raise ValueError(f"candidate {item!r} matches no catalog shape")
-        except ValueError as exc:
-            problems[i] = f"no suggestions: {exc}"
-            usable.append(None)
-            continue
-        usable.append(spec)
-    limit = np.array([1.0 if u is None else u for u in max_utilization], dtype=float)
-    sug, rows, skipped = suggest_for_members(
-        members, results.required_strength, usable, method=results.method,
-        max_utilization=limit, max_suggestions=max_suggestions,
-        min_depth=min_depth, max_depth=max_depth,
-    )
-    for i in skipped.tolist():
-        problems[i] = ("no suggestions: the member's required strength, yield stress or "
-                       "unbraced lengths are unknown")
-    cat = catalog.load_catalog()
-    return {int(i): sug.for_member(j, cat) for j, i in enumerate(rows)}, problems
-
-
-def check_request(req: MembersRequest) -> dict:
-    """Members request -> report (docs/design.md §3)."""
     members, results = run_request(req)
-    suggestions, problems = suggestions_for(
+    suggestions = suggest(
         members, results, list(map(_candidates_attr, req.members)),
         list(map(_max_utilization_attr, req.members)),
         min_depth=req.selection.min_depth, max_depth=req.selection.max_depth,
-        max_suggestions=req.selection.max_suggestions,
+        count=req.selection.max_suggestions,
     )
-    for i, text in problems.items():
-        results.messages[i] = [*results.messages[i], text]
-    return build_report(members, results, req.units.model_dump(), detail=req.detail,
-                        custom_combinations=bool(req.combinations), suggestions=suggestions)
+    report = build_report(members, results, req.units.model_dump(), detail=req.detail,
+                          custom_combinations=bool(req.combinations), suggestions=suggestions)
+    return members, results, report
+
+
+def check_request(req: MembersRequest) -> dict[str, Any]:
+    """Members request -> report (docs/design.md §3); the HTTP checks route's whole work."""
+    return check_members_request(req)[2]

@@ -63,10 +63,3 @@ class Progress:
         """A running count inside the current phase (terminals only)."""
         if self.active and self._tty and self._label:
             self._print(f"\rstanchion: {self._label} ... {done:,} / {total:,}\033[K", end="")
-
-
-class Silent(Progress):
-    """A progress reporter that never prints (HTTP jobs, ``--quiet``)."""
-
-    def consider(self, *, size: int | None = None, items: int | None = None) -> bool:
-        return False
