@@ -89,6 +89,7 @@ def read_load_table(path: str | Path) -> LoadTable:
                                  f"({', '.join(LOAD_TYPES)}, optionally with a [unit])")
         if kind in to_kip:
             raise LoadTableError(f"load table {label}: load type {kind} appears twice")
+        assert m is not None  # a load type was recognised in it
         unit = m.group(2)
         to_kip[kind] = _force_factor(unit, label) if unit else None
         plan.append((pos, kind))

@@ -56,10 +56,18 @@ def _profile_section(p: Profile, default_unit: str, grade: str | None = None
     f = length_factor(p.unit or default_unit)
 
     def v(name: str) -> float:
+        """A dimension the shape needs, in inches (the request model requires it)."""
         x = getattr(p, name)
-        return None if x is None else x * f
+        if x is None:
+            raise ValueError(f"{p.shape} needs '{name}'")
+        return float(x) * f
 
-    r = v("r") or 0.0
+    def opt(name: str) -> float | None:
+        """A dimension the shape may give (a corner or fillet radius), in inches."""
+        x = getattr(p, name)
+        return None if x is None else float(x) * f
+
+    r = opt("r") or 0.0
     if p.shape == "I":
         return section_properties.i_section(v("d"), v("bf"), v("tw"), v("tf"), r), None
     if p.shape == "T":
@@ -69,7 +77,7 @@ def _profile_section(p: Profile, default_unit: str, grade: str | None = None
     if p.shape == "RECT_HOLLOW":
         t, note = design_wall(v("t"), grade, "HSS")
         label = f"HSS {v('h'):.4g}x{v('b'):.4g}x{v('t'):.4g}"  # nominal wall
-        return section_properties.rect_hollow(v("h"), v("b"), t, v("r"), label=label), note
+        return section_properties.rect_hollow(v("h"), v("b"), t, opt("r"), label=label), note
     if p.shape == "CIRC_HOLLOW":
         t, note = design_wall(v("t"), grade, "HSS_ROUND")
         label = f"HSS_ROUND {v('D'):.4g}x{v('t'):.4g}"  # nominal wall
@@ -134,9 +142,10 @@ def _thickest(sections: SectionTable, row: int, profile: Profile | None, length_
     A profile's dimensions as given (a tube's ``t`` is nominal); a catalog tube's nominal
     wall is its tabulated tdes / 0.93 (the catalog's A500 rule, :data:`engine.tubes.ERW_RATIO`).
     """
-    if profile is not None:
+    if profile is not None:  # the request model requires each shape's dimensions
+        dims: tuple[float | None, ...]
         if profile.shape == "RECT":
-            dims = (min(profile.h, profile.b),)
+            dims = (min(profile.h or 0.0, profile.b or 0.0),)
         elif profile.shape == "CIRCLE":
             dims = (profile.D,)
         else:  # walls, webs and flanges

@@ -20,7 +20,8 @@ from stanchion.engine.check import CheckResults, check_members
 from stanchion.engine.members import MemberTable
 from stanchion.engine.selection import suggestion_family
 from stanchion.engine.units import UNIT_SYSTEMS, length_factor
-from stanchion.ifc_bridge.model import ModelReadError, open_model
+from stanchion.ifc_bridge.errors import ModelReadError
+from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import ReadResult, read_columns
 from stanchion.ifc_bridge.write import checked_now, write_results
 from stanchion.service.errors import InputError

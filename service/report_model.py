@@ -24,11 +24,8 @@ from typing import Annotated, Any, Literal
 
 from pydantic import BaseModel, ConfigDict, Field
 
-from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
+from stanchion.service.request import ForceUnit, LengthUnit, StressUnit
 
-ForceUnit = Literal[tuple(FORCE_UNITS)]  # type: ignore[valid-type]
-LengthUnit = Literal[tuple(LENGTH_UNITS)]  # type: ignore[valid-type]
-StressUnit = Literal[tuple(STRESS_UNITS)]  # type: ignore[valid-type]
 Status = Literal["pass", "fail", "not_checked"]
 JobState = Literal["queued", "running", "done", "failed"]
 DesignMethod = Literal["LRFD", "ASD"]

@@ -2,16 +2,22 @@
 
 from __future__ import annotations
 
-from typing import Literal
+from typing import Literal, get_args
 
 from pydantic import BaseModel, ConfigDict, Field, field_validator, model_validator
 
 from stanchion.engine.members import LOAD_TYPES
 from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
 
-ForceUnit = Literal[tuple(FORCE_UNITS)]  # type: ignore[valid-type]
-LengthUnit = Literal[tuple(LENGTH_UNITS)]  # type: ignore[valid-type]
-StressUnit = Literal[tuple(STRESS_UNITS)]  # type: ignore[valid-type]
+#: The unit names a request and its report may use (the engine's unit tables, spelled out so
+#: that the type checker and the JSON Schema see them alike).
+ForceUnit = Literal["kip", "kN", "N", "lbf", "MN"]
+LengthUnit = Literal["ft", "in", "m", "mm"]
+StressUnit = Literal["ksi", "MPa", "psi", "Pa"]
+for _alias, _table in ((ForceUnit, FORCE_UNITS), (LengthUnit, LENGTH_UNITS),
+                       (StressUnit, STRESS_UNITS)):
+    if set(get_args(_alias)) != set(_table):  # pragma: no cover - a unit added on one side
+        raise ImportError(f"unit names out of step with stanchion.engine.units: {_alias}")
 ProfileShape = Literal["I", "RECT_HOLLOW", "CIRC_HOLLOW", "T", "U", "RECT", "CIRCLE"]
 
 
@@ -155,7 +161,6 @@ class MembersRequest(_Strict):
     def _unique_ids(self) -> MembersRequest:
         ids = [m.id for m in self.members]
         if len(set(ids)) < len(ids):  # the common case (no repeats) costs one set()
-            seen: set[str] = set()
-            dup = sorted({i for i in ids if i in seen or seen.add(i)})
+            dup = sorted({i for i in ids if ids.count(i) > 1})
             raise ValueError(f"member ids must be unique; repeated: {', '.join(dup)}")
         return self

@@ -73,7 +73,7 @@ async def _field_error(_: Request, exc: Exception) -> JSONResponse:
 async def _http_error(_: Request, exc: Exception) -> JSONResponse:
     assert isinstance(exc, HTTPException)
     detail = exc.detail if isinstance(exc.detail, str) else "request refused"
-    extra = {"details": exc.detail} if isinstance(exc.detail, list) else {}
+    extra: dict[str, Any] = {"details": exc.detail} if isinstance(exc.detail, list) else {}
     return error_response(exc.status_code, detail, headers=getattr(exc, "headers", None),
                           **extra)
 

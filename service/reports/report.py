@@ -122,8 +122,9 @@ def build_report(
             *rows[i]["messages"],
             f"a load combination gives net tension of {_sig(float(tension[i]), 4)} "
             f"{force_unit}; tension is not checked here"]
-    for i, row in enumerate(rows) if storey_l is not None else ():
-        row["storey"] = None if storey_l[i] is None else str(storey_l[i])
+    if storey_l is not None:
+        for row, storey_i in zip(rows, storey_l, strict=True):
+            row["storey"] = None if storey_i is None else str(storey_i)
     for i in (i for i, st in enumerate(statuses) if st == NOT_CHECKED):
         rows[i]["reason"] = str(results.reason[i])
     for i, found in (suggestions or {}).items():

@@ -97,10 +97,10 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     if model.size == 0:
         raise FieldError(422, "the uploaded model is empty", "file")
     method_part = parts.get("design_method")
-    method = (method_part.value or "LRFD").upper() if method_part else "LRFD"
+    given = method_part.value if method_part is not None else None
+    method = (given or "LRFD").upper()
     if method not in ("LRFD", "ASD"):
-        raise FieldError(422, f"expected LRFD or ASD, got {method_part.value!r}",
-                          "design_method")
+        raise FieldError(422, f"expected LRFD or ASD, got {given!r}", "design_method")
     model.path.rename(folder / f"model{suffix}")
     loads = parts.get("loads")
     loads_name = None
@@ -112,4 +112,5 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     elif loads is not None:  # an empty, unnamed part: a form field left blank
         loads.path.unlink(missing_ok=True)
     return {"model": f"model{suffix}", "filename": filename, "design_method": method,
-            "loads": loads_name, "loads_filename": loads.filename if loads_name else None}
+            "loads": loads_name,
+            "loads_filename": loads.filename if loads is not None and loads_name else None}
