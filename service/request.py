@@ -158,6 +158,17 @@ class MembersRequest(_Strict):
         return v.upper() if isinstance(v, str) else v
 
     @model_validator(mode="after")
+    def _half_live_applies(self) -> MembersRequest:
+        # Refused rather than ignored: the engine would otherwise drop it silently.
+        if self.half_live_exception and self.design_method == "ASD":
+            raise ValueError("half_live_exception is the ASCE 7-22 §2.3.1 strength design "
+                             "(LRFD) exception; it does not apply to ASD")
+        if self.half_live_exception and self.combinations:
+            raise ValueError("half_live_exception changes the default combinations; custom "
+                             "combinations carry their own factors")
+        return self
+
+    @model_validator(mode="after")
     def _unique_ids(self) -> MembersRequest:
         ids = [m.id for m in self.members]
         if len(set(ids)) < len(ids):  # the common case (no repeats) costs one set()

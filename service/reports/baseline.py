@@ -32,7 +32,8 @@ def load_baseline(path: Path) -> dict:
     """Read a previous report; InputError (one line) when it is not one.
 
     Only what the comparison needs is required: a ``members`` list whose entries have a
-    unique string ``id``, a known ``status`` and a numeric or null ``utilization``.
+    unique string ``id``, a known ``status`` and a numeric or null ``utilization``; a
+    ``name`` or ``section``, copied into the comparison, must be a string when given.
     """
     path = Path(path)
     try:
@@ -56,6 +57,9 @@ def load_baseline(path: Path) -> dict:
         u = m.get("utilization")
         if u is not None and (isinstance(u, bool) or not isinstance(u, int | float)):
             raise _bad(path, f"members[{k}] ({m['id']}): utilization must be a number or null")
+        for key in ("name", "section"):  # copied into the comparison's entries
+            if m.get(key) is not None and not isinstance(m[key], str):
+                raise _bad(path, f"members[{k}] ({m['id']}): {key} must be a string")
         if m["id"] in seen:
             raise _bad(path, f"member id {m['id']!r} appears twice")
         seen.add(m["id"])

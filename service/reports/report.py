@@ -46,6 +46,11 @@ def _sig_columns(columns: list[np.ndarray], digits: list[int]) -> list[list[floa
             r = np.round(safe * p) / p
         else:
             r = np.where(up, np.round(safe * p) / p, np.round(safe / p) * p)
+        # 10**k is exact only up to k = 22: beyond, round through the decimal text (rare)
+        far = (np.abs(exp10) > 22) & nz
+        if far.any():
+            for i, j in zip(*far.nonzero(), strict=True):
+                r[i, j] = float(f"{a[i, j]:.{int(d[i, 0])}g}")
     rows = (r if every_nz else np.where(nz, r, 0.0)).tolist()
     if every_finite:
         return rows
@@ -136,8 +141,12 @@ def build_report(
             for s in found
         ]
     if detail and results.combination_values is not None:
-        values = _sig_columns(list((results.combination_values * to_force).T),
-                              [6] * len(results.combination_names))
+        combos = results.combination_values * to_force
+        # A member given its required strength has no load combinations: null, not 0.
+        given = ~np.isnan(members.required_strength)
+        if given.any():
+            combos = np.where(given[:, None], np.nan, combos)
+        values = _sig_columns(list(combos.T), [6] * len(results.combination_names))
         for j, name in enumerate(results.combination_names):
             for i, v in enumerate(values[j]):
                 rows[i].setdefault("combinations", {})[name] = v

@@ -63,6 +63,19 @@ def test_detail_lists_every_combination_value() -> None:
     assert m["required_strength"] == pytest.approx(180.0)
 
 
+def test_detail_of_a_member_given_its_required_strength_is_null() -> None:
+    # No loads, so no combination was evaluated: null says so (0 would read as a value).
+    req = {"members": [{"id": "A", "section": "W14X48", "fy": 50, "length": 16,
+                        "required_strength": 200.0},
+                       {"id": "B", "section": "W14X48", "fy": 50, "length": 16,
+                        "loads": {"D": 100.0}}], "detail": True}
+    a, b = check_request(MembersRequest.model_validate(req))["members"]
+    assert a["combinations"] and set(a["combinations"].values()) == {None}
+    assert a["required_strength"] == pytest.approx(200.0)  # as given
+    # ASCE 7-22 §2.3.1 combination 1: 1.4D = 140 kips (hand)
+    assert b["combinations"]["1.4D"] == pytest.approx(140.0)
+
+
 def test_wind_uplift_reports_net_tension_in_request_units() -> None:
     # ASCE 7-22 §2.3.1 combination 5 with W reversed: 0.9(20) − 1.0(60) = −42 kips (tension),
     # reported as a message; compression governs by 1.2(20) + 1.0(60) = 84 kips (comb. 4).
@@ -78,3 +91,14 @@ def test_si_loads_give_the_same_utilization() -> None:
     si = _report(loads={"D": 444.8222, "L": 355.8578},
                  units={"force": "kN", "length": "ft", "stress": "ksi"})["members"][0]
     assert si["utilization"] == pytest.approx(us["utilization"], abs=1e-4)
+
+
+@pytest.mark.parametrize("extra", [
+    {"design_method": "ASD", "half_live_exception": True},
+    {"half_live_exception": True, "combinations": [{"name": "x", "factors": {"D": 1.0}}]},
+])
+def test_half_live_exception_where_it_cannot_apply_is_refused(extra: dict) -> None:
+    # ASCE 7-22 §2.3.1: the 0.5L exception modifies the strength design combinations only;
+    # ignoring it silently would hide that the request asked for something not done.
+    with pytest.raises(ValueError, match="half_live_exception"):
+        _report(**extra)

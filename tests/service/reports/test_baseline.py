@@ -85,6 +85,10 @@ def test_format_changes_names_members_and_counts() -> None:
      "utilization must be a number"),
     ('{"members": [{"id": "A", "status": "pass"}, {"id": "A", "status": "fail"}]}',
      "appears twice"),
+    # copied into the comparison's entries, which the report model types as strings
+    ('{"members": [{"id": "A", "status": "pass", "name": 7}]}', "name must be a string"),
+    ('{"members": [{"id": "A", "status": "pass", "section": ["W14X48"]}]}',
+     "section must be a string"),
 ])
 def test_malformed_baselines_are_refused_in_one_line(tmp_path, content, expected) -> None:
     p = tmp_path / "old.json"

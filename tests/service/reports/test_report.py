@@ -44,3 +44,11 @@ def test_all_finite_nonzero_columns_match_the_scalar_rounding() -> None:
 
 def test_no_rows() -> None:
     assert _sig_columns([np.zeros(0), np.zeros(0)], [4, 6]) == [[], []]
+
+
+def test_very_large_and_very_small_values_keep_their_digits() -> None:
+    # 10**k is not exact beyond 1e22, so multiplying by it left 1.4000000000000002e+30;
+    # the expected values are the decimal texts themselves (by hand).
+    got = _sig_columns([np.array([1.4e30, -2.345678e25, 1.23456789e-30])], [6])[0]
+    assert got == [1.4e30, -2.34568e25, 1.23457e-30]
+    assert [repr(x) for x in got] == ["1.4e+30", "-2.34568e+25", "1.23457e-30"]
