@@ -11,6 +11,7 @@ from collections import Counter
 
 import ifcopenshell
 import ifcopenshell.guid
+import ifcopenshell.ifcopenshell_wrapper
 import ifcopenshell.util.element
 import ifcopenshell.util.unit
 import ifcopenshell.validate
@@ -21,9 +22,11 @@ from stanchion.engine.check import CheckResults
 from stanchion.engine.members import MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.write import (
+    ATTRIBUTE_INDEX,
     NOT_IN_TABLE,
     PSET_NAME,
     existing_sets,
+    new_guids,
     read_results,
     write_results,
 )
@@ -182,7 +185,10 @@ def test_rerun_replaces_values_without_duplicating(builder) -> None:
     sets = [existing_sets(model)[c.id()][0][1] for c in cols]
     names = [[p.Name for p in s.HasProperties] for s in sets]
     assert all(len(n) == len(set(n)) for n in names)
-    assert after["IfcPropertySingleValue"] == sum(len(n) for n in names)
+    # every property in the model belongs to one of the sets (none orphaned; IFC rule: a
+    # property is used through the sets that list it)
+    used = {p.id() for s in sets for p in s.HasProperties}
+    assert after["IfcPropertySingleValue"] == len(used)
     first, _, third = (_props(model, c) for c in cols)
     assert first["Status"] == "FAIL"
     assert first["Utilization"] == pytest.approx(350.0 / 300.0)
@@ -294,3 +300,184 @@ def test_validation_detects_a_broken_set(builder, tmp_path) -> None:
     out = tmp_path / "broken.ifc"
     builder.model.write(str(out))
     assert _schema_errors(out)
+
+
+# ---------------------------------------------------------------------------- shared properties
+# IFC rule (IFC4 / IFC4X3 IfcProperty.PartOfPset: SET [0:?] OF IfcPropertySet; IFC2X3 sets no
+# limit): one property entity may be listed by several property sets.
+
+CONSTANT = ("DesignBasis", "Disclaimer", "CheckedAt")
+
+
+def _ours(model) -> list:
+    """Every property set called Stanchion_ColumnCheck."""
+    return [s for s in model.by_type("IfcPropertySet") if s.Name == PSET_NAME]
+
+
+def _entities_named(model, name: str) -> list:
+    return [p for p in model.by_type("IfcPropertySingleValue") if p.Name == name]
+
+
+def _orphans(model) -> list:
+    """Single values that no entity refers to (no set lists them)."""
+    return [p for p in model.by_type("IfcPropertySingleValue")
+            if model.get_total_inverses(p) == 0]
+
+
+def test_values_equal_on_every_column_are_one_shared_entity(builder) -> None:
+    model = builder.model
+    cols = _columns(builder)
+    summary = _write(builder, cols, checked_at="2026-01-02T03:04:05+00:00")
+    sets = _ours(model)
+    assert len(sets) == 3
+    for name in CONSTANT:
+        entities = _entities_named(model, name)
+        assert len(entities) == 1, name  # one entity in the whole model
+        assert {s.id() for s in model.get_inverse(entities[0])} == {s.id() for s in sets}
+        assert name in summary.shared
+    # Status differs between the columns (pass, fail, not checked): one entity per set
+    assert len(_entities_named(model, "Status")) == 3 and "Status" not in summary.shared
+    # each set still shows every value (what a viewer lists is unchanged by the sharing)
+    for c in cols:
+        props = _props(model, c)
+        assert props["DesignBasis"] == BASIS and props["Disclaimer"] == DISCLAIMER
+        assert props["CheckedAt"] == "2026-01-02T03:04:05+00:00"
+
+
+def test_results_equal_on_every_column_are_shared_too(builder) -> None:
+    model = builder.model
+    cols = _columns(builder)
+    passing = _results(status=["pass"] * 3, required=[100.0, 120.0, 140.0],
+                       available=[300.0] * 3)
+    summary = _write(builder, cols, passing)
+    # every column: PASS, W14X48, 1.4D, flexural buckling about y, slenderness 61.5 and an
+    # available strength of 300 kip (chosen above); the other numbers differ
+    for name in ("Status", "Section", "GoverningCombination", "GoverningLimitState",
+                 "Slenderness", "AvailableStrength"):
+        assert name in summary.shared
+        assert len(_entities_named(model, name)) == 1, name
+    for name in ("Utilization", "RequiredStrength"):
+        assert name not in summary.shared and len(_entities_named(model, name)) == 3
+    assert [_props(model, c)["RequiredStrength"] for c in cols] == pytest.approx(
+        [builder.F(100.0), builder.F(120.0), builder.F(140.0)], rel=1e-9)
+
+
+def test_rerun_keeps_one_shared_entity_and_leaves_no_orphans(builder) -> None:
+    model = builder.model
+    cols = _columns(builder)
+    _write(builder, cols, checked_at="2026-01-02T03:04:05+00:00")
+    first = {name: _entities_named(model, name)[0].id() for name in CONSTANT}
+    counts = Counter(e.is_a() for e in model)
+    _write(builder, cols, checked_at="2026-02-03T04:05:06+00:00")
+    for name in CONSTANT:
+        entities = _entities_named(model, name)
+        assert [e.id() for e in entities] == [first[name]]  # the same entity, not a copy
+        assert model.get_total_inverses(entities[0]) == 3
+    assert {_props(model, c)["CheckedAt"] for c in cols} == {"2026-02-03T04:05:06+00:00"}
+    assert _orphans(model) == []
+    assert Counter(e.is_a() for e in model) == counts  # nothing added, nothing left behind
+
+
+def test_rerun_when_a_shared_value_starts_to_differ(builder) -> None:
+    model = builder.model
+    cols = _columns(builder)
+    _write(builder, cols, _results(status=["pass"] * 3, required=[100.0] * 3,
+                                   available=[300.0] * 3))
+    assert len(_entities_named(model, "Status")) == 1
+    # second run: column 1 fails -- Status is no longer the same everywhere
+    changed = _results(status=["pass", "fail", "pass"], required=[100.0, 400.0, 100.0],
+                       available=[300.0] * 3)
+    summary = _write(builder, cols, changed)
+    assert "Status" not in summary.shared
+    assert sorted(p.NominalValue.wrappedValue for p in _entities_named(model, "Status")) == [
+        "FAIL", "PASS", "PASS"]
+    assert [_props(model, c)["Status"] for c in cols] == ["PASS", "FAIL", "PASS"]
+    assert _orphans(model) == []
+    for s in _ours(model):
+        names = [p.Name for p in s.HasProperties]
+        assert len(names) == len(set(names))
+    # and back: every column passes again -> one shared Status, the per-set ones removed
+    _write(builder, cols, _results(status=["pass"] * 3, required=[100.0] * 3,
+                                   available=[300.0] * 3))
+    assert len(_entities_named(model, "Status")) == 1
+    assert _orphans(model) == []
+
+
+def test_rerun_on_sets_with_a_copy_per_column_shares_them(builder) -> None:
+    """A set written with its own DesignBasis / Disclaimer per column (as before sharing)."""
+    model = builder.model
+    cols = _columns(builder)
+    history = model.by_type("IfcOwnerHistory")[0] if builder.schema == "IFC2X3" else None
+    for c in cols:
+        props = [model.create_entity("IfcPropertySingleValue", Name=name,
+                                     NominalValue=model.create_entity(ifc_type, text))
+                 for name, ifc_type, text in (("Status", "IfcLabel", "PASS"),
+                                              ("DesignBasis", "IfcLabel", "old basis"),
+                                              ("Disclaimer", "IfcText", "old disclaimer"))]
+        pset = model.create_entity("IfcPropertySet", GlobalId=ifcopenshell.guid.new(),
+                                   OwnerHistory=history, Name=PSET_NAME, HasProperties=props)
+        model.create_entity("IfcRelDefinesByProperties", GlobalId=ifcopenshell.guid.new(),
+                            OwnerHistory=history, RelatedObjects=[c],
+                            RelatingPropertyDefinition=pset)
+    summary = _write(builder, cols)
+    assert summary.updated == 3 and summary.removed_properties == 4  # 2 names x 2 copies
+    for name, text in (("DesignBasis", BASIS), ("Disclaimer", DISCLAIMER)):
+        entities = _entities_named(model, name)
+        assert len(entities) == 1 and entities[0].NominalValue.wrappedValue == text
+        assert model.get_total_inverses(entities[0]) == 3
+    assert _orphans(model) == []
+    assert len(_ours(model)) == 3
+
+
+def test_shared_entity_of_a_set_not_rewritten_is_left_alone(builder) -> None:
+    """A set of an earlier run that this run does not rewrite keeps its own values."""
+    model = builder.model
+    cols = _columns(builder)
+    _write(builder, cols, checked_at="2026-01-02T03:04:05+00:00")
+    # second run over columns 0 and 1 only, and no NOT CHECKED marking of the others
+    write_results(model, _members([c.GlobalId for c in cols[:2]]),
+                  _results(STATUS[:2], REQUIRED[:2], AVAILABLE[:2]), design_basis=BASIS,
+                  disclaimer=DISCLAIMER, checked_at="2026-02-03T04:05:06+00:00",
+                  mark_unlisted_columns=False)
+    assert _props(model, cols[2])["CheckedAt"] == "2026-01-02T03:04:05+00:00"
+    assert [_props(model, c)["CheckedAt"] for c in cols[:2]] == [
+        "2026-02-03T04:05:06+00:00"] * 2
+    assert len(_entities_named(model, "CheckedAt")) == 2  # the old one, still used, and ours
+    assert _orphans(model) == []
+
+
+def test_written_inside_a_transaction_undoes_completely(builder) -> None:
+    """With a transaction open the public create/set path records every change."""
+    model = builder.model
+    cols = _columns(builder)
+    before = Counter(e.is_a() for e in model)
+    model.begin_transaction()
+    _write(builder, cols, checked_at="2026-01-02T03:04:05+00:00")
+    model.end_transaction()
+    assert _props(model, cols[0])["CheckedAt"] == "2026-01-02T03:04:05+00:00"
+    assert len(_entities_named(model, "CheckedAt")) == 1
+    model.undo()
+    assert Counter(e.is_a() for e in model) == before
+
+
+def test_attribute_positions_match_every_schema(schema) -> None:
+    """The writer sets attributes by position; the positions are the schema's (IFC rule)."""
+    declarations = ifcopenshell.ifcopenshell_wrapper.schema_by_name(
+        ifcopenshell.file(schema=schema).schema_identifier)
+    for ifc_class, attributes in ATTRIBUTE_INDEX.items():
+        names = [a.name() for a in declarations.declaration_by_name(ifc_class).all_attributes()]
+        for name, index in attributes.items():
+            assert names[index] == name, (ifc_class, name)
+
+
+def test_new_guids_are_valid_ifc_globalids() -> None:
+    # IFC GlobalId: a 128-bit number in 22 characters of the IFC base-64 alphabet (IFC rule);
+    # ifcopenshell.guid.expand / compress are the reference conversion.
+    ids = new_guids(2000)
+    assert len(set(ids)) == 2000
+    for gid in ids:
+        assert len(gid) == 22 and gid[0] in "0123"
+        hex_id = ifcopenshell.guid.expand(gid)
+        assert ifcopenshell.guid.compress(hex_id) == gid
+        assert hex_id[12] == "4" and hex_id[16] in "89ab"  # UUID version 4, RFC 4122 variant
+    assert new_guids(0) == []
