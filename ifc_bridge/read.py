@@ -130,19 +130,37 @@ class _Reader:
         self._designs: dict[tuple[int, int], DesignInputs] = {}
         self._materials: dict[int, MaterialInfo] = {}
 
-    def values(self, definitions: list[Entity], name: str) -> tuple[int, dict]:
-        """(pset id or 0, single values) of the set ``name`` (cached per property set)."""
+    def values(self, definitions: list[Entity], name: str,
+               cache: bool = True) -> tuple[int, dict]:
+        """(pset id or 0, single values) of the set ``name``.
+
+        Cached per property set when ``cache`` (a type's sets serve many occurrences); an
+        occurrence's own sets are read once each, and caching them would only hold one dict
+        per column for the rest of the read.
+        """
         pset = find_definition(definitions, name)
         if pset is None:
             return 0, {}
         key = pset.id()
+        if not cache:
+            return key, single_values(pset)
         if key not in self._values:
             self._values[key] = single_values(pset)
         return key, self._values[key]
 
+    def release_walk_caches(self) -> None:
+        """Drop the caches only the element walk uses (shapes, positions, property values).
+
+        On a 20,000-column model they hold about 20 MB that the rest of the read and the
+        writer never need; freeing them before the member table is built lowers the peak.
+        """
+        self.shapes = ShapeReader()
+        self.placements = PlanPositions()
+        self._values.clear()
+
     def design(self, occ_defs: list[Entity], type_defs: list[Entity]) -> DesignInputs:
         """Stanchion_Design inputs, computed once per (occurrence set, type set) pair."""
-        occ_key, occ = self.values(occ_defs, DESIGN_PSET)
+        occ_key, occ = self.values(occ_defs, DESIGN_PSET, cache=False)
         type_key, typed = self.values(type_defs, DESIGN_PSET)
         key = (occ_key, type_key)
         if key not in self._designs:
@@ -192,7 +210,7 @@ class _Reader:
         notes.extend(anotes)
         # Stanchion_Loads on the column or its type; the column's value wins per load type.
         load_values = {**self.values(type_defs, LOADS_PSET)[1],
-                       **self.values(occ_defs, LOADS_PSET)[1]}
+                       **self.values(occ_defs, LOADS_PSET, cache=False)[1]}
         pset, pnotes, pproblems = pset_loads(load_values, self.units)
         notes.extend(pnotes)
         reasons.extend(pproblems)
@@ -349,6 +367,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
     else:
         units.note_use("length")
     rows = [_safe_row(reader, e) for e in elements]
+    reader.release_walk_caches()
 
     requests = []
     for r in rows:
