@@ -37,6 +37,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from stanchion.engine.arrays import BoolArray, FloatArray, IntArray
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 CATALOG_PATH = Path(__file__).resolve().parent / "data" / "aisc_shapes_v16.csv"
@@ -88,9 +89,11 @@ def _token_value(token: str) -> float | None:
 
 
 def _as_fraction(token: str) -> str:
-    """A dimension written as a mixed number of sixteenths (``0.25`` -> ``1/4``, ``3.5`` ->
-    ``3-1/2``); values within 0.0025 in. of a sixteenth snap to it (``.188`` -> ``3/16``,
-    the rounding used in tables). Anything else is returned unchanged."""
+    """A dimension written as a mixed number of sixteenths (``0.25`` -> ``1/4``).
+
+    ``3.5`` -> ``3-1/2``; values within 0.0025 in. of a sixteenth snap to it (``.188`` ->
+    ``3/16``, the rounding used in tables). Anything else is returned unchanged.
+    """
     value = _token_value(token)
     if value is None:
         return token
@@ -106,8 +109,10 @@ def _as_fraction(token: str) -> str:
 
 
 def _as_decimal(token: str, places: int | None = None) -> str:
-    """A number in plain decimal form: ``48.0`` -> ``48``, ``15-1/2`` -> ``15.5``; with
-    ``places`` a fixed number of decimals (round HSS: ``.28`` -> ``0.280``)."""
+    """A number in plain decimal form: ``48.0`` -> ``48``, ``15-1/2`` -> ``15.5``.
+
+    With ``places``, a fixed number of decimals (round HSS: ``.28`` -> ``0.280``).
+    """
     value = _token_value(token)
     if value is None:
         return token
@@ -152,7 +157,8 @@ def normalize_designation(text: str) -> str:
     suffix = ""
     if prefix in ("L", "2L"):
         a = _ANGLE_SUFFIX.fullmatch(body)
-        body, suffix = a.group(1), a.group(2) or ""
+        if a is not None:  # the pattern matches every body
+            body, suffix = a.group(1), a.group(2) or ""
     tokens = body.split("X")
     if any(_token_value(t) is None for t in tokens):
         return s
@@ -183,7 +189,8 @@ def _designation_numbers(designation: str) -> list[float]:
         return []
     body = re.sub(r"(LLBB|SLBB|STD|XXS|XS)$", "", m.group(2))
     values = [_token_value(t) for t in body.split("X")]
-    return [] if any(v is None for v in values) else values  # type: ignore[misc]
+    numbers = [v for v in values if v is not None]
+    return numbers if len(numbers) == len(values) else []
 
 
 # --------------------------------------------------------------------------- loading
@@ -207,7 +214,7 @@ def _build_table(df: pd.DataFrame) -> SectionTable:
     if unknown:
         raise ValueError(f"{CATALOG_PATH.name}: unknown families {sorted(unknown)}")
 
-    def col(name: str) -> np.ndarray:
+    def col(name: str) -> FloatArray:
         return df[name].to_numpy(dtype=float, copy=True)
 
     is_i = np.isin(fam, ["W", "M", "S", "HP"])
@@ -226,14 +233,15 @@ def _build_table(df: pd.DataFrame) -> SectionTable:
     r_polar = np.sqrt((Ix + Iy) / A)
     tabulated_shear_centre = is_tee | is_chan | is_angle
 
-    def pick(default: float | np.ndarray, *pairs: tuple[np.ndarray, float | np.ndarray]):
+    def pick(default: float | FloatArray, *pairs: tuple[BoolArray, float | FloatArray]
+             ) -> FloatArray:
         """``default`` where no mask is set, else the value of the (disjoint) mask that is."""
         out = np.broadcast_to(np.asarray(default, dtype=float), fam.shape)
         for mask, value in pairs:
             out = np.where(mask, value, out)
         return out
 
-    def code(*pairs: tuple[np.ndarray, int]) -> np.ndarray:
+    def code(*pairs: tuple[BoolArray, int]) -> IntArray:
         return pick(0.0, *pairs).astype(np.int64)
 
     data = {
@@ -303,7 +311,7 @@ def _index() -> dict[str, int]:
 
 
 @functools.lru_cache(maxsize=1)
-def _nominal_depth() -> np.ndarray:
+def _nominal_depth() -> FloatArray:
     out = np.array(
         [(n[0] if n else np.nan) for n in map(_designation_numbers, load_catalog().designation)],
         dtype=float,
@@ -312,17 +320,19 @@ def _nominal_depth() -> np.ndarray:
     return out
 
 
-def nominal_depth() -> np.ndarray:
-    """Nominal depth named by each catalog designation (W14X48 -> 14, HSS8X6X1/4 -> 8,
-    PIPE1-1/2STD -> 1.5, HSS6.625X0.280 -> 6.625), row-aligned with :func:`load_catalog`;
-    NaN when a designation names none. Read-only."""
+def nominal_depth() -> FloatArray:
+    """Nominal depth named by each catalog designation, row-aligned with :func:`load_catalog`.
+
+    W14X48 -> 14, HSS8X6X1/4 -> 8, PIPE1-1/2STD -> 1.5, HSS6.625X0.280 -> 6.625; NaN when a
+    designation names none. Read-only.
+    """
     return _nominal_depth()
 
 
 # --------------------------------------------------------------------------- lookup
 
 
-def lookup(designations: Sequence[str]) -> np.ndarray:
+def lookup(designations: Sequence[object]) -> IntArray:
     """Row indices into :func:`load_catalog` for each designation (-1 when unknown).
 
     Args:
@@ -412,7 +422,7 @@ def unknown_section_reason(text: str) -> str:
     return f"unknown section '{given}'{read_as}{hint}"
 
 
-def family_indices(spec: str) -> np.ndarray:
+def family_indices(spec: str) -> IntArray:
     """Catalog rows selected by a family, a family with nominal depth, or a designation.
 
     Args:

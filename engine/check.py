@@ -7,16 +7,19 @@ reader (members JSON, IFC) and every front end (CLI, HTTP) goes through :func:`c
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import TypeVar
 
 import numpy as np
+from numpy.typing import NDArray
 
+from stanchion.engine.arrays import BoolArray, FloatArray, IntArray, ObjectArray
 from stanchion.engine.combinations import Combination, default_combinations, governing
 from stanchion.engine.compression import (
     SLENDERNESS_ADVISORY,
     available_strength,
     compressive_strength,
 )
-from stanchion.engine.masks import all_set, any_set, finite_positive
+from stanchion.engine.masks import all_set, any_set, finite_positive, is_none
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.members import MemberTable
 from stanchion.engine.sections import Kind
@@ -25,6 +28,7 @@ PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
 GIVEN_REQUIRED = "required strength as given"
 _STATUS = np.array([FAIL, PASS], dtype=object)  # indexed by (utilization <= 1)
 _UNSUPPORTED = int(Kind.UNSUPPORTED)
+_N = TypeVar("_N", np.float64, np.int64)  # a numeric column
 
 
 @dataclass
@@ -48,20 +52,20 @@ class CheckResults:
     """
 
     method: str
-    status: np.ndarray
-    required_strength: np.ndarray
-    available_strength: np.ndarray
-    utilization: np.ndarray
-    limit_state: np.ndarray
-    combination: np.ndarray
-    slenderness: np.ndarray
-    Fcr: np.ndarray
-    Ae: np.ndarray
-    reason: np.ndarray
+    status: ObjectArray
+    required_strength: FloatArray
+    available_strength: FloatArray
+    utilization: FloatArray
+    limit_state: ObjectArray
+    combination: ObjectArray
+    slenderness: FloatArray
+    Fcr: FloatArray
+    Ae: FloatArray
+    reason: ObjectArray
     messages: list[list[str]]
-    max_tension: np.ndarray | None = None
+    max_tension: FloatArray | None = None
     combination_names: list[str] = field(default_factory=list)
-    combination_values: np.ndarray | None = None
+    combination_values: FloatArray | None = None
 
     def __len__(self) -> int:
         return len(self.status)
@@ -87,12 +91,12 @@ _REASONS = (
 _REASON_TEXTS = np.array(_REASONS, dtype=object)
 
 
-def _infinite_demand(m: MemberTable) -> np.ndarray:
+def _infinite_demand(m: MemberTable) -> BoolArray:
     """True for members with an infinite load or required strength."""
     return np.isinf(m.loads).any(axis=1) | np.isinf(m.required_strength)
 
 
-def _not_checked_reasons(m: MemberTable) -> np.ndarray:
+def _not_checked_reasons(m: MemberTable) -> ObjectArray:
     """The first reason each member cannot be checked, or None.
 
     One boolean row per entry of :data:`_REASONS`, filled by a few passes over stacked
@@ -115,7 +119,7 @@ def _not_checked_reasons(m: MemberTable) -> np.ndarray:
         masks[14] = np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength)
         masks[15] = _infinite_demand(m)
         np.less(m.required_strength, 0, out=masks[16])
-    hit = masks.any(axis=0) & np.equal(reason, None)
+    hit = masks.any(axis=0) & is_none(reason)
     if any_set(hit):
         reason[hit] = _REASON_TEXTS[masks.argmax(axis=0)[hit]]
     return reason
@@ -137,17 +141,20 @@ def check_members(
         combinations: replaces the ASCE 7-22 defaults for ``method`` when given.
         half_live: the ASCE 7-22 §2.3.1 exception (0.5L), ignored with custom combinations.
         detail: keep every combination's value.
+
+    Returns:
+        The results, one row per member.
     """
     method = method.upper()
     n = len(m)
     reason = _not_checked_reasons(m)
-    ok = np.equal(reason, None)
+    ok = is_none(reason)
 
     # Compute on every row with harmless stand-ins where data are unusable, then blank them
     # (when every member is usable, the usual case, the inputs are used as they are).
     every = all_set(ok)
 
-    def usable(a: np.ndarray, stand_in: float) -> np.ndarray:
+    def usable(a: NDArray[_N], stand_in: float) -> NDArray[_N]:
         return a if every else np.where(ok, a, stand_in)
 
     idx = (usable(m.section_index, 0) if len(m.sections)
@@ -185,7 +192,7 @@ def check_members(
     any_given = any_set(given)
     required = np.where(given, m.required_strength, gov.required) if any_given else gov.required
     combination = gov.combination.copy()  # object array, None where nothing compresses
-    combination[np.equal(combination, None)] = ""
+    combination[is_none(combination)] = ""
     if any_given:
         combination[given] = GIVEN_REQUIRED
 
@@ -228,12 +235,20 @@ def check_members(
 
 def _advisories(
     messages: list[list[str]],
-    ok: np.ndarray,
-    slenderness: np.ndarray,
-    given: np.ndarray,
-    gov_index: np.ndarray,
+    ok: BoolArray,
+    slenderness: FloatArray,
+    given: BoolArray,
+    gov_index: IntArray,
 ) -> None:
-    """Append warnings that do not change the status (loops only over flagged members)."""
+    """Append warnings that do not change the status (loops only over flagged members).
+
+    Args:
+        messages: per-member messages; a row that gains a message gets a new list.
+        ok: members that were checked.
+        slenderness: max(Lcx/rx, Lcy/ry).
+        given: members whose required strength was given.
+        gov_index: governing combination of each member, -1 where none compresses.
+    """
     for i in (ok & (slenderness > SLENDERNESS_ADVISORY)).nonzero()[0].tolist():
         messages[i] = [*messages[i],
                        f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "

@@ -42,13 +42,14 @@ import functools
 import itertools
 import math
 import operator
-from collections.abc import Mapping
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from numbers import Real
 from types import MappingProxyType
 
 import numpy as np
 
+from stanchion.engine.arrays import BoolArray, FloatArray, IntArray, ObjectArray
 from stanchion.engine.masks import any_set
 from stanchion.engine.members import LOAD_TYPES, REVERSIBLE
 
@@ -125,16 +126,16 @@ class Governing:
         tension_combination: (n,) object array, its name, None where ``tension_index`` is -1.
     """
 
-    required: np.ndarray
-    index: np.ndarray
-    combination: np.ndarray
-    max_tension: np.ndarray
-    no_loads: np.ndarray
+    required: FloatArray
+    index: IntArray
+    combination: ObjectArray
+    max_tension: FloatArray
+    no_loads: BoolArray
     names: list[str]
-    values: np.ndarray
+    values: FloatArray
     sources: list[str] = field(default_factory=list)
-    tension_index: np.ndarray = field(default_factory=lambda: np.empty(0, dtype=np.int64))
-    tension_combination: np.ndarray = field(default_factory=lambda: np.empty(0, dtype=object))
+    tension_index: IntArray = field(default_factory=lambda: np.empty(0, dtype=np.int64))
+    tension_combination: ObjectArray = field(default_factory=lambda: np.empty(0, dtype=object))
 
 
 # --------------------------------------------------------------------------------------------
@@ -291,12 +292,18 @@ def _defaults(method: str, half_live: bool) -> tuple[Combination, ...]:
     return tuple(asd_combinations())
 
 
-def custom_combinations(spec: list[dict]) -> list[Combination]:
+def custom_combinations(spec: Sequence[object]) -> list[Combination]:
     """Combinations supplied with a request; they replace the defaults.
 
     Each entry is ``{"name": str, "factors": {load type: number}, "source": str (optional)}``.
     W and E factors are still evaluated with both signs (see the module docstring).  The spec
     is not modified.
+
+    Args:
+        spec: the request's list of combinations, as parsed from JSON (validated here).
+
+    Returns:
+        The combinations, in the order given.
 
     Raises:
         ValueError: not a non-empty list, an entry without a non-empty name, a repeated name,
@@ -337,8 +344,15 @@ def custom_combinations(spec: list[dict]) -> list[Combination]:
 
 def expand_signs(
     combinations: list[Combination],
-) -> tuple[list[str], list[str], np.ndarray]:
-    """Expand W and E into both signs (cached; see :func:`_expand_signs`)."""
+) -> tuple[list[str], list[str], FloatArray]:
+    """Expand W and E into both signs (cached; see :func:`_expand_signs`).
+
+    Args:
+        combinations: the combinations, in priority order.
+
+    Returns:
+        ``(names, sources, factors)`` as :func:`_expand_signs` gives them.
+    """
     hit = _expanded(combinations)
     return list(hit.names), list(hit.sources), hit.factors
 
@@ -347,13 +361,15 @@ def expand_signs(
 class _Expansion:
     names: tuple[str, ...]
     sources: tuple[str, ...]
-    factors: np.ndarray  # (m, 7), read-only
-    labels: np.ndarray  # names and a final None (index -1), object dtype
+    factors: FloatArray  # (m, 7), read-only
+    labels: ObjectArray  # names and a final None (index -1)
 
 
 def _expanded(combinations: list[Combination]) -> _Expansion:
-    """The sign expansion, cached by the identity of the (immutable) combinations and, for
-    equal combinations built anew, by their content."""
+    """The sign expansion, cached by the identity of the (immutable) combinations.
+
+    Equal combinations built anew are found by their content.
+    """
     ids = tuple(map(id, combinations))
     held = _BY_IDENTITY.get(ids)
     if held is not None and all(map(operator.is_, held[0], combinations)):
@@ -374,13 +390,15 @@ def _expanded(combinations: list[Combination]) -> _Expansion:
     return hit
 
 
-_EXPANDED: dict[tuple, _Expansion] = {}
+#: Content of a list of combinations: (name, factors, source) of each.
+_Content = tuple[tuple[str, tuple[tuple[str, float], ...], str], ...]
+_EXPANDED: dict[_Content, _Expansion] = {}
 _BY_IDENTITY: dict[tuple[int, ...], tuple[tuple[Combination, ...], _Expansion]] = {}
 
 
 def _expand_signs(
     combinations: list[Combination],
-) -> tuple[list[str], list[str], np.ndarray]:
+) -> tuple[list[str], list[str], FloatArray]:
     """Expand W and E into both signs.
 
     Args:
@@ -415,7 +433,7 @@ def _expand_signs(
     return names, sources, np.asarray(rows, dtype=float).reshape(len(rows), len(LOAD_TYPES))
 
 
-def _first_extreme(candidates: np.ndarray, extreme: np.ndarray, largest: bool) -> np.ndarray:
+def _first_extreme(candidates: FloatArray, extreme: FloatArray, largest: bool) -> IntArray:
     """Index of the first column within rounding of the row's extreme (ties: first wins).
 
     Every value lies on one side of its row's extreme, so "within the tolerance" is one
@@ -423,11 +441,13 @@ def _first_extreme(candidates: np.ndarray, extreme: np.ndarray, largest: bool) -
     """
     tol = _TIE_RTOL * np.abs(extreme)
     if largest:
-        return np.argmax(candidates >= (extreme - tol)[:, None], axis=1)
-    return np.argmax(candidates <= (extreme + tol)[:, None], axis=1)
+        first: IntArray = np.argmax(candidates >= (extreme - tol)[:, None], axis=1)
+    else:
+        first = np.argmax(candidates <= (extreme + tol)[:, None], axis=1)
+    return first
 
 
-def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
+def governing(loads: FloatArray, combinations: list[Combination]) -> Governing:
     """Combine every member with every combination and pick the governing compression.
 
     Args:
@@ -457,7 +477,7 @@ def governing(loads: np.ndarray, combinations: list[Combination]) -> Governing:
     expansion = _expanded(combinations)
     names, sources, factors = list(expansion.names), list(expansion.sources), expansion.factors
     absent = np.isnan(loads)
-    no_loads = absent.all(axis=1)
+    no_loads: BoolArray = np.logical_and.reduce(absent, axis=1)  # absent.all(axis=1)
     values = np.where(absent, 0.0, loads) @ factors.T  # (n, 7) @ (7, m) -> (n, m)
 
     label = expansion.labels  # label[-1] is None

@@ -17,11 +17,13 @@ Scope notes:
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 from enum import IntEnum
 
 import numpy as np
+from numpy.typing import NDArray
 
+from stanchion.engine.arrays import BoolArray, FloatArray, IntArray, ObjectArray
 from stanchion.engine.sections import Kind, SectionTable, class_coefficients
 
 PHI_C = 0.90  # AISC 360-22 E1, LRFD resistance factor for compression
@@ -51,7 +53,7 @@ _LIMIT_STATE_NAMES = np.asarray(LIMIT_STATE_NAMES, dtype=object)
 # --- E3: flexural buckling -------------------------------------------------------------------
 
 
-def Fe_flexural(E: np.ndarray, Lc_r: np.ndarray) -> np.ndarray:
+def Fe_flexural(E: FloatArray, Lc_r: FloatArray) -> FloatArray:
     """Elastic flexural buckling stress Fe = π²E / (Lc/r)².
 
     AISC 360-22 Eq. E3-4 (the same expression gives Fex and Fey in Eqs. E4-5 and E4-6).
@@ -60,7 +62,7 @@ def Fe_flexural(E: np.ndarray, Lc_r: np.ndarray) -> np.ndarray:
         return np.pi**2 * E / (Lc_r * Lc_r)
 
 
-def Fcr_inelastic(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
+def Fcr_inelastic(Fy: FloatArray, Fe: FloatArray) -> FloatArray:
     """Critical stress when Fy/Fe <= 2.25: Fcr = 0.658^(Fy/Fe) · Fy.  AISC 360-22 Eq. E3-2.
 
     Evaluated as exp(ln 0.658 · Fy/Fe), the same number, faster than a power.
@@ -68,12 +70,12 @@ def Fcr_inelastic(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
     return np.exp(_LN_0658 * (Fy / Fe)) * Fy
 
 
-def Fcr_elastic(Fe: np.ndarray) -> np.ndarray:
+def Fcr_elastic(Fe: FloatArray) -> FloatArray:
     """Critical stress when Fy/Fe > 2.25: Fcr = 0.877 · Fe.  AISC 360-22 Eq. E3-3."""
     return 0.877 * Fe
 
 
-def Fcr(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
+def Fcr(Fy: FloatArray, Fe: FloatArray) -> FloatArray:
     """Critical stress, inelastic or elastic branch (the limit Lc/r = 4.71√(E/Fy) is Fy/Fe = 2.25).
 
     AISC 360-22 Section E3(a)/(b); also used by E4 and E7 with the governing Fe.
@@ -86,7 +88,7 @@ def Fcr(Fy: np.ndarray, Fe: np.ndarray) -> np.ndarray:
         return out
 
 
-def Pn(Fcr_: np.ndarray, area: np.ndarray) -> np.ndarray:
+def Pn(Fcr_: FloatArray, area: FloatArray) -> FloatArray:
     """Nominal compressive strength Pn = Fcr · A.
 
     AISC 360-22 Eq. E3-1 and E4-1 with A = Ag; Eq. E7-1 with A = Ae.
@@ -98,9 +100,9 @@ def Pn(Fcr_: np.ndarray, area: np.ndarray) -> np.ndarray:
 
 
 def Fe_torsional(
-    E: np.ndarray, G: np.ndarray, Cw: np.ndarray, J: np.ndarray, Lcz: np.ndarray,
-    Ix: np.ndarray, Iy: np.ndarray,
-) -> np.ndarray:
+    E: FloatArray, G: FloatArray, Cw: FloatArray, J: FloatArray, Lcz: FloatArray,
+    Ix: FloatArray, Iy: FloatArray,
+) -> FloatArray:
     """Torsional buckling of doubly symmetric members: Fe = (π²ECw/Lcz² + GJ) / (Ix + Iy).
 
     AISC 360-22 Eq. E4-2.
@@ -109,8 +111,8 @@ def Fe_torsional(
         return (np.pi**2 * E * Cw / (Lcz * Lcz) + G * J) / (Ix + Iy)
 
 
-def ro_bar_squared(xo: np.ndarray, yo: np.ndarray, Ix: np.ndarray, Iy: np.ndarray,
-                   Ag: np.ndarray) -> np.ndarray:
+def ro_bar_squared(xo: FloatArray, yo: FloatArray, Ix: FloatArray, Iy: FloatArray,
+                   Ag: FloatArray) -> FloatArray:
     """Polar radius of gyration about the shear centre squared: r̄o² = xo² + yo² + (Ix+Iy)/Ag.
 
     AISC 360-22 Eq. E4-9.
@@ -118,15 +120,15 @@ def ro_bar_squared(xo: np.ndarray, yo: np.ndarray, Ix: np.ndarray, Iy: np.ndarra
     return xo * xo + yo * yo + (Ix + Iy) / Ag
 
 
-def H_flexural_constant(xo: np.ndarray, yo: np.ndarray, ro2: np.ndarray) -> np.ndarray:
+def H_flexural_constant(xo: FloatArray, yo: FloatArray, ro2: FloatArray) -> FloatArray:
     """Flexural constant H = 1 − (xo² + yo²) / r̄o².  AISC 360-22 Eq. E4-8."""
     return 1.0 - (xo * xo + yo * yo) / ro2
 
 
 def Fez(
-    E: np.ndarray, G: np.ndarray, Cw: np.ndarray, J: np.ndarray, Lcz: np.ndarray,
-    Ag: np.ndarray, ro2: np.ndarray,
-) -> np.ndarray:
+    E: FloatArray, G: FloatArray, Cw: FloatArray, J: FloatArray, Lcz: FloatArray,
+    Ag: FloatArray, ro2: FloatArray,
+) -> FloatArray:
     """Torsional buckling stress about the shear centre: Fez = (π²ECw/Lcz² + GJ) / (Ag r̄o²).
 
     AISC 360-22 Eq. E4-7.
@@ -135,7 +137,7 @@ def Fez(
         return (np.pi**2 * E * Cw / (Lcz * Lcz) + G * J) / (Ag * ro2)
 
 
-def Fe_flexural_torsional(F_sym: np.ndarray, Fez_: np.ndarray, H: np.ndarray) -> np.ndarray:
+def Fe_flexural_torsional(F_sym: FloatArray, Fez_: FloatArray, H: FloatArray) -> FloatArray:
     """Flexural-torsional buckling of singly symmetric members about the axis of symmetry.
 
     Fe = (F_sym + Fez)/(2H) · [1 − √(1 − 4·F_sym·Fez·H / (F_sym + Fez)²)], with F_sym = Fey
@@ -153,7 +155,7 @@ def Fe_flexural_torsional(F_sym: np.ndarray, Fez_: np.ndarray, H: np.ndarray) ->
 # --- E7: members with slender elements --------------------------------------------------------
 
 
-def lambda_r(k: np.ndarray, E: np.ndarray, Fy: np.ndarray) -> np.ndarray:
+def lambda_r(k: FloatArray, E: FloatArray, Fy: FloatArray) -> FloatArray:
     """Limiting width-to-thickness ratio λr = k·√(E/Fy) for compression elements.
 
     AISC 360-22 Table B4.1a, cases 1, 4, 5 and 6 (k = 0.56, 0.75, 1.49, 1.40).
@@ -161,18 +163,18 @@ def lambda_r(k: np.ndarray, E: np.ndarray, Fy: np.ndarray) -> np.ndarray:
     return k * np.sqrt(E / Fy)
 
 
-def Fel(c2: np.ndarray, lam_r: np.ndarray, lam: np.ndarray, Fy: np.ndarray) -> np.ndarray:
+def Fel(c2: FloatArray, lam_r: FloatArray, lam: FloatArray, Fy: FloatArray) -> FloatArray:
     """Elastic local buckling stress Fel = (c2·λr/λ)² · Fy.  AISC 360-22 Eq. E7-4."""
     with np.errstate(divide="ignore", invalid="ignore"):
         return (c2 * lam_r / lam) ** 2 * Fy
 
 
-def be_full(b: np.ndarray) -> np.ndarray:
+def be_full(b: FloatArray) -> FloatArray:
     """Effective width when λ <= λr·√(Fy/Fcr): be = b.  AISC 360-22 Eq. E7-2."""
     return b
 
 
-def be_reduced(b: np.ndarray, c1: np.ndarray, Fel_: np.ndarray, Fcr_: np.ndarray) -> np.ndarray:
+def be_reduced(b: FloatArray, c1: FloatArray, Fel_: FloatArray, Fcr_: FloatArray) -> FloatArray:
     """Effective width when λ > λr·√(Fy/Fcr): be = b·(1 − c1·√(Fel/Fcr))·√(Fel/Fcr).
 
     AISC 360-22 Eq. E7-3.
@@ -182,10 +184,10 @@ def be_reduced(b: np.ndarray, c1: np.ndarray, Fel_: np.ndarray, Fcr_: np.ndarray
     return b * (1.0 - c1 * q) * q
 
 
-def element_deduction(
-    b: np.ndarray, t: np.ndarray, n: np.ndarray, k: np.ndarray, c1: np.ndarray,
-    c2: np.ndarray, E: np.ndarray, Fy: np.ndarray, Fcr_: np.ndarray,
-) -> np.ndarray:
+def element_deduction(  # noqa: PLR0913 - the symbols of Section E7.1 and Table E7.1
+    b: FloatArray, t: FloatArray, n: IntArray, k: FloatArray, c1: FloatArray,
+    c2: FloatArray, E: FloatArray, Fy: FloatArray, Fcr_: FloatArray,
+) -> FloatArray:
     """Area lost to local buckling by one element group: n·(b − be)·t.
 
     AISC 360-22 Section E7.1: Ae is Ag less the ineffective part of each slender element;
@@ -201,13 +203,13 @@ def element_deduction(
     return np.where(slender, lost, 0.0)
 
 
-def Ae_round_compact(Ag: np.ndarray) -> np.ndarray:
+def Ae_round_compact(Ag: FloatArray) -> FloatArray:
     """Round HSS with D/t <= 0.11·E/Fy: Ae = Ag.  AISC 360-22 Eq. E7-6."""
     return Ag
 
 
-def Ae_round_slender(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray,
-                     Ag: np.ndarray) -> np.ndarray:
+def Ae_round_slender(E: FloatArray, Fy: FloatArray, D_t: FloatArray,
+                     Ag: FloatArray) -> FloatArray:
     """Round HSS with 0.11·E/Fy < D/t < 0.45·E/Fy: Ae = [0.038·E/(Fy·D/t) + 2/3]·Ag.
 
     AISC 360-22 Eq. E7-7.
@@ -215,7 +217,7 @@ def Ae_round_slender(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray,
     return (0.038 * E / (Fy * D_t) + 2.0 / 3.0) * Ag
 
 
-def Ae_round(E: np.ndarray, Fy: np.ndarray, D_t: np.ndarray, Ag: np.ndarray) -> np.ndarray:
+def Ae_round(E: FloatArray, Fy: FloatArray, D_t: FloatArray, Ag: FloatArray) -> FloatArray:
     """Effective area of round HSS (NaN where D/t >= 0.45 E/Fy, out of E7's scope).
 
     Ae_round_slender exceeds Ag just past D/t = 0.11 E/Fy (1.012·Ag at the limit); an
@@ -246,17 +248,17 @@ class CompressionResult:
         in_scope: False where Chapter E as implemented does not apply (see ``scope_reason``).
     """
 
-    Pn: np.ndarray
-    Fcr: np.ndarray
-    Fe: np.ndarray
-    Ae: np.ndarray
-    Ag: np.ndarray
-    slenderness: np.ndarray
-    limit_state: np.ndarray
-    slender: np.ndarray
-    in_scope: np.ndarray
+    Pn: FloatArray
+    Fcr: FloatArray
+    Fe: FloatArray
+    Ae: FloatArray
+    Ag: FloatArray
+    slenderness: FloatArray
+    limit_state: IntArray
+    slender: BoolArray
+    in_scope: BoolArray
 
-    def limit_state_names(self) -> np.ndarray:
+    def limit_state_names(self) -> ObjectArray:
         """Readable names, with "(slender elements)" where Ae < Ag."""
         names = _LIMIT_STATE_NAMES[self.limit_state]
         slender = self.slender.nonzero()[0]
@@ -275,27 +277,44 @@ _I_SHAPE, _TEE, _CHANNEL, _UNSUPPORTED = (
 class _RowConstants:
     """Per-section-row constants used by every block (computed once per call)."""
 
-    kind: np.ndarray  # int8 Kind codes
-    inv_rx: np.ndarray  # 1/rx, 1/ry
-    inv_ry: np.ndarray
-    ro2: np.ndarray  # r̄o² and H (ro_bar_squared, H_flexural_constant): tees, channels
-    H: np.ndarray
-    groups: tuple[tuple[np.ndarray, ...], ...]  # per element group: (λ, λ², k², k, c1, c2)
-    round_: np.ndarray
+    kind: NDArray[np.int8]  # Kind codes
+    inv_rx: FloatArray  # 1/rx, 1/ry
+    inv_ry: FloatArray
+    ro2: FloatArray  # r̄o² and H (ro_bar_squared, H_flexural_constant): tees, channels
+    H: FloatArray
+    groups: tuple[tuple[FloatArray, ...], ...]  # per element group: (λ, λ², k², k, c1, c2)
+    round_: BoolArray
 
     @classmethod
     def cached(cls, sec: SectionTable) -> _RowConstants:
-        """Constants of ``sec``, kept on the table when its arrays are read-only (catalog)."""
-        hit = getattr(sec, "_chapter_e_constants", None)
+        """Constants of ``sec``, kept on the table when its arrays are read-only (catalog).
+
+        Args:
+            sec: the section rows.
+
+        Returns:
+            The constants, computed once per read-only table.
+        """
+        hit: _RowConstants | None = getattr(sec, "_chapter_e_constants", None)
         if hit is not None:
             return hit
         out = cls.of(sec)
         if not sec.A.flags.writeable:
+            # A private cache on the shared read-only table, not a field of SectionTable (its
+            # fields are columns that take() and concat() gather).
             sec._chapter_e_constants = out  # type: ignore[attr-defined]
         return out
 
     @classmethod
     def of(cls, sec: SectionTable) -> _RowConstants:
+        """Compute the constants of ``sec``.
+
+        Args:
+            sec: the section rows.
+
+        Returns:
+            The constants, one entry per row.
+        """
         with np.errstate(divide="ignore", invalid="ignore"):
             inv_rx, inv_ry = 1.0 / sec.rx, 1.0 / sec.ry
             ro2 = ro_bar_squared(sec.xo, sec.yo, sec.Ix, sec.Iy, sec.A)
@@ -310,37 +329,59 @@ class _RowConstants:
                    sec.kind == Kind.ROUND_HSS)
 
 
+@dataclass(frozen=True)
+class _MemberInputs:
+    """Per-member inputs of Chapter E (ksi, in), one entry per member."""
+
+    Fy: FloatArray
+    Lcx: FloatArray
+    Lcy: FloatArray
+    Lcz: FloatArray
+    E: FloatArray
+    G: FloatArray
+
+    def __getitem__(self, sl: slice) -> _MemberInputs:
+        return _MemberInputs(self.Fy[sl], self.Lcx[sl], self.Lcy[sl], self.Lcz[sl], self.E[sl],
+                             self.G[sl])
+
+
 def compressive_strength(
     sec: SectionTable,
-    Fy: np.ndarray,
-    Lcx: np.ndarray,
-    Lcy: np.ndarray,
-    Lcz: np.ndarray,
-    E: np.ndarray | float = 29000.0,
-    G: np.ndarray | float = 11200.0,
-    index: np.ndarray | None = None,
+    Fy: FloatArray,
+    Lcx: FloatArray,
+    Lcy: FloatArray,
+    Lcz: FloatArray,
+    E: FloatArray | float = 29000.0,
+    G: FloatArray | float = 11200.0,
+    index: IntArray | None = None,
 ) -> CompressionResult:
     """Nominal compressive strength Pn of every member (AISC 360-22 Chapter E).
-
-    Args:
-        sec: section rows: one per member, or (with ``index``) the table members point into.
-        Fy: yield stress, ksi.
-        Lcx, Lcy, Lcz: effective lengths K·L for x, y and torsion, in.
-        E, G: moduli, ksi.
-        index: optional row of ``sec`` for each member (avoids gathering whole rows).
 
     Members are processed in blocks of :data:`CHUNK`; within a block every limit state is
     evaluated on the members it applies to (torsional on open I shapes, flexural-torsional on
     tees and channels, E7 on members whose elements exceed λr) with the equation functions
     above.
+
+    Args:
+        sec: section rows: one per member, or (with ``index``) the table members point into.
+        Fy: yield stress, ksi.
+        Lcx: effective length K·L for flexural buckling about x, in.
+        Lcy: effective length K·L for flexural buckling about y, in.
+        Lcz: effective length K·L for torsional buckling, in.
+        E: modulus of elasticity, ksi (one value or one per member).
+        G: shear modulus, ksi (one value or one per member).
+        index: optional row of ``sec`` for each member (avoids gathering whole rows).
+
+    Returns:
+        The results, one entry per member.
     """
     Fy = np.asarray(Fy, dtype=float)
     n = len(Fy)
-    E, G, Lcx, Lcy, Lcz = (_per_member(a, n) for a in (E, G, Lcx, Lcy, Lcz))
+    members = _MemberInputs(Fy, *(_per_member(a, n) for a in (Lcx, Lcy, Lcz, E, G)))
     limits = _RowConstants.cached(sec)
     if n <= CHUNK:  # one block: its arrays are the result
         rows = index if index is not None else np.arange(n)
-        return _block(sec, limits, rows, Fy, Lcx, Lcy, Lcz, E, G)
+        return _block(sec, limits, rows, members)
     out = CompressionResult(
         Pn=np.empty(n), Fcr=np.empty(n), Fe=np.empty(n), Ae=np.empty(n), Ag=np.empty(n),
         slenderness=np.empty(n), limit_state=np.empty(n, dtype=np.int64),
@@ -349,27 +390,37 @@ def compressive_strength(
     for start in range(0, n, CHUNK):
         sl = slice(start, min(n, start + CHUNK))
         rows = index[sl] if index is not None else np.arange(sl.start, sl.stop)
-        _block(sec, limits, rows, Fy[sl], Lcx[sl], Lcy[sl], Lcz[sl], E[sl], G[sl], out, sl)
+        block = _block(sec, limits, rows, members[sl])
+        for f in fields(CompressionResult):
+            getattr(out, f.name)[sl] = getattr(block, f.name)
+        del block  # free the block's arrays before the next block allocates its own
     return out
 
 
-def _per_member(a: np.ndarray | float, n: int) -> np.ndarray:
+def _per_member(a: FloatArray | float, n: int) -> FloatArray:
     """``a`` as a float array of length ``n`` (a scalar is repeated; arrays are not copied)."""
     a = np.asarray(a, dtype=float)
     return a if a.shape == (n,) else np.broadcast_to(a, (n,))
 
 
-def _block(
-    sec: SectionTable, lim: _RowConstants, rows: np.ndarray, Fy: np.ndarray,
-    Lcx: np.ndarray, Lcy: np.ndarray, Lcz: np.ndarray, E: np.ndarray, G: np.ndarray,
-    out: CompressionResult | None = None, sl: slice | None = None,
-) -> CompressionResult | None:
-    """Chapter E for one block of members: results written into ``out[sl]``, or returned
-    when there is no ``out``.
+def _block(sec: SectionTable, lim: _RowConstants, rows: IntArray,
+           members: _MemberInputs) -> CompressionResult:
+    """Chapter E for one block of members.
 
     Written for speed: integer gathers (ndarray.take) and masked updates on the members a limit
     state applies to, no boolean-mask copies of whole blocks.
+
+    Args:
+        sec: the section rows members point into.
+        lim: the constants of those rows.
+        rows: the row of ``sec`` of each member of the block.
+        members: the block's per-member inputs.
+
+    Returns:
+        The block's results.
     """
+    Fy, Lcx, Lcy, Lcz, E, G = (members.Fy, members.Lcx, members.Lcy, members.Lcz, members.E,
+                               members.G)
     kind = lim.kind.take(rows)
     Ag = sec.A.take(rows)
     with np.errstate(invalid="ignore"):
@@ -381,7 +432,7 @@ def _block(
     Fe = np.minimum(Fex, Fey)
     mode = (Fey < Fex).astype(np.int64)
 
-    def lower(sub: np.ndarray, F: np.ndarray, code: LimitState, ties: bool = False) -> None:
+    def lower(sub: IntArray, F: FloatArray, code: LimitState, ties: bool = False) -> None:
         low = (F <= Fe.take(sub) if ties else F < Fe.take(sub)).nonzero()[0]
         if len(low):
             at = sub.take(low)
@@ -428,24 +479,13 @@ def _block(
         in_scope[sub] = np.isfinite(Ae_r)
 
     slender = Ae < Ag * (1.0 - 1e-12)
-    if out is None:
-        return CompressionResult(
-            Pn=Pn(Fcr_, Ae), Fcr=Fcr_, Fe=Fe, Ae=Ae, Ag=Ag, slenderness=np.fmax(Lcx_rx, Lcy_ry),
-            limit_state=mode, slender=slender, in_scope=in_scope,
-        )
-    out.Pn[sl] = Pn(Fcr_, Ae)
-    out.Fcr[sl] = Fcr_
-    out.Fe[sl] = Fe
-    out.Ae[sl] = Ae
-    out.Ag[sl] = Ag
-    np.fmax(Lcx_rx, Lcy_ry, out=out.slenderness[sl])
-    out.limit_state[sl] = mode
-    out.slender[sl] = slender
-    out.in_scope[sl] = in_scope
-    return None
+    return CompressionResult(
+        Pn=Pn(Fcr_, Ae), Fcr=Fcr_, Fe=Fe, Ae=Ae, Ag=Ag, slenderness=np.fmax(Lcx_rx, Lcy_ry),
+        limit_state=mode, slender=slender, in_scope=in_scope,
+    )
 
 
-def available_strength(Pn_: np.ndarray, method: str) -> np.ndarray:
+def available_strength(Pn_: FloatArray, method: str) -> FloatArray:
     """φc·Pn (LRFD) or Pn/Ωc (ASD).  AISC 360-22 Section E1."""
     method = method.upper()
     if method == "LRFD":

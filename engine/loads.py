@@ -61,7 +61,7 @@ ACTION_SOURCES: dict[str, str] = {
 _UNSPECIFIED = (None, "NOTDEFINED", "USERDEFINED")
 _TOKEN = re.compile(r"^(D|L|Lr|LR|lr|S|R|W|E)\d*$")
 #: (regex on lower-cased text, load type), tried in order.
-_WORDS: tuple[tuple[re.Pattern, str], ...] = (
+_WORDS: tuple[tuple[re.Pattern[str], str], ...] = (
     (re.compile(r"\broof\s*live\b|\blive\s*roof\b|\broof\b"), "Lr"),
     (re.compile(r"\bdead\b|\bself[\s\-]*weight\b|\bsuperimposed\b"), "D"),
     (re.compile(r"\blive\b"), "L"),
@@ -124,12 +124,12 @@ def case_load_type(
     if combination:
         return None, "a load combination (combinations are formed by ASCE 7-22 here)"
     if action_source in ACTION_SOURCES:
-        kind = ACTION_SOURCES[action_source]
-        if kind == "L":
+        source_kind = ACTION_SOURCES[action_source]
+        if source_kind == "L":
             roof = "Lr" in _tokens(texts) or any(re.search(r"\broof\b", t.lower()) for t in texts)
             if roof:
                 return "Lr", f"ActionSource {action_source} and a roof name"
-        return kind, f"ActionSource {action_source}"
+        return source_kind, f"ActionSource {action_source}"
     if action_source not in _UNSPECIFIED:
         return None, f"ActionSource {action_source} has no ASCE 7-22 load type here"
     kind, rule = _by_name(texts)

@@ -11,6 +11,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from stanchion.engine.arrays import AnyArray, FloatArray, IntArray, ObjectArray
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.sections import SectionTable
 
@@ -43,59 +44,85 @@ class MemberTable:
         extra: further per-member columns (storey, x, y, candidates ...) for writers.
     """
 
-    id: np.ndarray
-    name: np.ndarray
-    section_label: np.ndarray
-    section_index: np.ndarray
+    id: ObjectArray
+    name: ObjectArray
+    section_label: ObjectArray
+    section_index: IntArray
     sections: SectionTable
-    Fy: np.ndarray
-    lx: np.ndarray
-    ly: np.ndarray
-    lz: np.ndarray
-    kx: np.ndarray
-    ky: np.ndarray
-    kz: np.ndarray
-    E: np.ndarray
-    G: np.ndarray
-    loads: np.ndarray
-    required_strength: np.ndarray
-    reason: np.ndarray
+    Fy: FloatArray
+    lx: FloatArray
+    ly: FloatArray
+    lz: FloatArray
+    kx: FloatArray
+    ky: FloatArray
+    kz: FloatArray
+    E: FloatArray
+    G: FloatArray
+    loads: FloatArray
+    required_strength: FloatArray
+    reason: ObjectArray
     messages: list[list[str]]
-    extra: dict[str, np.ndarray] = field(default_factory=dict)
+    extra: dict[str, AnyArray] = field(default_factory=dict)
 
     def __len__(self) -> int:
         return len(self.id)
 
     @classmethod
-    def build(
+    def build(  # noqa: PLR0913 - a keyword-only table constructor, one argument per column
         cls,
         ids: list[str],
         sections: SectionTable,
-        section_index: np.ndarray,
-        Fy: np.ndarray,
-        length: np.ndarray,
+        section_index: IntArray,
+        Fy: FloatArray,
+        length: FloatArray,
         *,
         name: list[str] | None = None,
         section_label: list[str] | None = None,
-        lx: np.ndarray | None = None,
-        ly: np.ndarray | None = None,
-        lz: np.ndarray | None = None,
-        kx: np.ndarray | None = None,
-        ky: np.ndarray | None = None,
-        kz: np.ndarray | None = None,
-        E: np.ndarray | float = E_DEFAULT,
-        G: np.ndarray | float = G_DEFAULT,
-        loads: np.ndarray | None = None,
-        required_strength: np.ndarray | None = None,
+        lx: FloatArray | None = None,
+        ly: FloatArray | None = None,
+        lz: FloatArray | None = None,
+        kx: FloatArray | None = None,
+        ky: FloatArray | None = None,
+        kz: FloatArray | None = None,
+        E: FloatArray | float = E_DEFAULT,
+        G: FloatArray | float = G_DEFAULT,
+        loads: FloatArray | None = None,
+        required_strength: FloatArray | None = None,
         reason: list[str | None] | None = None,
         messages: list[list[str]] | None = None,
-        extra: dict[str, np.ndarray] | None = None,
+        extra: dict[str, AnyArray] | None = None,
     ) -> MemberTable:
-        """Convenience constructor: defaults K = 1 and unbraced lengths = member length."""
+        """Convenience constructor: defaults K = 1 and unbraced lengths = member length.
+
+        Args:
+            ids: unique member ids.
+            sections: the section rows the members point into.
+            section_index: row in ``sections`` for each member, -1 where none is usable.
+            Fy: yield stress, ksi.
+            length: member length, in: the unbraced lengths not given.
+            name: display names (default: the ids).
+            section_label: the designation or profile description as given (default "").
+            lx: unbraced length for flexure about x, in.
+            ly: unbraced length for flexure about y, in.
+            lz: unbraced length for torsion, in.
+            kx: effective length factor for ``lx`` (default 1).
+            ky: effective length factor for ``ly`` (default 1).
+            kz: effective length factor for ``lz`` (default 1).
+            E: modulus of elasticity, ksi (one value or one per member).
+            G: shear modulus, ksi (one value or one per member).
+            loads: (n, len(LOAD_TYPES)) service load effects, kip (default: all NaN).
+            required_strength: already-factored compression, kip (default NaN).
+            reason: why each member cannot be checked, or None.
+            messages: per-member notes (default: none).
+            extra: further per-member columns for writers.
+
+        Returns:
+            The member table.
+        """
         n = len(ids)
         length = np.asarray(length, dtype=float)
 
-        def arr(v, default):
+        def arr(v: FloatArray | float | None, default: FloatArray | float) -> FloatArray:
             if v is None:
                 return np.broadcast_to(np.asarray(default, dtype=float), (n,)).copy()
             return np.asarray(v, dtype=float).reshape(n)
@@ -115,8 +142,8 @@ class MemberTable:
             kx=arr(kx, 1.0),
             ky=arr(ky, 1.0),
             kz=arr(kz, 1.0),
-            E=arr(None, E) if np.isscalar(E) else arr(E, E_DEFAULT),
-            G=arr(None, G) if np.isscalar(G) else arr(G, G_DEFAULT),
+            E=arr(E, E_DEFAULT) if isinstance(E, np.ndarray) else arr(None, E),
+            G=arr(G, G_DEFAULT) if isinstance(G, np.ndarray) else arr(None, G),
             loads=(
                 np.full((n, len(LOAD_TYPES)), np.nan)
                 if loads is None

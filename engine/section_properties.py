@@ -33,11 +33,12 @@ sectionproperties. Sloped-flange shapes (S, M, C, MC) are outside this parallel-
 
 from __future__ import annotations
 
-from collections.abc import Callable
+from collections.abc import Callable, Iterable
 
 import numpy as np
 from numpy.typing import ArrayLike
 
+from stanchion.engine.arrays import AnyArray, BoolArray, FloatArray, IntArray, ObjectArray
 from stanchion.engine.compression import H_flexural_constant, ro_bar_squared
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
@@ -50,14 +51,14 @@ _FILLET_AREA = 1.0 - np.pi / 4.0
 _FILLET_CENTROID = (10.0 - 3.0 * np.pi) / (12.0 - 3.0 * np.pi)
 _FILLET_INERTIA = (1.0 - 5.0 * np.pi / 16.0) - _FILLET_AREA * _FILLET_CENTROID**2
 
-Array = np.ndarray
-Check = tuple[Array, str]
+Array = FloatArray
+Check = tuple[BoolArray, str]  # (rows where a condition fails, the condition)
 
 
 # ---------------------------------------------------------------- input handling
 
 
-def _arrays(*values: ArrayLike) -> list[Array]:
+def _arrays(*values: ArrayLike | None) -> list[Array]:
     """Broadcast the inputs to 1-D float arrays of a common length."""
     arrays = np.broadcast_arrays(*(np.atleast_1d(np.asarray(v, dtype=float)) for v in values))
     if arrays[0].ndim != 1:
@@ -69,7 +70,8 @@ def _fmt(v: float) -> str:
     return f"{v:.4g}"
 
 
-def _labels(label: ArrayLike | None, prefix: str, dims: list[Array], r: Array | None = None):
+def _labels(label: ArrayLike | None, prefix: str, dims: list[Array], r: Array | None = None
+            ) -> ObjectArray:
     """Labels per row: the given ones (broadcast) or ``"PREFIX d1xd2x... [rR]"``."""
     n = len(dims[0])
     if label is not None:
@@ -89,7 +91,8 @@ def _radius(name: str, r: Array) -> list[Check]:
     return [(~(np.isfinite(r) & (r >= 0)), f"{name} must be zero or a positive number")]
 
 
-def _open_checks(family: str, d, bf, tw, tf, r) -> list[Check]:
+def _open_checks(family: str, d: Array, bf: Array, tw: Array, tf: Array, r: Array
+                 ) -> list[Check]:
     """Conditions for I (two flanges, fillets both sides of the web), T and U profiles."""
     flanges = 1 if family == "T" else 2  # flanges along d
     sides = 1 if family == "U" else 2  # fillets across bf
@@ -119,14 +122,14 @@ _CHECKS: dict[str, tuple[tuple[str, ...], Callable[..., list[Check]]]] = {
 }
 
 
-def _failures(family: str, arrays: list[Array]) -> list[tuple[Array, str]]:
+def _failures(family: str, arrays: list[Array]) -> list[tuple[IntArray, str]]:
     """(bad row indices, message) for every condition that fails in some row."""
     with np.errstate(invalid="ignore"):
         checks = _CHECKS[family][1](*arrays)
     return [(np.flatnonzero(bad), msg) for bad, msg in checks if np.any(bad)]
 
 
-def dimension_problems(family: str, **dims: ArrayLike | None) -> Array:
+def dimension_problems(family: str, **dims: ArrayLike | None) -> ObjectArray:
     """Row-by-row diagnosis of parametric dimensions, without raising.
 
     Args:
@@ -161,8 +164,10 @@ def dimension_problems(family: str, **dims: ArrayLike | None) -> Array:
 
 
 def _prepare(family: str, *values: ArrayLike) -> list[Array]:
-    """Broadcast the dimensions; raise ValueError naming each failed condition (and the rows
-    for array input, with the values of the first bad row)."""
+    """Broadcast the dimensions; raise ValueError naming each failed condition.
+
+    For array input the message names the rows too, with the values of the first bad row.
+    """
     for name, v in zip(_CHECKS[family][0], values, strict=True):
         try:
             np.asarray(v, dtype=float)
@@ -202,12 +207,21 @@ def _compose(parts: list[tuple[Array, ...]]) -> tuple[Array, Array, Array, Array
 
     Parts are symmetric about a common axis in pairs, so products of inertia cancel.
     """
-    A = sum(p[0] for p in parts)
-    xc = sum(p[0] * p[1] for p in parts) / A
-    yc = sum(p[0] * p[2] for p in parts) / A
-    Ix = sum(p[3] + p[0] * p[2] ** 2 for p in parts) - A * yc**2
-    Iy = sum(p[4] + p[0] * p[1] ** 2 for p in parts) - A * xc**2
+    A = _total(p[0] for p in parts)
+    xc = _total(p[0] * p[1] for p in parts) / A
+    yc = _total(p[0] * p[2] for p in parts) / A
+    Ix = _total(p[3] + p[0] * p[2] ** 2 for p in parts) - A * yc**2
+    Iy = _total(p[4] + p[0] * p[1] ** 2 for p in parts) - A * xc**2
     return A, xc, yc, Ix, Iy
+
+
+def _total(terms: Iterable[Array]) -> Array:
+    """Sum of arrays, added left to right as :func:`sum` does (at least one term)."""
+    it = iter(terms)
+    total = next(it)
+    for term in it:
+        total = total + term
+    return total
 
 
 def _rounded_rect(H: Array, B: Array, r: Array) -> tuple[Array, Array, Array]:
@@ -228,7 +242,8 @@ def _j_rect_part(a: Array, b: Array, free_ends: int) -> Array:
     and Strain, 7th ed., Table 10.7) and the half correction 0.105 with 192 for one free end
     (Roark's stem term of the T-section). From memory.
     """
-    long, t = np.maximum(a, b), np.minimum(a, b)
+    long: Array = np.maximum(a, b)
+    t: Array = np.minimum(a, b)
     k, q = (0.21, 12.0) if free_ends == 2 else (0.105, 192.0)
     return long * t**3 * (1.0 / 3.0 - k * (t / long) * (1.0 - t**4 / (q * long**4)))
 
@@ -265,16 +280,17 @@ def _j_solid_rect(a: Array, b: Array, terms: int = 10) -> Array:
     J = (l t³/3)[1 - (192/π⁵)(t/l) Σ_{n odd} tanh(nπl/(2t))/n⁵]
     (Timoshenko and Goodier, Theory of Elasticity, torsion of a rectangular bar; 10 terms).
     """
-    long, t = np.maximum(a, b), np.minimum(a, b)
+    long: Array = np.maximum(a, b)
+    t: Array = np.minimum(a, b)
     n = (2.0 * np.arange(terms) + 1.0)[:, None]
-    series = np.sum(np.tanh(n * np.pi * long / (2.0 * t)) / n**5, axis=0)
+    series: Array = np.sum(np.tanh(n * np.pi * long / (2.0 * t)) / n**5, axis=0)
     return long * t**3 / 3.0 * (1.0 - 192.0 / np.pi**5 * (t / long) * series)
 
 
 def _table(n: int, **cols: ArrayLike) -> SectionTable:
     """SectionTable of n rows; scalars broadcast, absent numeric fields are 0."""
     ints = ("kind", "n1", "n2", "cls1", "cls2")
-    data: dict[str, Array] = {}
+    data: dict[str, AnyArray] = {}
     for name in SectionTable.__dataclass_fields__:
         v = cols.get(name, 0)
         if name in ("designation", "family"):
@@ -305,8 +321,11 @@ def i_section(
     Cw = Iy·h0²/4 with h0 = d - tf (AISC Design Guide 9, 1997; common practice).
 
     Args:
-        d: overall depth, in.  bf: flange width, in.  tw: web thickness, in.
-        tf: flange thickness, in.  r: root fillet radius, in (0 or None: no fillets).
+        d: overall depth, in.
+        bf: flange width, in.
+        tw: web thickness, in.
+        tf: flange thickness, in.
+        r: root fillet radius, in (0 or None: no fillets).
         label: designation per row; default ``"I dxbfxtwxtf"`` (``" rR"`` when r > 0).
 
     Raises:
@@ -343,7 +362,9 @@ def rect_hollow(
 
     Args:
         H: outside depth, in (Ix is about the axis parallel to B; x is the strong axis when
-            H >= B).  B: outside width, in.  t: design wall thickness, in.
+            H >= B).
+        B: outside width, in.
+        t: design wall thickness, in.
         r_out: outside corner radius, in; default 2t (AISC practice for HSS).
         label: designation per row; default ``"HSS HxBxt"``.
 
@@ -375,7 +396,8 @@ def circ_hollow(D: ArrayLike, t: ArrayLike, label: ArrayLike | None = None) -> S
     """Round hollow section (IfcCircleHollowProfileDef): exact A, I; J = 2I; Cw = 0.
 
     Args:
-        D: outside diameter, in.  t: design wall thickness, in.
+        D: outside diameter, in.
+        t: design wall thickness, in.
         label: designation per row; default ``"HSS_ROUND Dxt"``.
 
     Raises:
@@ -405,8 +427,11 @@ def tee(
     Cw = bf³tf³/144 + (d - tf/2)³tw³/36.
 
     Args:
-        d: overall depth, in.  bf: flange width, in.  tw: stem thickness, in.
-        tf: flange thickness, in.  r: root fillet radius, in (0 or None: none).
+        d: overall depth, in.
+        bf: flange width, in.
+        tw: stem thickness, in.
+        tf: flange thickness, in.
+        r: root fillet radius, in (0 or None: none).
         label: designation per row; default ``"T dxbfxtwxtf"``.
 
     Raises:
@@ -443,8 +468,11 @@ def channel(
     module notes (Roark rectangles plus two L junctions).
 
     Args:
-        d: overall depth, in.  bf: flange width including the web, in.  tw: web thickness, in.
-        tf: flange thickness, in.  r: root fillet radius, in (0 or None: none).
+        d: overall depth, in.
+        bf: flange width including the web, in.
+        tw: web thickness, in.
+        tf: flange thickness, in.
+        r: root fillet radius, in (0 or None: none).
         label: designation per row; default ``"U dxbfxtwxtf"``.
 
     Raises:
@@ -474,7 +502,8 @@ def solid_rect(H: ArrayLike, B: ArrayLike, label: ArrayLike | None = None) -> Se
     """Solid rectangle (IfcRectangleProfileDef): exact A, I; J by the Saint-Venant series.
 
     Args:
-        H: depth, in (Ix about the axis parallel to B).  B: width, in.
+        H: depth, in (Ix about the axis parallel to B).
+        B: width, in.
         label: designation per row; default ``"RECT HxB"``.
 
     Raises:

@@ -15,10 +15,14 @@ elements the section has (for the effective-area deduction) and an element class
 
 from __future__ import annotations
 
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, fields
 from enum import IntEnum
+from typing import Any, TypedDict
 
 import numpy as np
+
+from stanchion.engine.arrays import FloatArray, IntArray, ObjectArray
 
 
 class Kind(IntEnum):
@@ -60,10 +64,55 @@ ELEMENT_CLASSES: dict[ElementClass, tuple[float, float, float]] = {
 _CLASS_TABLE = np.array([ELEMENT_CLASSES[c] for c in ElementClass], dtype=float)
 
 
-def class_coefficients(cls: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """λr coefficient, c1 and c2 arrays for an array of element class codes."""
+def class_coefficients(cls: IntArray) -> tuple[FloatArray, FloatArray, FloatArray]:
+    """λr coefficient, c1 and c2 arrays for an array of element class codes.
+
+    Args:
+        cls: :class:`ElementClass` codes.
+
+    Returns:
+        (k with λr = k·√(E/Fy), c1, c2), each shaped like ``cls``.
+    """
     row = _CLASS_TABLE[np.asarray(cls, dtype=np.int64)]
     return row[..., 0], row[..., 1], row[..., 2]
+
+
+_TEXT_FIELDS = ("designation", "family")
+_CODE_FIELDS = ("kind", "cls1", "cls2", "n1", "n2")
+
+
+class SectionRow(TypedDict):
+    """One row of a :class:`SectionTable` as Python scalars (see its attributes)."""
+
+    designation: str
+    family: str
+    kind: int
+    weight: float
+    A: float
+    d: float
+    bf: float
+    tw: float
+    tf: float
+    Ix: float
+    Iy: float
+    rx: float
+    ry: float
+    J: float
+    Cw: float
+    xo: float
+    yo: float
+    xbar: float
+    ybar: float
+    ro: float
+    H: float
+    b1: float
+    t1: float
+    n1: int
+    cls1: int
+    b2: float
+    t2: float
+    n2: int
+    cls2: int
 
 
 @dataclass
@@ -90,46 +139,60 @@ class SectionTable:
         b1, t1, n1, cls1, b2, t2, n2, cls2: element groups for Section E7.
     """
 
-    designation: np.ndarray
-    family: np.ndarray
-    kind: np.ndarray
-    weight: np.ndarray
-    A: np.ndarray
-    d: np.ndarray
-    bf: np.ndarray
-    tw: np.ndarray
-    tf: np.ndarray
-    Ix: np.ndarray
-    Iy: np.ndarray
-    rx: np.ndarray
-    ry: np.ndarray
-    J: np.ndarray
-    Cw: np.ndarray
-    xo: np.ndarray
-    yo: np.ndarray
-    xbar: np.ndarray
-    ybar: np.ndarray
-    ro: np.ndarray
-    H: np.ndarray
-    b1: np.ndarray
-    t1: np.ndarray
-    n1: np.ndarray
-    cls1: np.ndarray
-    b2: np.ndarray
-    t2: np.ndarray
-    n2: np.ndarray
-    cls2: np.ndarray
+    designation: ObjectArray
+    family: ObjectArray
+    kind: IntArray
+    weight: FloatArray
+    A: FloatArray
+    d: FloatArray
+    bf: FloatArray
+    tw: FloatArray
+    tf: FloatArray
+    Ix: FloatArray
+    Iy: FloatArray
+    rx: FloatArray
+    ry: FloatArray
+    J: FloatArray
+    Cw: FloatArray
+    xo: FloatArray
+    yo: FloatArray
+    xbar: FloatArray
+    ybar: FloatArray
+    ro: FloatArray
+    H: FloatArray
+    b1: FloatArray
+    t1: FloatArray
+    n1: IntArray
+    cls1: IntArray
+    b2: FloatArray
+    t2: FloatArray
+    n2: IntArray
+    cls2: IntArray
 
     def __len__(self) -> int:
         return len(self.A)
 
-    def take(self, index: np.ndarray) -> SectionTable:
-        """Rows at ``index`` (fancy indexing; used to gather one row per member)."""
+    def take(self, index: IntArray) -> SectionTable:
+        """Rows at ``index`` (fancy indexing; used to gather one row per member).
+
+        Args:
+            index: row numbers, in the order wanted.
+
+        Returns:
+            A new table whose row i is row ``index[i]`` of this one.
+        """
         return SectionTable(**{f.name: getattr(self, f.name)[index] for f in fields(self)})
 
     @classmethod
-    def concat(cls, tables: list[SectionTable]) -> SectionTable:
-        """Rows of several tables, in order."""
+    def concat(cls, tables: Sequence[SectionTable]) -> SectionTable:
+        """Rows of several tables, in order.
+
+        Args:
+            tables: the tables to join.
+
+        Returns:
+            One table with the rows of ``tables`` one after the other.
+        """
         return cls(
             **{f.name: np.concatenate([getattr(t, f.name) for t in tables]) for f in fields(cls)}
         )
@@ -140,22 +203,43 @@ class SectionTable:
         return cls.from_rows([])
 
     @classmethod
-    def from_rows(cls, rows: list[dict]) -> SectionTable:
-        """Build a table from dicts keyed by field name; missing numeric fields are 0."""
-        data = {}
+    def from_rows(cls, rows: Sequence[Mapping[str, str | float]]) -> SectionTable:
+        """Build a table from dicts keyed by field name; missing numeric fields are 0.
+
+        Args:
+            rows: one mapping per row, keyed by the attribute names.
+
+        Returns:
+            The table, one row per mapping.
+        """
+        data: dict[str, Any] = {}  # field name -> column, each with its field's dtype
         for f in fields(cls):
-            if f.name in ("designation", "family"):
+            if f.name in _TEXT_FIELDS:
                 data[f.name] = np.array([r.get(f.name, "") for r in rows], dtype=object)
-            elif f.name in ("kind", "cls1", "cls2", "n1", "n2"):
+            elif f.name in _CODE_FIELDS:
                 data[f.name] = np.array([int(r.get(f.name, 0)) for r in rows], dtype=np.int64)
             else:
                 data[f.name] = np.array([float(r.get(f.name, 0.0)) for r in rows], dtype=float)
         return cls(**data)
 
-    def row(self, i: int) -> dict:
-        """One row as a dict of Python scalars."""
-        out = {}
-        for f in fields(self):
-            v = getattr(self, f.name)[i]
-            out[f.name] = v.item() if hasattr(v, "item") else v
-        return out
+    def row(self, i: int) -> SectionRow:
+        """One row as Python scalars.
+
+        Args:
+            i: the row number.
+
+        Returns:
+            The row, keyed by attribute name.
+        """
+        return SectionRow(
+            designation=str(self.designation[i]), family=str(self.family[i]),
+            kind=int(self.kind[i]), weight=float(self.weight[i]), A=float(self.A[i]),
+            d=float(self.d[i]), bf=float(self.bf[i]), tw=float(self.tw[i]), tf=float(self.tf[i]),
+            Ix=float(self.Ix[i]), Iy=float(self.Iy[i]), rx=float(self.rx[i]),
+            ry=float(self.ry[i]), J=float(self.J[i]), Cw=float(self.Cw[i]),
+            xo=float(self.xo[i]), yo=float(self.yo[i]), xbar=float(self.xbar[i]),
+            ybar=float(self.ybar[i]), ro=float(self.ro[i]), H=float(self.H[i]),
+            b1=float(self.b1[i]), t1=float(self.t1[i]), n1=int(self.n1[i]),
+            cls1=int(self.cls1[i]), b2=float(self.b2[i]), t2=float(self.t2[i]),
+            n2=int(self.n2[i]), cls2=int(self.cls2[i]),
+        )

@@ -8,13 +8,16 @@ suggested section is exactly as safe as a checked one.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Any
 
 import numpy as np
 
 from stanchion.engine import catalog
+from stanchion.engine.arrays import BoolArray, FloatArray, IntArray
 from stanchion.engine.compression import available_strength, compressive_strength
 from stanchion.engine.masks import finite_positive
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
+from stanchion.engine.members import MemberTable
 from stanchion.engine.sections import Kind, SectionTable
 
 DEFAULT_MAX_SUGGESTIONS = 5
@@ -31,14 +34,23 @@ class Suggestions:
         weight: (n, k) nominal weight, lb/ft.
     """
 
-    index: np.ndarray
-    available_strength: np.ndarray
-    utilization: np.ndarray
-    weight: np.ndarray
+    index: IntArray
+    available_strength: FloatArray
+    utilization: FloatArray
+    weight: FloatArray
 
-    def for_member(self, i: int, table: SectionTable) -> list[dict]:
-        """Suggestions of member ``i`` as plain dicts (designation, strength, utilization)."""
-        out = []
+    def for_member(self, i: int, table: SectionTable) -> list[dict[str, Any]]:
+        """Suggestions of member ``i`` as plain dicts (designation, strength, utilization).
+
+        Args:
+            i: the member's row in these suggestions.
+            table: the section table ``index`` points into (the catalog).
+
+        Returns:
+            The member's suggestions, lightest first: ``section`` (designation, str),
+            ``available_strength`` (kip), ``utilization`` and ``weight`` (lb/ft), floats.
+        """
+        out: list[dict[str, Any]] = []
         for j in np.flatnonzero(self.index[i] >= 0):
             out.append({
                 "section": str(table.designation[self.index[i, j]]),
@@ -50,8 +62,17 @@ class Suggestions:
 
 
 def candidate_indices(specs: list[str], *, min_depth: float | None = None,
-                      max_depth: float | None = None) -> np.ndarray:
+                      max_depth: float | None = None) -> IntArray:
     """Catalog rows for families ("W12", "HSS") or designations, within a nominal depth range.
+
+    Args:
+        specs: families, families with a nominal depth, or designations
+            (:func:`engine.catalog.family_indices`).
+        min_depth: smallest nominal depth, in (None: no limit).
+        max_depth: largest nominal depth, in (None: no limit).
+
+    Returns:
+        Sorted catalog rows, angles left out.
 
     Raises:
         ValueError: naming a spec that matches no catalog shape.
@@ -71,38 +92,49 @@ def candidate_indices(specs: list[str], *, min_depth: float | None = None,
         keep &= depth >= min_depth
     if max_depth is not None:
         keep &= depth <= max_depth
-    return idx[keep]
+    kept: IntArray = idx[keep]
+    return kept
 
 
-def select(
-    required: np.ndarray,
-    Fy: np.ndarray,
-    Lcx: np.ndarray,
-    Lcy: np.ndarray,
-    Lcz: np.ndarray,
-    candidates: np.ndarray,
+# The Chapter E inputs of compressive_strength plus keyword-only search options; called so by
+# service.cli.suggest and the tests.
+def select(  # noqa: PLR0913 - Chapter E's member inputs plus keyword-only search options
+    required: FloatArray,
+    Fy: FloatArray,
+    Lcx: FloatArray,
+    Lcy: FloatArray,
+    Lcz: FloatArray,
+    candidates: IntArray,
     *,
-    allowed: np.ndarray | None = None,
+    allowed: BoolArray | None = None,
     method: str = "LRFD",
-    max_utilization: np.ndarray | float = 1.0,
+    max_utilization: FloatArray | float = 1.0,
     max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
-    E: np.ndarray | float = E_DEFAULT,
-    G: np.ndarray | float = G_DEFAULT,
+    E: FloatArray | float = E_DEFAULT,
+    G: FloatArray | float = G_DEFAULT,
 ) -> Suggestions:
     """Lightest passing candidates for every member (one members × candidates computation).
 
+    Order: lightest (catalog weight per length) first; equal weights by higher available
+    strength.
+
     Args:
         required: (n,) required strength, kip (NaN: no suggestion).
-        Fy, Lcx, Lcy, Lcz: (n,) yield stress (ksi) and effective lengths (in).
+        Fy: (n,) yield stress, ksi.
+        Lcx: (n,) effective length for flexural buckling about x, in.
+        Lcy: (n,) effective length for flexural buckling about y, in.
+        Lcz: (n,) effective length for torsional buckling, in.
         candidates: (m,) catalog rows to try.
         allowed: optional (n, m) mask of the candidates each member may take.
         method: "LRFD" or "ASD".
         max_utilization: the reserve margin: a candidate passes when
             required / available <= max_utilization.
         max_suggestions: at most this many per member.
+        E: modulus of elasticity, ksi (one value or one per member).
+        G: shear modulus, ksi (one value or one per member).
 
-    Order: lightest (catalog weight per length) first; equal weights by higher available
-    strength.
+    Returns:
+        (n, k) suggestions, k = min(max_suggestions, m).
     """
     cat = catalog.load_catalog()
     n, m = len(required), len(candidates)
@@ -130,7 +162,7 @@ def select(
     picked_ok = np.take_along_axis(ok, order, axis=1)
     index = np.where(picked_ok, candidates[order], -1)
 
-    def pick(a: np.ndarray) -> np.ndarray:
+    def pick(a: FloatArray) -> FloatArray:
         return np.where(picked_ok, np.take_along_axis(a, order, axis=1), np.nan)
 
     return Suggestions(index=index, available_strength=pick(avail), utilization=pick(util),
@@ -138,23 +170,27 @@ def select(
 
 
 def suggest_for_members(
-    m,
-    required: np.ndarray,
+    m: MemberTable,
+    required: FloatArray,
     specs: list[list[str] | None],
     *,
     method: str = "LRFD",
-    max_utilization: np.ndarray | float = 1.0,
+    max_utilization: FloatArray | float = 1.0,
     max_suggestions: int = DEFAULT_MAX_SUGGESTIONS,
     min_depth: float | None = None,
     max_depth: float | None = None,
-) -> tuple[Suggestions, np.ndarray, np.ndarray]:
+) -> tuple[Suggestions, IntArray, IntArray]:
     """Suggestions for the members of a :class:`~engine.members.MemberTable` that ask for them.
 
     Args:
         m: the member table (Fy, unbraced lengths, K factors, E, G are used).
         required: (n,) required strength, kip.
         specs: per member, candidate families / designations, or None for no selection.
-        method, max_utilization, max_suggestions, min_depth, max_depth: see :func:`select`.
+        method: "LRFD" or "ASD".
+        max_utilization: the reserve margin, one value or one per member (:func:`select`).
+        max_suggestions: at most this many per member.
+        min_depth: smallest nominal depth of a candidate, in (None: no limit).
+        max_depth: largest nominal depth of a candidate, in (None: no limit).
 
     Returns:
         The suggestions for the selected rows, those rows' member indices, and the indices
@@ -176,8 +212,8 @@ def suggest_for_members(
     if len(rows) == 0:
         empty = np.empty((0, 0))
         return Suggestions(np.empty((0, 0), dtype=np.int64), empty, empty, empty), rows, skipped
-    per_member = [candidate_indices(specs[i], min_depth=min_depth, max_depth=max_depth)
-                  for i in rows]
+    per_member = [candidate_indices(specs[i] or [], min_depth=min_depth, max_depth=max_depth)
+                  for i in rows]  # specs[i] is a non-empty list for every asking row
     union = np.unique(np.concatenate(per_member))
     allowed = np.zeros((len(rows), len(union)), dtype=bool)
     for r, idx in enumerate(per_member):

@@ -10,12 +10,14 @@ from __future__ import annotations
 
 from typing import TypeVar
 
+from stanchion.engine.arrays import FloatArray
 from stanchion.engine.materials import Standard, product_standard
 
 #: Design / nominal wall of electric-resistance-welded tubes (AISC 360-22 §B4.2).
 ERW_RATIO = 0.93
 
-T = TypeVar("T")
+#: A wall thickness: one number or one per member.
+T = TypeVar("T", float, FloatArray)
 
 
 def design_wall(t_nominal: T, standard: str | Standard | None, kind: str = "HSS"
@@ -43,7 +45,7 @@ def design_wall(t_nominal: T, standard: str | Standard | None, kind: str = "HSS"
     std = standard if isinstance(standard, Standard) else product_standard(standard)
     what = "round tube" if kind in ("HSS_ROUND", "PIPE") else "rectangular tube"
     if std is not None and std.tube == "erw":
-        return (t_nominal * ERW_RATIO,  # type: ignore[operator]
+        return (t_nominal * ERW_RATIO,
                 f"{what} design wall = 0.93 x nominal wall ({std.name}, electric-resistance-"
                 "welded; AISC 360-22 §B4.2)")
     if std is not None and std.tube == "nominal":
@@ -54,7 +56,7 @@ def design_wall(t_nominal: T, standard: str | Standard | None, kind: str = "HSS"
                     "ASTM A1065/A1085 for the nominal wall)")
         return t_nominal, f"{what} design wall = nominal wall ({std.name}, AISC 360-22 §B4.2)"
     named = f" ({std.name} is not a tube standard)" if std is not None else ""
-    return (t_nominal * ERW_RATIO,  # type: ignore[operator]
+    return (t_nominal * ERW_RATIO,
             f"{what} product standard unknown{named}: design wall taken as 0.93 x nominal "
             "wall, conservatively (AISC 360-22 §B4.2); name the tube's standard (e.g. "
             "A500, A1085, EN 10219) to apply its rule")

@@ -9,7 +9,7 @@ from functools import cache
 
 import pint
 
-_UREG = pint.UnitRegistry()
+_UREG: pint.UnitRegistry[float] = pint.UnitRegistry()
 
 # Names accepted in requests (docs/design.md §2) -> pint unit expressions.
 FORCE_UNITS = {"kip": "kip", "kN": "kilonewton", "N": "newton", "lbf": "lbf", "MN": "meganewton"}
