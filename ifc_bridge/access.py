@@ -8,21 +8,43 @@ value directly (about 0.4 µs) and returns exactly what ``__getattr__`` returns 
 
 from __future__ import annotations
 
-from typing import Any
+from typing import Any, TypeAlias
 
-import ifcopenshell
+#: An IFC entity, an ``ifcopenshell.entity_instance``.  Its IFC attributes are dynamic and
+#: its methods from the compiled wrapper (``is_a``, ``id`` ...) carry no types, so to the type
+#: checker an entity is ``Any``: this alias is that boundary, named.
+Entity: TypeAlias = Any
 
 
-def get(entity: ifcopenshell.entity_instance, name: str) -> Any:
-    """Value of the explicit attribute ``name`` (raises like getattr for unknown names)."""
+def get(entity: Entity, name: str) -> Any:
+    """Value of the explicit attribute ``name`` (raises like getattr for unknown names).
+
+    Args:
+        entity: the entity.
+        name: the attribute's name.
+
+    Returns:
+        The attribute's value, as ``getattr`` gives it.
+
+    Raises:
+        AttributeError: the entity has no explicit attribute ``name``.
+    """
     try:
         return entity.get_argument(entity.get_argument_index(name))
     except RuntimeError:
         raise AttributeError(f"{entity.is_a()} has no attribute {name}") from None
 
 
-def get_opt(entity: ifcopenshell.entity_instance, name: str) -> Any:
-    """Like :func:`get`, but None when this entity's schema/class has no such attribute."""
+def get_opt(entity: Entity, name: str) -> Any:
+    """Like :func:`get`, but None when this entity's schema/class has no such attribute.
+
+    Args:
+        entity: the entity.
+        name: the attribute's name.
+
+    Returns:
+        The attribute's value, or None.
+    """
     try:
         return entity.get_argument(entity.get_argument_index(name))
     except RuntimeError:

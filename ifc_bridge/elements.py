@@ -18,10 +18,8 @@ import math
 import ifcopenshell
 import ifcopenshell.util.placement
 
-from stanchion.ifc_bridge.access import get
+from stanchion.ifc_bridge.access import Entity, get
 from stanchion.ifc_bridge.relations import RelationIndex
-
-Entity = ifcopenshell.entity_instance
 
 MEMBER_TYPES = ("STRUT", "POST")  # IfcMember predefined types read with include_members
 
@@ -51,6 +49,14 @@ class PlanPositions:
         self._parents: dict[int, tuple[tuple[float, ...], ...]] = {}  # first two matrix rows
 
     def xy(self, element: Entity) -> tuple[float, float]:
+        """Plan position (x, y) of ``element`` in model length units.
+
+        Args:
+            element: a product with an ObjectPlacement.
+
+        Returns:
+            (x, y); NaN, NaN when there is no placement or it is of a kind not evaluated.
+        """
         placement = get(element, "ObjectPlacement")
         if placement is None:
             return math.nan, math.nan

@@ -19,11 +19,8 @@ from __future__ import annotations
 
 import math
 
-import ifcopenshell
-
+from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.representation import ShapeInfo, distance
-
-Entity = ifcopenshell.entity_instance
 
 DISAGREE = 0.02
 
@@ -61,8 +58,9 @@ def choose_length(
     """Pick the member length.
 
     Args:
-        shape: representation facts.  quantity_in: base-quantity length, in (already
-            converted).  analytical_model: analysis member length, model units.
+        shape: representation facts.
+        quantity_in: base-quantity length, in (already converted).
+        analytical_model: analysis member length, model units.
         length_factor: model length unit -> inch.
 
     Returns:

@@ -22,15 +22,13 @@ the cases, their attributes and their axial forces, and says so in the messages.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 
-import ifcopenshell
-
 from stanchion.engine.loads import CaseForce, case_load_type, combine_cases
+from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.units import ModelUnits
-
-Entity = ifcopenshell.entity_instance
 
 
 def _texts(group: Entity) -> list[str]:
@@ -100,7 +98,7 @@ class AnalysisLoads:
                            f"{rule}")
         return self._case_types[key][0]
 
-    def _record(self, found: _Found, groups: tuple, compression: float) -> None:
+    def _record(self, found: _Found, groups: Sequence[Entity], compression: float) -> None:
         """Add one reaction's compression to the load cases its result groups name."""
         for group in groups:
             case = group.ResultForLoadGroup
@@ -131,6 +129,10 @@ class AnalysisLoads:
         self, column: Entity, members: list[Entity]
     ) -> tuple[dict[str, float], list[str]]:
         """Axial compression by load type from the results of ``members`` (and the column).
+
+        Args:
+            column: the column.
+            members: its structural analysis members.
 
         Returns:
             ({load type: kip}, member notes).  Empty when the model holds no results.

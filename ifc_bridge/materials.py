@@ -30,11 +30,10 @@ import ifcopenshell
 import ifcopenshell.util.element
 
 from stanchion.engine.materials import GradeMatch, match_grade, product_standard
+from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.properties import PropertyValue, to_internal
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.units import ModelUnits
-
-Entity = ifcopenshell.entity_instance
 
 
 @dataclass(frozen=True)
@@ -45,7 +44,8 @@ class MaterialInfo:
         materials: IfcMaterial entities (the profile's own material first).
         profile: the profile from a material profile set (None if none).
         source: ``"occurrence"``, ``"type"`` or ``""`` (no association).
-        notes: member messages.  problem: why the material's profile cannot be used.
+        notes: member messages.
+        problem: why the material's profile cannot be used.
     """
 
     materials: tuple[Entity, ...] = ()
@@ -53,6 +53,11 @@ class MaterialInfo:
     source: str = ""
     notes: tuple[str, ...] = ()
     problem: str | None = None
+
+
+#: Shared between calls of :func:`element_material`: one select's info by its id, and the
+#: combined info of an (occurrence, type) pair of selects by their negated ids.
+MaterialCache = dict[int | tuple[int, int], MaterialInfo]
 
 
 def _profiles_of(profile_set: Entity | None) -> list[Entity]:
@@ -98,7 +103,7 @@ def _from_select(select: Entity) -> MaterialInfo:
 
 def element_material(
     element: Entity, etype: Entity | None, index: RelationIndex,
-    cache: dict | None = None,
+    cache: MaterialCache | None = None,
 ) -> MaterialInfo:
     """Material of an occurrence, else of its type; a profile set on either is used.
 
@@ -108,6 +113,9 @@ def element_material(
         index: relationship maps.
         cache: optional dict shared between calls (results per select and per
             occurrence/type select pair).
+
+    Returns:
+        The material facts; ``source`` says whether the occurrence or the type gave them.
     """
     cache = {} if cache is None else cache
     own = index.material.get(element.id())
@@ -118,7 +126,7 @@ def element_material(
     return cache[pair]
 
 
-def _combine(own: Entity | None, typed: Entity | None, cache: dict) -> MaterialInfo:
+def _combine(own: Entity | None, typed: Entity | None, cache: MaterialCache) -> MaterialInfo:
     def unpack(select: Entity | None) -> MaterialInfo | None:
         if select is None:
             return None
@@ -129,10 +137,10 @@ def _combine(own: Entity | None, typed: Entity | None, cache: dict) -> MaterialI
 
     a = unpack(own)
     b = unpack(typed)
-    if a is None and b is None:
-        return MaterialInfo()
-    if a is None or (a.profile is None and not a.materials):
-        return replace(b, source="type") if b is not None else replace(a, source="occurrence")
+    if b is not None and (a is None or (a.profile is None and not a.materials)):
+        return replace(b, source="type")  # the occurrence gives nothing: the type's
+    if a is None:
+        return MaterialInfo()  # neither has a material
     if not a.materials and b is not None:
         a = replace(a, materials=b.materials)
     return replace(a, source="occurrence")
@@ -167,9 +175,9 @@ class YieldReader:
             psets = {}
         steel = psets.get("Pset_MaterialSteel") or {}
         if steel.get("YieldStress") is not None and "id" in steel:
-            pv = self._property(steel["id"], "YieldStress")
-            if pv is not None:
-                return self._convert(pv, f"Pset_MaterialSteel of '{name}'")
+            found = self._property(steel["id"], "YieldStress")
+            if found is not None:
+                return self._convert(found, f"Pset_MaterialSteel of '{name}'")
         return None, "", ()
 
     def _property(self, pset_id: int, prop_name: str) -> PropertyValue | None:

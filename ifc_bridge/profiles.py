@@ -28,10 +28,9 @@ unsupported: the reason names the profile type.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import Any
 
-import ifcopenshell
-
-Entity = ifcopenshell.entity_instance
+from stanchion.ifc_bridge.access import Entity
 
 #: family -> (IFC class, builder names in order)
 FAMILIES: dict[str, tuple[str, tuple[str, ...]]] = {
@@ -84,7 +83,7 @@ class ProfileSpec:
         return f"{self.ifc_class} '{self.name}'" if self.name else self.ifc_class
 
 
-def _get(profile: Entity, attr: str):
+def _get(profile: Entity, attr: str) -> Any:
     try:
         return getattr(profile, attr)
     except (AttributeError, RuntimeError):

@@ -12,12 +12,11 @@ from dataclasses import dataclass, field
 
 import ifcopenshell
 
-from stanchion.ifc_bridge.access import get
-
-Entity = ifcopenshell.entity_instance
+from stanchion.ifc_bridge.access import Entity, get
 
 
-def _as_list(value) -> list:
+def _as_list(value: Entity | list[Entity] | tuple[Entity, ...] | None) -> list[Entity]:
+    """``value`` as a list: [] for None, the items of a list or tuple, else [value]."""
     if value is None:
         return []
     if isinstance(value, list | tuple):
@@ -58,12 +57,36 @@ class RelationIndex:
 
     @classmethod
     def build(cls, model: ifcopenshell.file) -> RelationIndex:
-        """Scan each relationship class once."""
+        """Scan each relationship class once.
+
+        Args:
+            model: the model.
+
+        Returns:
+            The model's relationship maps.
+        """
         index = cls()
+        index._add_containment(model)
+        index._add_decomposition(model)
+        index._add_property_definitions(model)
+        index._add_types(model)
+        index._add_materials(model)
+        index._add_product_links(model)
+        index._add_structural_activities(model)
+        index._add_result_groups(model)
+        if model.schema == "IFC2X3":
+            index._add_steel_properties(model)
+        return index
+
+    def _add_containment(self, model: ifcopenshell.file) -> None:
+        """``container`` from IfcRelContainedInSpatialStructure (the first one wins)."""
         for rel in model.by_type("IfcRelContainedInSpatialStructure"):
             structure = get(rel, "RelatingStructure")
             for obj in get(rel, "RelatedElements") or ():
-                index.container.setdefault(obj.id(), structure)
+                self.container.setdefault(obj.id(), structure)
+
+    def _add_decomposition(self, model: ifcopenshell.file) -> None:
+        """``parent`` from IfcRelAggregates, then IfcRelNests (the first one wins)."""
         for rel_class, whole_attr, parts_attr in (
             ("IfcRelAggregates", "RelatingObject", "RelatedObjects"),
             ("IfcRelNests", "RelatingObject", "RelatedObjects"),
@@ -71,41 +94,60 @@ class RelationIndex:
             for rel in model.by_type(rel_class):
                 whole = getattr(rel, whole_attr)
                 for part in getattr(rel, parts_attr) or ():
-                    index.parent.setdefault(part.id(), whole)
+                    self.parent.setdefault(part.id(), whole)
+
+    def _add_property_definitions(self, model: ifcopenshell.file) -> None:
+        """``definitions`` from IfcRelDefinesByProperties (definition sets flattened)."""
         for rel in model.by_type("IfcRelDefinesByProperties"):
             defs = _as_list(get(rel, "RelatingPropertyDefinition"))
             for obj in _as_list(get(rel, "RelatedObjects")):
-                index.definitions[obj.id()].extend(defs)
+                self.definitions[obj.id()].extend(defs)
+
+    def _add_types(self, model: ifcopenshell.file) -> None:
+        """``type_of`` from IfcRelDefinesByType (the last one wins)."""
         for rel in model.by_type("IfcRelDefinesByType"):
             rtype = rel.RelatingType
             for obj in rel.RelatedObjects or ():
-                index.type_of[obj.id()] = rtype
+                self.type_of[obj.id()] = rtype
+
+    def _add_materials(self, model: ifcopenshell.file) -> None:
+        """``material`` from IfcRelAssociatesMaterial (the first one wins)."""
         for rel in model.by_type("IfcRelAssociatesMaterial"):
             mat = get(rel, "RelatingMaterial")
             for obj in get(rel, "RelatedObjects") or ():
-                index.material.setdefault(obj.id(), mat)
+                self.material.setdefault(obj.id(), mat)
+
+    def _add_product_links(self, model: ifcopenshell.file) -> None:
+        """``linked`` from IfcRelAssignsToProduct, in both directions."""
         for rel in model.by_type("IfcRelAssignsToProduct"):
             product = rel.RelatingProduct
             if product is None:
                 continue
             for obj in rel.RelatedObjects or ():
-                index.linked[product.id()].append(obj)
-                index.linked[obj.id()].append(product)
+                self.linked[product.id()].append(obj)
+                self.linked[obj.id()].append(product)
+
+    def _add_structural_activities(self, model: ifcopenshell.file) -> None:
+        """``activities`` from IfcRelConnectsStructuralActivity."""
         for rel in model.by_type("IfcRelConnectsStructuralActivity"):
             element, activity = rel.RelatingElement, rel.RelatedStructuralActivity
             if element is not None and activity is not None:
-                index.activities[element.id()].append(activity)
+                self.activities[element.id()].append(activity)
+
+    def _add_result_groups(self, model: ifcopenshell.file) -> None:
+        """``result_groups`` from IfcRelAssignsToGroup with an IfcStructuralResultGroup."""
         for rel in model.by_type("IfcRelAssignsToGroup"):
             group = rel.RelatingGroup
             if group is None or not group.is_a("IfcStructuralResultGroup"):
                 continue
             for obj in rel.RelatedObjects or ():
-                index.result_groups[obj.id()].append(group)
-        if model.schema == "IFC2X3":
-            for props in model.by_type("IfcMechanicalSteelMaterialProperties"):
-                if props.Material is not None:
-                    index.steel_properties.setdefault(props.Material.id(), props)
-        return index
+                self.result_groups[obj.id()].append(group)
+
+    def _add_steel_properties(self, model: ifcopenshell.file) -> None:
+        """``steel_properties`` from IfcMechanicalSteelMaterialProperties (IFC2X3 only)."""
+        for props in model.by_type("IfcMechanicalSteelMaterialProperties"):
+            if props.Material is not None:
+                self.steel_properties.setdefault(props.Material.id(), props)
 
     def storey_of(self, element: Entity) -> Entity | None:
         """Nearest IfcBuildingStorey above ``element`` (containment, then aggregation)."""

@@ -15,13 +15,10 @@ read once.
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 
-import ifcopenshell
-
-from stanchion.ifc_bridge.access import get
-
-Entity = ifcopenshell.entity_instance
+from stanchion.ifc_bridge.access import Entity, get
 
 #: RepresentationType values of solid-model representations (IFC4 ADD2 TC1 list).
 SOLID_TYPES = frozenset({
@@ -67,11 +64,20 @@ class ShapeInfo:
         return max(self.extrusions, key=lambda e: e.depth)
 
 
-def distance(a, b) -> float:
+def distance(a: Sequence[float], b: Sequence[float]) -> float:
+    """Distance between two points given by their coordinates (the common dimensions).
+
+    Args:
+        a: coordinates of one point.
+        b: coordinates of the other.
+
+    Returns:
+        The Euclidean distance.
+    """
     return math.sqrt(sum((float(x) - float(y)) ** 2 for x, y in zip(a, b, strict=False)))
 
 
-def _polyline_length(points) -> float:
+def _polyline_length(points: Sequence[Sequence[float]]) -> float:
     return sum(distance(points[i], points[i + 1]) for i in range(len(points) - 1))
 
 
@@ -122,8 +128,16 @@ class ShapeReader:
         return ShapeInfo(extrusions, axis_length, notes)
 
     def read_type(self, etype: Entity | None) -> ShapeInfo:
-        """Extrusions of an element type's Body representation maps (occurrences that carry
-        no representation of their own)."""
+        """Extrusions of an element type's Body representation maps.
+
+        Used for occurrences that carry no representation of their own.
+
+        Args:
+            etype: the element type, or None.
+
+        Returns:
+            The shape facts (empty when the type has no usable Body map).
+        """
         maps = getattr(etype, "RepresentationMaps", None) if etype is not None else None
         for rmap in maps or ():
             rep = rmap.MappedRepresentation
@@ -204,7 +218,7 @@ class ShapeReader:
             p1 = [t.wrappedValue for t in item.Trim1 if t.is_a("IfcParameterValue")]
             p2 = [t.wrappedValue for t in item.Trim2 if t.is_a("IfcParameterValue")]
             if p1 and p2:
-                return abs(p2[0] - p1[0]) * float(item.BasisCurve.Dir.Magnitude) * scale
+                return float(abs(p2[0] - p1[0])) * float(item.BasisCurve.Dir.Magnitude) * scale
             return None
         if item.is_a("IfcMappedItem"):
             s, _ = _mapping_scale(item.MappingTarget)

@@ -26,13 +26,15 @@ unknown: 0.93 tnom, conservatively, with a message).
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from stanchion.engine import section_properties as sp
+from stanchion.engine.arrays import IntArray
 from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
-from stanchion.engine.sections import Kind, SectionTable
+from stanchion.engine.sections import Kind, SectionRow, SectionTable
 from stanchion.engine.tubes import catalog_wall_note, design_wall
 from stanchion.ifc_bridge.profiles import ProfileSpec
 
@@ -44,7 +46,8 @@ _COMPATIBLE: dict[str, Kind] = {
     "I": Kind.I_SHAPE, "ASYM_I": Kind.I_SHAPE, "HSS": Kind.RECT_HSS,
     "HSS_ROUND": Kind.ROUND_HSS, "T": Kind.TEE, "U": Kind.CHANNEL,
 }
-_BUILDERS = {
+#: family -> builder taking the dimensions by name and ``label``.
+_BUILDERS: dict[str, Callable[..., SectionTable]] = {
     "I": sp.i_section, "HSS": sp.rect_hollow, "HSS_ROUND": sp.circ_hollow, "T": sp.tee,
     "U": sp.channel, "RECT": sp.solid_rect, "ROUND": sp.solid_circle,
 }
@@ -64,7 +67,7 @@ class Resolution:
     """Per-member outcome (lists aligned with the requests)."""
 
     sections: SectionTable
-    index: np.ndarray
+    index: IntArray
     basis: list[str]
     notes: list[list[str]]
     reasons: list[str | None]
@@ -85,7 +88,7 @@ def _wall_diff(t: float | None, tdes: float) -> str:
     return f"wall {shown} vs tdes {tdes:.4g} in"
 
 
-def _compare(spec: ProfileSpec, row: dict) -> list[str]:
+def _compare(spec: ProfileSpec, row: SectionRow) -> list[str]:
     """Differences beyond 2 % between modeled dimensions and a catalog row (empty: agree)."""
     diffs: list[str] = []
 
@@ -116,23 +119,26 @@ def _compare(spec: ProfileSpec, row: dict) -> list[str]:
     return diffs
 
 
-def _builder_dims(req: SectionRequest) -> dict[str, float]:
+def _builder_dims(req: SectionRequest) -> dict[str, float | None]:
     """Arguments for the section_properties builder (design wall thickness applied)."""
     spec = req.spec
     dims = {k: v for k, v in spec.dims}
-    if spec.family in ("HSS", "HSS_ROUND") and dims.get("t") is not None:
-        dims["t"] = design_wall(dims["t"], req.standard, spec.family)[0]
+    t = dims.get("t")
+    if spec.family in ("HSS", "HSS_ROUND") and t is not None:
+        t_design = design_wall(t, req.standard, spec.family)[0]
+        dims["t"] = t_design
         if spec.family == "HSS" and dims.get("r_out") is None:
-            dims["r_out"] = 2.0 * dims["t"]  # the builder's default (AISC practice)
+            dims["r_out"] = 2.0 * t_design  # the builder's default (AISC practice)
     return dims
 
 
 def _wall_notes(req: SectionRequest) -> list[str]:
     """The design-wall message of a tube built from its dimensions (none for other shapes)."""
-    if req.spec.family not in ("HSS", "HSS_ROUND") or req.spec.dim("t") is None:
+    t = req.spec.dim("t")
+    if req.spec.family not in ("HSS", "HSS_ROUND") or t is None:
         return []
     return ["modeled WallThickness taken as the nominal wall; " + design_wall(
-        req.spec.dim("t"), req.standard, req.spec.family)[1]]
+        t, req.standard, req.spec.family)[1]]
 
 
 def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
@@ -218,8 +224,9 @@ def resolve_sections(requests: list[SectionRequest]) -> Resolution:
         offset = len(cat_rows)
     by_family: dict[str, list[int]] = {}
     for u, d in enumerate(decided):
-        if d[0] == -1:
-            by_family.setdefault(reqs[u].spec.family, []).append(u)
+        family = reqs[u].spec.family
+        if d[0] == -1 and family is not None:  # -1 is only decided for a known family
+            by_family.setdefault(family, []).append(u)
     for family, members in by_family.items():
         dims = [_builder_dims(reqs[u]) for u in members]
         keys = list(dims[0])

@@ -24,6 +24,7 @@ import ifcopenshell
 import ifcopenshell.util.unit
 
 from stanchion.engine.units import factor
+from stanchion.ifc_bridge.access import Entity
 
 #: Quantity -> (IFC unit type, SI unit in pint spelling, internal unit in pint spelling).
 QUANTITIES: dict[str, tuple[str, str, str]] = {
@@ -36,16 +37,16 @@ QUANTITIES: dict[str, tuple[str, str, str]] = {
 ASSUMED_SI = {"length": "metre", "force": "newton", "pressure": "pascal"}
 
 
-def _unit_name(unit: ifcopenshell.entity_instance) -> str:
+def _unit_name(unit: Entity) -> str:
     """Short human name of an IFC unit (``MILLI METRE``, ``kip``, ``MEGA PASCAL``)."""
     if unit.is_a("IfcSIUnit"):
         return " ".join(p for p in (unit.Prefix, unit.Name) if p)
     if unit.is_a("IfcNamedUnit"):
         return str(getattr(unit, "Name", None) or unit.is_a())
-    return unit.is_a()
+    return str(unit.is_a())
 
 
-def si_scale(unit: ifcopenshell.entity_instance) -> float:
+def si_scale(unit: Entity) -> float:
     """Multiplier taking a value in ``unit`` to SI base units (m, N, Pa, kg ...).
 
     ``ifcopenshell.util.unit.get_unit_scale`` scales an IfcSIUnit GRAM to grams; inside an
@@ -104,7 +105,7 @@ class ModelUnits:
         return f"{quantity} read in an undeclared unit, assumed {ASSUMED_SI[quantity]}"
 
     def value_factor(
-        self, quantity: str, unit: ifcopenshell.entity_instance | None
+        self, quantity: str, unit: Entity | None
     ) -> tuple[float, str | None]:
         """Factor for one value of ``quantity`` whose property may name its own unit.
 
