@@ -482,6 +482,7 @@ class _Writer:
         self.texts: dict[tuple[str, str], ifcopenshell.entity_instance] = {}
         self.dropped: dict[int, ifcopenshell.entity_instance] = {}
         self._guids: list[str] = []
+        self.new_props: Callable[[int], list] = lambda row: []
 
     def guid(self) -> str:
         if not self._guids:
@@ -512,13 +513,66 @@ class _Writer:
 
     def add(self, element, props: list) -> None:
         """A new set with ``props`` related to ``element`` alone."""
-        make, history = self.factory.make, self.history
-        pset = {_GLOBAL_ID: self.guid(), 2: PSET_NAME, _HAS_PROPERTIES: props}
-        rel = {_GLOBAL_ID: self.guid(), _RELATED: [element]}
+        history = self.history
+        if self.factory.fast:
+            new, put = self.model.create, self._set
+            pset = new("IfcPropertySet", -1)
+            put(pset, _GLOBAL_ID, self.guid())
+            put(pset, 2, PSET_NAME)
+            put(pset, _HAS_PROPERTIES, props)
+            rel = new("IfcRelDefinesByProperties", -1)
+            put(rel, _GLOBAL_ID, self.guid())
+            put(rel, _RELATED, [element])
+            put(rel, _RELATING, pset)
+            if history is not None:
+                put(pset, _HISTORY, history)
+                put(rel, _HISTORY, history)
+            return
+        make = self.factory.make
+        attributes = {_GLOBAL_ID: self.guid(), 2: PSET_NAME, _HAS_PROPERTIES: props}
         if history is not None:
-            pset[_HISTORY] = rel[_HISTORY] = history
-        rel[_RELATING] = make("IfcPropertySet", pset)
-        make("IfcRelDefinesByProperties", rel)
+            attributes[_HISTORY] = history
+        pset = make("IfcPropertySet", attributes)
+        attributes = {_GLOBAL_ID: self.guid(), _RELATED: [element], _RELATING: pset}
+        if history is not None:
+            attributes[_HISTORY] = history
+        make("IfcRelDefinesByProperties", attributes)
+
+    def prepare(self, cols: dict[str, list], shared: dict[str, ifcopenshell.entity_instance]
+                ) -> None:
+        """Take this run's value columns and shared properties (sets :attr:`new_props`)."""
+        self.shared = shared
+        self.new_props = self._props_maker(cols)
+
+    def _props_maker(self, cols: dict[str, list]) -> Callable[[int], list]:
+        """A function row -> the property entities of a new set for that value row.
+
+        The layout (shared entity or IFC type per name) is worked out once; per row only the
+        own properties are made, typed texts coming from the cache.
+        """
+        layout = [(name, col, self.shared.get(name), self.types[name])
+                  for name, col in cols.items()]
+        typed, prop, texts = self._typed, self._prop, self.texts
+
+        def props(row: int) -> list:
+            out = []
+            for name, col, entity, ifc_type in layout:
+                if entity is not None:
+                    out.append(entity)
+                    continue
+                value = col[row]
+                if value is None:
+                    continue
+                if value.__class__ is str:
+                    v = texts.get((ifc_type, value))
+                    if v is None:
+                        v = texts[ifc_type, value] = typed(ifc_type, value)
+                else:
+                    v = typed(ifc_type, value)
+                out.append(prop(name, v))
+            return out
+
+        return props
 
     def update(self, pset, values: dict[str, object]) -> None:
         """Bring an existing set to ``values`` (own properties) plus the shared ones.
@@ -560,13 +614,13 @@ class _Writer:
     def write(self, element, row: int, cols: dict[str, list], current: list | None,
               summary: WriteSummary) -> None:
         """Write the set of ``element`` from value row ``row``; ``current``: its sets now."""
-        shared = self.shared
         if current:
             rel, pset = current[0]
             for extra_rel, extra_pset in current[1:]:
                 _detach(self.model, element, extra_rel, extra_pset, self.dropped)
                 summary.removed_duplicates += 1
             if len(rel[_RELATED]) == 1:
+                shared = self.shared
                 self.update(pset, {name: col[row] for name, col in cols.items()
                                    if name not in shared and col[row] is not None})
                 summary.updated += 1
@@ -574,17 +628,7 @@ class _Writer:
                 return
             # one set shared by several columns: this column gets its own
             _detach(self.model, element, rel, pset, self.dropped)
-        props = []
-        prop = self.prop
-        for name, col in cols.items():
-            entity = shared.get(name)
-            if entity is not None:
-                props.append(entity)
-            else:
-                value = col[row]
-                if value is not None:
-                    props.append(prop(name, value))
-        self.add(element, props)
+        self.add(element, self.new_props(row))
         summary.written += 1
 
     def remove_orphans(self) -> int:
@@ -689,7 +733,7 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
     rewritten = [current[0][1] for current in (existing.get(e.id()) for e, _ in targets)
                  if current and len(current[0][0][_RELATED]) == 1]
     common = _common(cols, sorted({row for _, row in targets}))
-    writer.shared = _shared_properties(writer, common, rewritten)
+    writer.prepare(cols, _shared_properties(writer, common, rewritten))
     summary.shared = list(writer.shared)
     del rewritten
 
