@@ -25,13 +25,9 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 
-import ifcopenshell
-
 from stanchion.engine.members import LOAD_TYPES
-from stanchion.ifc_bridge.access import get, get_opt
+from stanchion.ifc_bridge.access import Entity, get, get_opt
 from stanchion.ifc_bridge.units import ModelUnits
-
-Entity = ifcopenshell.entity_instance
 
 DESIGN_PSET = "Stanchion_Design"
 LOADS_PSET = "Stanchion_Loads"
@@ -115,9 +111,10 @@ def to_internal(
     """Convert one property value of ``quantity`` to internal units.
 
     Args:
-        pv: the property value.  quantity: ``"length"``, ``"force"``, ``"pressure"`` or
-            ``"ratio"`` (dimensionless).  units: the model's units.  label: ``"Pset.Prop"``
-            for messages.
+        pv: the property value.
+        quantity: ``"length"``, ``"force"``, ``"pressure"`` or ``"ratio"`` (dimensionless).
+        units: the model's units.
+        label: ``"Pset.Prop"`` for messages.
 
     Returns:
         (value or None, note or None, problem or None).  A problem means the value is
@@ -171,9 +168,13 @@ def design_inputs(
     """Read Stanchion_Design (occurrence values win property by property over the type's).
 
     Args:
-        occurrence, type_values: :func:`single_values` of the occurrence's and the type's
-            Stanchion_Design ({} when absent).
+        occurrence: :func:`single_values` of the occurrence's Stanchion_Design ({} when
+            absent).
+        type_values: the same for the element type's Stanchion_Design.
         units: the model's units.
+
+    Returns:
+        The member's design inputs, notes and problems.
     """
     out = DesignInputs()
     values = {**type_values, **occurrence}

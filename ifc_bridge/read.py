@@ -28,15 +28,17 @@ import ifcopenshell
 import ifcopenshell.util.placement
 import numpy as np
 
+from stanchion.engine.arrays import AnyArray, FloatArray
 from stanchion.engine.loads import LoadTable
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
-from stanchion.ifc_bridge.access import get
+from stanchion.ifc_bridge.access import Entity, get
 from stanchion.ifc_bridge.elements import PlanPositions, select_elements
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
 from stanchion.ifc_bridge.loads import match_table, merge_loads
 from stanchion.ifc_bridge.materials import (
+    MaterialCache,
     MaterialInfo,
     YieldReader,
     element_material,
@@ -58,10 +60,8 @@ from stanchion.ifc_bridge.properties import (
 )
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.representation import ShapeInfo, ShapeReader
-from stanchion.ifc_bridge.sections import SectionRequest, resolve_sections
+from stanchion.ifc_bridge.sections import Resolution, SectionRequest, resolve_sections
 from stanchion.ifc_bridge.units import ModelUnits, read_units
-
-Entity = ifcopenshell.entity_instance
 
 NO_YIELD = "no yield strength"
 BROKEN = "error"  # profile_origin of an element the reader could not walk
@@ -128,10 +128,10 @@ class _Reader:
         self._specs: dict[tuple[int, float], ProfileSpec] = {}
         self._values: dict[int, dict[str, PropertyValue]] = {}
         self._designs: dict[tuple[int, int], DesignInputs] = {}
-        self._materials: dict[int, MaterialInfo] = {}
+        self._materials: MaterialCache = {}
 
     def values(self, definitions: list[Entity], name: str,
-               cache: bool = True) -> tuple[int, dict]:
+               cache: bool = True) -> tuple[int, dict[str, PropertyValue]]:
         """(pset id or 0, single values) of the set ``name``.
 
         Cached per property set when ``cache`` (a type's sets serve many occurrences); an
@@ -314,9 +314,104 @@ EXTRA_COLUMNS = ("global_id", "tag", "storey", "x", "y", "ifc_class", "length_so
                  "profile_source", "load_source", "fy_source")
 
 
-def _extra_arrays(extra: dict[str, list]) -> dict[str, np.ndarray]:
-    return {key: np.array(extra[key], dtype=float if key in ("x", "y") else object)
-            for key in EXTRA_COLUMNS}
+@dataclass
+class _Columns:
+    """The member table's columns, filled one reader row at a time."""
+
+    fy: FloatArray
+    length: FloatArray
+    k: dict[str, FloatArray]
+    unbraced: dict[str, FloatArray]
+    loads: FloatArray
+    reasons: list[str | None] = field(default_factory=list)
+    messages: list[list[str]] = field(default_factory=list)
+    extra: dict[str, list[object]] = field(
+        default_factory=lambda: {key: [] for key in EXTRA_COLUMNS})
+
+    @classmethod
+    def empty(cls, n: int) -> _Columns:
+        """Columns for ``n`` members: NaN numbers, K = 1, nothing else yet."""
+        return cls(
+            fy=np.full(n, math.nan), length=np.full(n, math.nan),
+            k={a: np.ones(n) for a in AXES}, unbraced={a: np.full(n, math.nan) for a in AXES},
+            loads=np.full((n, len(LOAD_TYPES)), math.nan),
+        )
+
+    def add(self, i: int, r: _Row, res: Resolution, reader: _Reader,
+            table_loads: dict[str, float] | None) -> None:
+        """Fill member ``i`` from its row.
+
+        Args:
+            i: the member's index.
+            r: the reader's row.
+            res: the resolved sections of every member.
+            reader: the model's reader (yield stress).
+            table_loads: the member's load-table row ({} when unmatched), None without a
+                load table.
+        """
+        notes = list(r.notes)
+        broken = r.profile_origin == BROKEN
+        why = _section_reasons(r, res.reasons[i])
+        notes.extend(res.notes[i])
+        family = r.spec.family if r.spec is not None else None
+        value, fy_source, fnotes = reader.fy(r, family, res.thickness[i])
+        notes.extend(fnotes)
+        self.fy[i] = value
+        if fy_source == "none" and not broken:
+            why.append(f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield "
+                       "stress and no recognised grade in the material name)")
+        self.length[i] = r.length
+        for a in AXES:
+            self.k[a][i] = r.design.k.get(a, 1.0)
+            self.unbraced[a][i] = r.design.unbraced.get(a, r.length)
+        if not all(math.isfinite(self.unbraced[a][i]) for a in AXES) and not broken:
+            why.append("no length (no Axis or Body extrusion, no Length quantity and no "
+                       "analysis member)")
+        default = _default_note(r.design)
+        if default:
+            notes.append(default)
+        by_source = {"analysis": r.analysis, "pset": r.pset}
+        if table_loads is not None:
+            by_source["table"] = table_loads
+        values, used, lnotes = merge_loads(by_source)
+        self.loads[i] = values
+        notes.extend(lnotes)
+        if not used and not broken:
+            why.append("no loads (no analysis results, load table row or Stanchion_Loads)")
+        self._add_extra(r, res.basis[i] if res.index[i] >= 0 else "", used, fy_source)
+        self.reasons.append("; ".join(dict.fromkeys(why)) if why else None)
+        self.messages.append(list(dict.fromkeys(notes)))
+
+    def _add_extra(self, r: _Row, basis: str, used: list[str], fy_source: str) -> None:
+        """The writer columns of one member (provenance, position, identity)."""
+        extra = self.extra
+        extra["global_id"].append(r.gid)
+        extra["tag"].append(r.tag)
+        extra["storey"].append(r.storey)
+        extra["x"].append(r.x)
+        extra["y"].append(r.y)
+        extra["ifc_class"].append(r.element.is_a())
+        extra["length_source"].append(r.length_source)
+        extra["profile_source"].append(
+            f"{r.profile_origin}/{basis}" if basis else r.profile_origin)
+        extra["load_source"].append("+".join(used) if used else "none")
+        extra["fy_source"].append(fy_source)
+
+    def extra_arrays(self) -> dict[str, AnyArray]:
+        """The writer columns as arrays (x, y float; the others object)."""
+        return {key: np.array(self.extra[key], dtype=float if key in ("x", "y") else object)
+                for key in EXTRA_COLUMNS}
+
+
+def _section_reasons(r: _Row, resolution_reason: str | None) -> list[str]:
+    """The row's reasons, led by why its section cannot be used (none for a broken row)."""
+    why = list(r.reasons)
+    broken = r.profile_origin == BROKEN
+    if r.spec is None and not broken:
+        why.insert(0, "no profile (no material profile set and no Body extrusion found)")
+    elif resolution_reason and not broken:
+        why.insert(0, resolution_reason)
+    return why
 
 
 def read_columns(
@@ -381,80 +476,26 @@ def _read(model: ifcopenshell.file, include_members: bool,
                               [r.tag for r in rows], [r.element.Name for r in rows])
         if table.uses_model_unit:
             units.note_use("force")
-    n = len(rows)
-    fy = np.full(n, math.nan)
-    length = np.full(n, math.nan)
-    k = {a: np.ones(n) for a in AXES}
-    unbraced = {a: np.full(n, math.nan) for a in AXES}
-    loads = np.full((n, len(LOAD_TYPES)), math.nan)
-    reasons: list[str | None] = []
-    member_messages: list[list[str]] = []
-    extra: dict[str, list] = {key: [] for key in EXTRA_COLUMNS}
+    cols = _Columns.empty(len(rows))
     for i, r in enumerate(rows):
-        notes = list(r.notes)
-        why = list(r.reasons)
-        broken = r.profile_origin == BROKEN
-        if r.spec is None and not broken:
-            why.insert(0, "no profile (no material profile set and no Body extrusion found)")
-        elif res.reasons[i] and not broken:
-            why.insert(0, res.reasons[i])
-        notes.extend(res.notes[i])
-        family = r.spec.family if r.spec is not None else None
-        value, fy_source, fnotes = reader.fy(r, family, res.thickness[i])
-        notes.extend(fnotes)
-        fy[i] = value
-        if fy_source == "none" and not broken:
-            why.append(f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield "
-                       "stress and no recognised grade in the material name)")
-        length[i] = r.length
-        for a in AXES:
-            k[a][i] = r.design.k.get(a, 1.0)
-            unbraced[a][i] = r.design.unbraced.get(a, r.length)
-        if not all(math.isfinite(unbraced[a][i]) for a in AXES) and not broken:
-            why.append("no length (no Axis or Body extrusion, no Length quantity and no "
-                       "analysis member)")
-        default = _default_note(r.design)
-        if default:
-            notes.append(default)
-        by_source = {"analysis": r.analysis, "pset": r.pset}
-        if matched is not None:
-            by_source["table"] = matched.by_member.get(i, {})
-        values, used, lnotes = merge_loads(by_source)
-        loads[i] = values
-        notes.extend(lnotes)
-        if not used and not broken:
-            why.append("no loads (no analysis results, load table row or Stanchion_Loads)")
-        basis = res.basis[i] if res.index[i] >= 0 else ""
-        extra["global_id"].append(r.gid)
-        extra["tag"].append(r.tag)
-        extra["storey"].append(r.storey)
-        extra["x"].append(r.x)
-        extra["y"].append(r.y)
-        extra["ifc_class"].append(r.element.is_a())
-        extra["length_source"].append(r.length_source)
-        extra["profile_source"].append(
-            f"{r.profile_origin}/{basis}" if basis else r.profile_origin)
-        extra["load_source"].append("+".join(used) if used else "none")
-        extra["fy_source"].append(fy_source)
-        reasons.append("; ".join(dict.fromkeys(why)) if why else None)
-        member_messages.append(list(dict.fromkeys(notes)))
+        cols.add(i, r, res, reader, matched.by_member.get(i, {}) if matched is not None else None)
 
     if matched is not None:
         messages.extend(matched.messages)
     messages.extend(reader.analysis.model_messages)
     messages.extend(units.warnings)
-    if n == 0:
+    if not rows:
         members = MemberTable.build([], SectionTable.empty(), np.zeros(0, dtype=np.int64),
-                                    np.zeros(0), np.zeros(0), extra=_extra_arrays(extra))
+                                    np.zeros(0), np.zeros(0), extra=cols.extra_arrays())
     else:
         members = MemberTable.build(
-            [r.gid for r in rows], res.sections, res.index, fy, length,
+            [r.gid for r in rows], res.sections, res.index, cols.fy, cols.length,
             name=[r.name for r in rows],
             section_label=[r.spec.label if r.spec is not None else "" for r in rows],
-            lx=unbraced["X"], ly=unbraced["Y"], lz=unbraced["Z"],
-            kx=k["X"], ky=k["Y"], kz=k["Z"],
-            loads=loads, reason=reasons, messages=member_messages,
-            extra=_extra_arrays(extra),
+            lx=cols.unbraced["X"], ly=cols.unbraced["Y"], lz=cols.unbraced["Z"],
+            kx=cols.k["X"], ky=cols.k["Y"], kz=cols.k["Z"],
+            loads=cols.loads, reason=cols.reasons, messages=cols.messages,
+            extra=cols.extra_arrays(),
         )
     return ReadResult(
         members=members, messages=messages, force_unit_factor=units.force,
