@@ -41,9 +41,10 @@ from __future__ import annotations
 import math
 import os
 import time
-from collections.abc import Callable, Iterable
+from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
 from datetime import UTC, datetime
+from typing import Any
 
 import ifcopenshell
 import ifcopenshell.guid
@@ -51,9 +52,11 @@ import ifcopenshell.util.unit
 import numpy as np
 
 from stanchion import __version__
+from stanchion.engine.arrays import FloatArray
 from stanchion.engine.check import FAIL, NOT_CHECKED, PASS, CheckResults
 from stanchion.engine.members import MemberTable
 from stanchion.engine.units import factor
+from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.units import si_scale
 
 PSET_NAME = "Stanchion_ColumnCheck"
@@ -103,6 +106,15 @@ _NAME, _NOMINAL, _UNIT = 0, 2, 3
 _GLOBAL_ID, _HISTORY, _HAS_PROPERTIES = 0, 1, 4
 _RELATED, _RELATING = 4, 5
 
+#: One property's value on one row: text, number, or None (the property is absent).
+_Value = str | float | None
+#: Property name -> one value per member row plus a last row for unlisted columns.
+_Columns = dict[str, list[_Value]]
+#: An element's sets: (IfcRelDefinesByProperties, IfcPropertySet) pairs.
+_Sets = list[tuple[Entity, Entity]]
+#: ``set(entity, index, value)``: one attribute of an entity.
+_Setter = Callable[[Entity, int, object], None]
+
 
 @dataclass
 class WriteSummary:
@@ -135,7 +147,7 @@ class WriteSummary:
 # ---------------------------------------------------------------------------- units
 
 
-def _unit_label(unit: ifcopenshell.entity_instance) -> str:
+def _unit_label(unit: Entity) -> str:
     if unit.is_a("IfcSIUnit"):
         return " ".join(p for p in (unit.Prefix, unit.Name) if p)
     return str(getattr(unit, "Name", None) or unit.is_a())
@@ -171,7 +183,7 @@ def ensure_force_unit(model: ifcopenshell.file) -> tuple[float, str, bool]:
 # ---------------------------------------------------------------------------- ownership
 
 
-def _owner_history(model: ifcopenshell.file) -> ifcopenshell.entity_instance | None:
+def _owner_history(model: ifcopenshell.file) -> Entity | None:
     """Our IfcOwnerHistory (found again on a rerun), or None where the model uses none.
 
     IFC2X3 makes OwnerHistory mandatory on every IfcRoot; IFC4 and IFC4X3 make it optional,
@@ -212,7 +224,7 @@ def _owner_history(model: ifcopenshell.file) -> ifcopenshell.entity_instance | N
 # ---------------------------------------------------------------------------- existing sets
 
 
-def _as_psets(definition) -> Iterable[ifcopenshell.entity_instance]:
+def _as_psets(definition: Entity | Sequence[Entity] | None) -> Iterable[Entity]:
     """RelatingPropertyDefinition as a sequence (IFC4X3 allows a set of definitions)."""
     if isinstance(definition, tuple | list):
         return definition
@@ -221,12 +233,19 @@ def _as_psets(definition) -> Iterable[ifcopenshell.entity_instance]:
 
 def existing_sets(
     model: ifcopenshell.file, name: str = PSET_NAME
-) -> dict[int, list[tuple[ifcopenshell.entity_instance, ifcopenshell.entity_instance]]]:
+) -> dict[int, _Sets]:
     """Element id -> [(relationship, property set)] for every set called ``name``.
 
     One pass over IfcRelDefinesByProperties; only our sets' related objects are visited.
+
+    Args:
+        model: the model.
+        name: the property set name.
+
+    Returns:
+        The sets of every element that has one, by element id.
     """
-    found: dict[int, list] = {}
+    found: dict[int, _Sets] = {}
     for rel in model.by_type("IfcRelDefinesByProperties"):
         for pset in _as_psets(rel[_RELATING]):
             if pset[2] == name and pset.is_a("IfcPropertySet"):
@@ -235,8 +254,8 @@ def existing_sets(
     return found
 
 
-def _detach(model: ifcopenshell.file, element, rel, pset,
-            dropped: dict[int, ifcopenshell.entity_instance]) -> None:
+def _detach(model: ifcopenshell.file, element: Entity, rel: Entity, pset: Entity,
+            dropped: dict[int, Entity]) -> None:
     """Take ``element`` out of ``rel``; remove rel and set once nothing is left.
 
     The set's properties go to ``dropped``; they are removed at the end of the run if no set
@@ -270,6 +289,12 @@ def new_guids(n: int) -> list[str]:
     The same encoding as ``ifcopenshell.guid.compress`` (the first character carries the top
     two bits, then 21 characters of six bits, most significant first), vectorized: drawing
     20,000 ids this way takes milliseconds instead of a tenth of a second.
+
+    Args:
+        n: how many.
+
+    Returns:
+        The GlobalIds.
     """
     if n <= 0:
         return []
@@ -304,22 +329,22 @@ def _checked_at_text(checked_at: datetime | str | None) -> str | None:
     return checked_at.isoformat(timespec="seconds")
 
 
-def _finite(values: np.ndarray) -> list[float | None]:
+def _finite(values: FloatArray) -> list[_Value]:
     """Python floats, None where NaN / infinite (vectorized mask, one list conversion)."""
     arr = np.asarray(values, dtype=float)
-    out = arr.tolist()
+    out: list[_Value] = arr.tolist()
     for i in np.flatnonzero(~np.isfinite(arr)).tolist():
         out[i] = None
     return out
 
 
-def _joined(messages: list[list[str]]) -> list[str | None]:
+def _joined(messages: list[list[str]]) -> list[_Value]:
     """Each row's messages joined with "; " (None when there are none).
 
     One string object per distinct text: rows of one column type usually share their notes.
     """
     texts: dict[tuple[str, ...], str] = {}
-    out: list[str | None] = []
+    out: list[_Value] = []
     for m in messages:
         if not m:
             out.append(None)
@@ -334,17 +359,17 @@ def _joined(messages: list[list[str]]) -> list[str | None]:
 
 def _value_columns(
     members: MemberTable, results: CheckResults, to_model_force: float,
-    constant: dict[str, object], suggested: dict[int, tuple[str, float]] | None,
-) -> dict[str, list]:
+    constant: dict[str, _Value], suggested: dict[int, tuple[str, float]] | None,
+) -> _Columns:
     """Property name -> one value per member row plus a last row for unlisted columns.
 
     None means the property is absent from that row's set.  Columns are prepared vectorized;
     the names come in :data:`PROPERTY_ORDER`.
     """
     n = len(members)
-    status = [STATUS_LABELS[str(s)] for s in results.status]
+    status: list[_Value] = [STATUS_LABELS[str(s)] for s in results.status]
     not_checked = STATUS_LABELS[NOT_CHECKED]
-    cols: dict[str, list] = {
+    cols: _Columns = {
         "Status": status,
         "Section": [_label(str(s)) if s else None for s in members.section_label],
         "Utilization": _finite(results.utilization),
@@ -363,7 +388,7 @@ def _value_columns(
         for i, (section, util) in suggested.items():
             cols["SuggestedSection"][i] = _label(section)
             cols["SuggestedUtilization"][i] = float(util)
-    unlisted = {"Status": not_checked, "Reason": NOT_IN_TABLE}
+    unlisted: dict[str, _Value] = {"Status": not_checked, "Reason": NOT_IN_TABLE}
     for name, col in cols.items():
         col.append(unlisted.get(name))
     for name, value in constant.items():
@@ -371,11 +396,11 @@ def _value_columns(
     return {name: cols[name] for name in PROPERTY_ORDER if name in cols}
 
 
-def _common(cols: dict[str, list], rows: list[int]) -> dict[str, object]:
+def _common(cols: _Columns, rows: list[int]) -> dict[str, _Value]:
     """Properties present with one and the same value on every row in ``rows``."""
     if not rows:
         return {}
-    out = {}
+    out: dict[str, _Value] = {}
     for name, col in cols.items():
         first = col[rows[0]]
         if first is None:
@@ -404,35 +429,26 @@ class _Factory:
 
     def __init__(self, model: ifcopenshell.file) -> None:
         self.model = model
-        setter = getattr(ifcopenshell.entity_instance, "set_attribute_value_py", None)
-        self.fast = False
-        if setter is not None and getattr(type(model), "create", None) is not None and \
-                getattr(model, "transaction", None) is None:
-            try:  # a typed value is not an entity of the file: a harmless probe
-                probe = model.create("IfcLabel", -1)
-                setter(probe, 0, "probe")
-                self.fast = probe.wrappedValue == "probe"
-            except Exception:
-                self.fast = False
+        setter = _fast_setter(model)
+        self.fast = setter is not None
         #: ``set(entity, index, value)``: one attribute of an entity.
-        self.set: Callable[[ifcopenshell.entity_instance, int, object], None] = (
-            setter if self.fast else _set_item)
+        self.set: _Setter = setter if setter is not None else _set_item
         #: ``typed(ifc_type, value)``: a typed value (IfcLabel, IfcForceMeasure ...).
-        self.typed: Callable[[str, object], ifcopenshell.entity_instance]
+        self.typed: Callable[[str, object], Entity]
         #: ``prop(name, typed value)``: a new IfcPropertySingleValue.
-        self.prop: Callable[[str, ifcopenshell.entity_instance], ifcopenshell.entity_instance]
-        if self.fast:
-            new = model.create
+        self.prop: Callable[[str, Entity], Entity]
+        if setter is not None:
+            new, put = model.create, setter
 
-            def typed(ifc_type: str, value: object) -> ifcopenshell.entity_instance:
+            def typed(ifc_type: str, value: object) -> Entity:
                 v = new(ifc_type, -1)
-                setter(v, 0, value)
+                put(v, 0, value)
                 return v
 
-            def prop(name: str, value: ifcopenshell.entity_instance):
+            def prop(name: str, value: Entity) -> Entity:
                 p = new("IfcPropertySingleValue", -1)
-                setter(p, _NAME, name)
-                setter(p, _NOMINAL, value)
+                put(p, _NAME, name)
+                put(p, _NOMINAL, value)
                 return p
 
             self.typed, self.prop = typed, prop
@@ -441,20 +457,48 @@ class _Factory:
             self.prop = lambda name, value: model.create_entity(
                 "IfcPropertySingleValue", name, None, value)
 
-    def make(self, ifc_class: str, attributes: dict[int, object]) -> ifcopenshell.entity_instance:
-        """A new entity with the attributes at the given indices set, the others unset."""
+    def make(self, ifc_class: str, attributes: dict[int, object]) -> Entity:
+        """A new entity with the attributes at the given indices set, the others unset.
+
+        Args:
+            ifc_class: the entity's IFC class.
+            attributes: attribute index -> value.
+
+        Returns:
+            The new entity.
+        """
         if self.fast:
             entity = self.model.create(ifc_class, -1)
             for index, value in attributes.items():
                 self.set(entity, index, value)
             return entity
-        args = [None] * (max(attributes) + 1)
+        args: list[object] = [None] * (max(attributes) + 1)
         for index, value in attributes.items():
             args[index] = value
         return self.model.create_entity(ifc_class, *args)
 
 
-def _set_item(entity: ifcopenshell.entity_instance, index: int, value: object) -> None:
+def _fast_setter(model: ifcopenshell.file) -> _Setter | None:
+    """The attribute setter of the fast path, or None where the public path must be used.
+
+    The fast path needs ``file.create`` and ``entity_instance.set_attribute_value_py`` and no
+    transaction recording on the model; a typed value (not an entity of the file) is made
+    and set as a harmless probe.
+    """
+    setter: _Setter | None = getattr(ifcopenshell.entity_instance, "set_attribute_value_py",
+                                     None)
+    if setter is None or getattr(type(model), "create", None) is None or \
+            getattr(model, "transaction", None) is not None:
+        return None
+    try:
+        probe = model.create("IfcLabel", -1)
+        setter(probe, 0, "probe")
+        return setter if probe.wrappedValue == "probe" else None
+    except Exception:
+        return None
+
+
+def _set_item(entity: Entity, index: int, value: object) -> None:
     entity[index] = value
 
 
@@ -468,8 +512,8 @@ class _Writer:
     only sets what changed.
     """
 
-    def __init__(self, model: ifcopenshell.file, history,
-                 shared: dict[str, ifcopenshell.entity_instance]) -> None:
+    def __init__(self, model: ifcopenshell.file, history: Entity | None,
+                 shared: dict[str, Entity]) -> None:
         self.model = model
         self.history = history
         self.shared = shared
@@ -479,17 +523,17 @@ class _Writer:
         self.types = dict(PROPERTY_TYPES)
         if model.schema == "IFC2X3":  # no IfcDateTime before IFC4
             self.types["CheckedAt"] = "IfcLabel"
-        self.texts: dict[tuple[str, str], ifcopenshell.entity_instance] = {}
-        self.dropped: dict[int, ifcopenshell.entity_instance] = {}
+        self.texts: dict[tuple[str, str], Entity] = {}
+        self.dropped: dict[int, Entity] = {}
         self._guids: list[str] = []
-        self.new_props: Callable[[int], list] = lambda row: []
+        self.new_props: Callable[[int], list[Entity]] = lambda row: []
 
     def guid(self) -> str:
         if not self._guids:
             self._guids = new_guids(4096)
         return self._guids.pop()
 
-    def typed(self, name: str, value: object):
+    def typed(self, name: str, value: _Value) -> Entity:
         ifc_type = self.types[name]
         if isinstance(value, str):
             key = (ifc_type, value)
@@ -499,11 +543,11 @@ class _Writer:
             return v
         return self._typed(ifc_type, value)
 
-    def prop(self, name: str, value: object):
+    def prop(self, name: str, value: _Value) -> Entity:
         """A new IfcPropertySingleValue ``name`` with the typed ``value``."""
         return self._prop(name, self.typed(name, value))
 
-    def set_value(self, prop, name: str, value: object) -> None:
+    def set_value(self, prop: Entity, name: str, value: _Value) -> None:
         """Give an existing property ``value`` (only what differs is set)."""
         old = prop[_NOMINAL]
         if old is None or old.is_a() != self.types[name] or old.wrappedValue != value:
@@ -511,7 +555,7 @@ class _Writer:
         if prop[_UNIT] is not None:
             self._set(prop, _UNIT, None)
 
-    def add(self, element, props: list) -> None:
+    def add(self, element: Entity, props: list[Entity]) -> None:
         """A new set with ``props`` related to ``element`` alone."""
         history = self.history
         if self.factory.fast:
@@ -529,7 +573,8 @@ class _Writer:
                 put(rel, _HISTORY, history)
             return
         make = self.factory.make
-        attributes = {_GLOBAL_ID: self.guid(), 2: PSET_NAME, _HAS_PROPERTIES: props}
+        attributes: dict[int, object] = {_GLOBAL_ID: self.guid(), 2: PSET_NAME,
+                                         _HAS_PROPERTIES: props}
         if history is not None:
             attributes[_HISTORY] = history
         pset = make("IfcPropertySet", attributes)
@@ -538,13 +583,12 @@ class _Writer:
             attributes[_HISTORY] = history
         make("IfcRelDefinesByProperties", attributes)
 
-    def prepare(self, cols: dict[str, list], shared: dict[str, ifcopenshell.entity_instance]
-                ) -> None:
+    def prepare(self, cols: _Columns, shared: dict[str, Entity]) -> None:
         """Take this run's value columns and shared properties (sets :attr:`new_props`)."""
         self.shared = shared
         self.new_props = self._props_maker(cols)
 
-    def _props_maker(self, cols: dict[str, list]) -> Callable[[int], list]:
+    def _props_maker(self, cols: _Columns) -> Callable[[int], list[Entity]]:
         """A function row -> the property entities of a new set for that value row.
 
         The layout (shared entity or IFC type per name) is worked out once; per row only the
@@ -554,8 +598,8 @@ class _Writer:
                   for name, col in cols.items()]
         typed, prop, texts = self._typed, self._prop, self.texts
 
-        def props(row: int) -> list:
-            out = []
+        def props(row: int) -> list[Entity]:
+            out: list[Entity] = []
             for name, col, entity, ifc_type in layout:
                 if entity is not None:
                     out.append(entity)
@@ -574,7 +618,7 @@ class _Writer:
 
         return props
 
-    def update(self, pset, values: dict[str, object]) -> None:
+    def update(self, pset: Entity, values: dict[str, _Value]) -> None:
         """Bring an existing set to ``values`` (own properties) plus the shared ones.
 
         Own properties keep their entity and get the new value in place; a property that is
@@ -582,7 +626,7 @@ class _Writer:
         set (and remembered for :meth:`remove_orphans`); missing ones are added.
         """
         model, shared = self.model, self.shared
-        have: dict[str, ifcopenshell.entity_instance] = {}
+        have: dict[str, Entity] = {}
         old = list(pset[_HAS_PROPERTIES] or ())
         for prop in old:
             name = prop[_NAME]
@@ -598,7 +642,7 @@ class _Writer:
                 have[name] = prop
                 continue
             self.dropped[prop.id()] = prop
-        props = []
+        props: list[Entity] = []
         for name in PROPERTY_ORDER:
             if name in shared:
                 props.append(shared[name])
@@ -611,7 +655,7 @@ class _Writer:
                                     or pset[_HISTORY].id() != history.id()):
             self._set(pset, _HISTORY, history)
 
-    def write(self, element, row: int, cols: dict[str, list], current: list | None,
+    def write(self, element: Entity, row: int, cols: _Columns, current: _Sets | None,
               summary: WriteSummary) -> None:
         """Write the set of ``element`` from value row ``row``; ``current``: its sets now."""
         if current:
@@ -643,8 +687,8 @@ class _Writer:
 
 
 def _shared_properties(
-    writer: _Writer, values: dict[str, object], rewritten: list[ifcopenshell.entity_instance]
-) -> dict[str, ifcopenshell.entity_instance]:
+    writer: _Writer, values: dict[str, _Value], rewritten: list[Entity]
+) -> dict[str, Entity]:
     """One property entity per shared name: reused from a previous run when possible.
 
     A property of that name in a set rewritten now is reused (its value set in place) when
@@ -653,7 +697,7 @@ def _shared_properties(
     """
     model = writer.model
     rewritten_ids = {p.id() for p in rewritten}
-    found: dict[str, ifcopenshell.entity_instance] = {}
+    found: dict[str, Entity] = {}
     wanted = set(values)
     for pset in rewritten:
         for prop in pset[_HAS_PROPERTIES] or ():
@@ -662,7 +706,7 @@ def _shared_properties(
                 found[name] = prop
         if len(found) == len(wanted):
             break
-    shared = {}
+    shared: dict[str, Entity] = {}
     for name, value in values.items():
         prop = found.get(name)
         if prop is not None and prop.is_a("IfcPropertySingleValue") and all(
@@ -722,7 +766,7 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
             f"force unit factor {force_unit_factor} does not match the model's force unit "
             f"{unit_name} ({to_kip} kip)")
     summary = WriteSummary(force_unit=unit_name, added_force_unit=added)
-    constant: dict[str, object] = {"DesignBasis": _label(design_basis), "Disclaimer": disclaimer}
+    constant: dict[str, _Value] = {"DesignBasis": _label(design_basis), "Disclaimer": disclaimer}
     stamp = _checked_at_text(checked_at)
     if stamp is not None:
         constant["CheckedAt"] = stamp
@@ -747,12 +791,12 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
 
 
 def _targets(model: ifcopenshell.file, members: MemberTable, mark_unlisted_columns: bool,
-             summary: WriteSummary) -> list[tuple[ifcopenshell.entity_instance, int]]:
+             summary: WriteSummary) -> list[tuple[Entity, int]]:
     """(element, value row) to write: the members found by GlobalId, then unlisted columns.
 
     An unlisted column's row is the last row of every value column (:func:`_value_columns`).
     """
-    targets: list[tuple[ifcopenshell.entity_instance, int]] = []
+    targets: list[tuple[Entity, int]] = []
     seen: set[int] = set()
     by_guid = model.by_guid
     for i, gid in enumerate(members.id.tolist()):
@@ -772,9 +816,18 @@ def _targets(model: ifcopenshell.file, members: MemberTable, mark_unlisted_colum
     return targets
 
 
-def read_results(model: ifcopenshell.file, name: str = PSET_NAME) -> dict[str, dict]:
-    """GlobalId -> {property: value} of every element's set (for tests and round trips)."""
-    out: dict[str, dict] = {}
+def read_results(model: ifcopenshell.file, name: str = PSET_NAME
+                 ) -> dict[str, dict[str, Any]]:
+    """GlobalId -> {property: value} of every element's set (for tests and round trips).
+
+    Args:
+        model: the model.
+        name: the property set name.
+
+    Returns:
+        Each element's property values as IFC gives them (str, float ...; None when unset).
+    """
+    out: dict[str, dict[str, Any]] = {}
     for rel in model.by_type("IfcRelDefinesByProperties"):
         for pset in _as_psets(rel.RelatingPropertyDefinition):
             if pset.is_a("IfcPropertySet") and pset.Name == name:
