@@ -17,7 +17,7 @@ Scope notes:
 
 from __future__ import annotations
 
-from dataclasses import dataclass, fields
+from dataclasses import dataclass
 from enum import IntEnum
 
 import numpy as np
@@ -390,10 +390,7 @@ def compressive_strength(
     for start in range(0, n, CHUNK):
         sl = slice(start, min(n, start + CHUNK))
         rows = index[sl] if index is not None else np.arange(sl.start, sl.stop)
-        block = _block(sec, limits, rows, members[sl])
-        for f in fields(CompressionResult):
-            getattr(out, f.name)[sl] = getattr(block, f.name)
-        del block  # free the block's arrays before the next block allocates its own
+        _block(sec, limits, rows, members[sl], out, sl)
     return out
 
 
@@ -403,8 +400,8 @@ def _per_member(a: FloatArray | float, n: int) -> FloatArray:
     return a if a.shape == (n,) else np.broadcast_to(a, (n,))
 
 
-def _block(sec: SectionTable, lim: _RowConstants, rows: IntArray,
-           members: _MemberInputs) -> CompressionResult:
+def _block(sec: SectionTable, lim: _RowConstants, rows: IntArray, members: _MemberInputs,
+           out: CompressionResult | None = None, sl: slice | None = None) -> CompressionResult:
     """Chapter E for one block of members.
 
     Written for speed: integer gathers (ndarray.take) and masked updates on the members a limit
@@ -415,9 +412,12 @@ def _block(sec: SectionTable, lim: _RowConstants, rows: IntArray,
         lim: the constants of those rows.
         rows: the row of ``sec`` of each member of the block.
         members: the block's per-member inputs.
+        out: results of all the members, when there are several blocks.
+        sl: the block's members within ``out``.
 
     Returns:
-        The block's results.
+        ``out`` with the block's results written into ``out[sl]``; without ``out``, the
+        block's own results.
     """
     Fy, Lcx, Lcy, Lcz, E, G = (members.Fy, members.Lcx, members.Lcy, members.Lcz, members.E,
                                members.G)
@@ -479,10 +479,22 @@ def _block(sec: SectionTable, lim: _RowConstants, rows: IntArray,
         in_scope[sub] = np.isfinite(Ae_r)
 
     slender = Ae < Ag * (1.0 - 1e-12)
-    return CompressionResult(
-        Pn=Pn(Fcr_, Ae), Fcr=Fcr_, Fe=Fe, Ae=Ae, Ag=Ag, slenderness=np.fmax(Lcx_rx, Lcy_ry),
-        limit_state=mode, slender=slender, in_scope=in_scope,
-    )
+    if out is None:
+        return CompressionResult(
+            Pn=Pn(Fcr_, Ae), Fcr=Fcr_, Fe=Fe, Ae=Ae, Ag=Ag, slenderness=np.fmax(Lcx_rx, Lcy_ry),
+            limit_state=mode, slender=slender, in_scope=in_scope,
+        )
+    # Written in place while the block's arrays are still in cache.
+    out.Pn[sl] = Pn(Fcr_, Ae)
+    out.Fcr[sl] = Fcr_
+    out.Fe[sl] = Fe
+    out.Ae[sl] = Ae
+    out.Ag[sl] = Ag
+    np.fmax(Lcx_rx, Lcy_ry, out=out.slenderness[sl])
+    out.limit_state[sl] = mode
+    out.slender[sl] = slender
+    out.in_scope[sl] = in_scope
+    return out
 
 
 def available_strength(Pn_: FloatArray, method: str) -> FloatArray:
