@@ -8,8 +8,9 @@ reported as positive distances: for a tee towards the flange, for a channel towa
 (the shear centre lies on the far side of the web from the flange tips).
 
 Bad dimensions raise :class:`ValueError` with a message naming the dimension (and the rows, for
-arrays). :func:`dimension_problems` gives the same diagnosis row by row without raising, so a
-reader can mark only the bad members "not checked".
+arrays). :func:`dimension_problems` (``engine.profile_dimensions``, also importable from here)
+gives the same diagnosis row by row without raising, so a reader can mark only the bad members
+"not checked".
 
 Approximations (also stated where used):
 
@@ -33,13 +34,18 @@ sectionproperties. Sloped-flange shapes (S, M, C, MC) are outside this parallel-
 
 from __future__ import annotations
 
-from collections.abc import Callable, Iterable
+from collections.abc import Iterable
 
 import numpy as np
 from numpy.typing import ArrayLike
 
-from stanchion.engine.arrays import AnyArray, BoolArray, FloatArray, IntArray, ObjectArray
+from stanchion.engine.arrays import AnyArray, FloatArray, ObjectArray
 from stanchion.engine.compression import H_flexural_constant, ro_bar_squared
+from stanchion.engine.profile_dimensions import (
+    checked_dimensions,
+    dimension_problems,
+    format_dimension,
+)
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 #: Weight per unit area, lb/ft per in² (490 lb/ft³ steel / 144; common practice).
@@ -52,22 +58,12 @@ _FILLET_CENTROID = (10.0 - 3.0 * np.pi) / (12.0 - 3.0 * np.pi)
 _FILLET_INERTIA = (1.0 - 5.0 * np.pi / 16.0) - _FILLET_AREA * _FILLET_CENTROID**2
 
 Array = FloatArray
-Check = tuple[BoolArray, str]  # (rows where a condition fails, the condition)
+
+__all__ = ["WEIGHT_PER_AREA", "channel", "circ_hollow", "dimension_problems", "i_section",
+           "rect_hollow", "solid_circle", "solid_rect", "tee"]
 
 
-# ---------------------------------------------------------------- input handling
-
-
-def _arrays(*values: ArrayLike | None) -> list[Array]:
-    """Broadcast the inputs to 1-D float arrays of a common length."""
-    arrays = np.broadcast_arrays(*(np.atleast_1d(np.asarray(v, dtype=float)) for v in values))
-    if arrays[0].ndim != 1:
-        raise ValueError(f"dimensions must be scalars or 1-D arrays, got {arrays[0].shape}")
-    return [a.copy() for a in arrays]
-
-
-def _fmt(v: float) -> str:
-    return f"{v:.4g}"
+# ---------------------------------------------------------------- labels
 
 
 def _labels(label: ArrayLike | None, prefix: str, dims: list[Array], r: Array | None = None
@@ -78,114 +74,9 @@ def _labels(label: ArrayLike | None, prefix: str, dims: list[Array], r: Array | 
         return np.broadcast_to(np.asarray(label, dtype=object), (n,)).astype(object)
     rows = zip(*(a.tolist() for a in dims), (np.zeros(n) if r is None else r).tolist(),
                strict=True)
-    return np.array([f"{prefix} " + "x".join(map(_fmt, row[:-1]))
-                     + (f" r{_fmt(row[-1])}" if row[-1] else "") for row in rows], dtype=object)
-
-
-def _positive(**dims: Array) -> list[Check]:
-    return [(~(np.isfinite(v) & (v > 0)), f"{k} must be a positive number")
-            for k, v in dims.items()]
-
-
-def _radius(name: str, r: Array) -> list[Check]:
-    return [(~(np.isfinite(r) & (r >= 0)), f"{name} must be zero or a positive number")]
-
-
-def _open_checks(family: str, d: Array, bf: Array, tw: Array, tf: Array, r: Array
-                 ) -> list[Check]:
-    """Conditions for I (two flanges, fillets both sides of the web), T and U profiles."""
-    flanges = 1 if family == "T" else 2  # flanges along d
-    sides = 1 if family == "U" else 2  # fillets across bf
-    part = "stem" if family == "T" else "web"
-    return _positive(d=d, bf=bf, tw=tw, tf=tf) + _radius("r", r) + [
-        (tw >= bf, "tw must be less than bf"),
-        (flanges * tf >= d, ("2*tf" if flanges == 2 else "tf") + " must be less than d"),
-        (tw + sides * r > bf, ("tw + 2*r" if sides == 2 else "tw + r")
-         + f" ({part} and fillets) must not exceed bf"),
-        (flanges * (tf + r) >= d,
-         f"clear {part} d - {flanges}*(tf + r) must be positive"),
-    ]
-
-
-_CHECKS: dict[str, tuple[tuple[str, ...], Callable[..., list[Check]]]] = {
-    "I": (("d", "bf", "tw", "tf", "r"), lambda *a: _open_checks("I", *a)),
-    "T": (("d", "bf", "tw", "tf", "r"), lambda *a: _open_checks("T", *a)),
-    "U": (("d", "bf", "tw", "tf", "r"), lambda *a: _open_checks("U", *a)),
-    "HSS": (("H", "B", "t", "r_out"), lambda H, B, t, r_out: (
-        _positive(H=H, B=B, t=t) + _radius("r_out", r_out) + [
-            (2 * t >= H, "2*t must be less than H"), (2 * t >= B, "2*t must be less than B"),
-            (2 * r_out > np.minimum(H, B), "r_out must not exceed half of min(H, B)")])),
-    "HSS_ROUND": (("D", "t"), lambda D, t: (
-        _positive(D=D, t=t) + [(2 * t >= D, "2*t must be less than D")])),
-    "RECT": (("H", "B"), lambda H, B: _positive(H=H, B=B)),
-    "ROUND": (("D",), lambda D: _positive(D=D)),
-}
-
-
-def _failures(family: str, arrays: list[Array]) -> list[tuple[IntArray, str]]:
-    """(bad row indices, message) for every condition that fails in some row."""
-    with np.errstate(invalid="ignore"):
-        checks = _CHECKS[family][1](*arrays)
-    return [(np.flatnonzero(bad), msg) for bad, msg in checks if np.any(bad)]
-
-
-def dimension_problems(family: str, **dims: ArrayLike | None) -> ObjectArray:
-    """Row-by-row diagnosis of parametric dimensions, without raising.
-
-    Args:
-        family: ``"I"``, ``"HSS"``, ``"HSS_ROUND"``, ``"T"``, ``"U"``, ``"RECT"`` or ``"ROUND"``.
-        **dims: the builder's dimension arguments by name (``d=..., bf=...``); ``r`` defaults
-            to 0 and ``r_out`` to 2t, as in the builders; None elsewhere reads as missing.
-
-    Returns:
-        Object array, one string per row: ``""`` when the row is usable, otherwise the reasons
-        joined by ``"; "`` (e.g. ``"tw must be less than bf"``).
-
-    Raises:
-        ValueError: unknown family, a missing / unexpected dimension name, non-numeric values.
-    """
-    if family not in _CHECKS:
-        raise ValueError(f"unknown profile family {family!r}; expected one of {list(_CHECKS)}")
-    names = _CHECKS[family][0]
-    dims = dict(dims)
-    if "r" in names and dims.get("r") is None:
-        dims["r"] = 0.0
-    if family == "HSS" and dims.get("r_out") is None and "t" in dims:
-        dims["r_out"] = 2.0 * np.asarray(dims["t"], dtype=float)
-    missing, extra = [k for k in names if k not in dims], [k for k in dims if k not in names]
-    if missing or extra:
-        raise ValueError(f"{family} profile: missing {missing}, unexpected {extra}")
-    arrays = _arrays(*(dims[k] for k in names))
-    reasons: list[list[str]] = [[] for _ in range(len(arrays[0]))]
-    for rows, message in _failures(family, arrays):
-        for i in rows:
-            reasons[i].append(message)
-    return np.array(["; ".join(r) for r in reasons], dtype=object)
-
-
-def _prepare(family: str, *values: ArrayLike) -> list[Array]:
-    """Broadcast the dimensions; raise ValueError naming each failed condition.
-
-    For array input the message names the rows too, with the values of the first bad row.
-    """
-    for name, v in zip(_CHECKS[family][0], values, strict=True):
-        try:
-            np.asarray(v, dtype=float)
-        except (TypeError, ValueError):
-            raise ValueError(f"invalid {family} profile dimensions: {name} must be a number, "
-                             f"got {v!r}") from None
-    arrays = _arrays(*values)
-    scalar = all(np.ndim(v) == 0 for v in values)
-    problems = []
-    for rows, message in _failures(family, arrays):
-        where = "" if scalar else f" in rows {rows[:10].tolist()}" + (
-            " ..." if rows.size > 10 else "")
-        got = ", ".join(f"{k}={_fmt(a[rows[0]])}"
-                        for k, a in zip(_CHECKS[family][0], arrays, strict=True))
-        problems.append(f"{message}{where} (got {got})")
-    if problems:
-        raise ValueError(f"invalid {family} profile dimensions: " + "; ".join(problems))
-    return arrays
+    return np.array([f"{prefix} " + "x".join(map(format_dimension, row[:-1]))
+                     + (f" r{format_dimension(row[-1])}" if row[-1] else "") for row in rows],
+                    dtype=object)
 
 
 # ---------------------------------------------------------------- geometry helpers
@@ -331,7 +222,7 @@ def i_section(
     Raises:
         ValueError: non-positive or inconsistent dimensions, named in the message.
     """
-    d, bf, tw, tf, r = _prepare("I", d, bf, tw, tf, 0.0 if r is None else r)
+    d, bf, tw, tf, r = checked_dimensions("I", d, bf, tw, tf, 0.0 if r is None else r)
     c = _FILLET_CENTROID * r
     xf, yf = tw / 2.0 + c, d / 2.0 - tf - c
     parts = [_rect(bf, tf, 0.0 * d, s * (d - tf) / 2.0) for s in (1.0, -1.0)]
@@ -375,9 +266,9 @@ def rect_hollow(
         try:
             r_out = 2.0 * np.asarray(t, dtype=float)
         except (TypeError, ValueError):
-            r_out = 0.0  # a non-numeric t is reported by _prepare
+            r_out = 0.0  # a non-numeric t is reported by checked_dimensions
 
-    H, B, t, r_out = _prepare("HSS", H, B, t, r_out)
+    H, B, t, r_out = checked_dimensions("HSS", H, B, t, r_out)
     Ao, Ixo, Iyo = _rounded_rect(H, B, r_out)
     Ai, Ixi, Iyi = _rounded_rect(H - 2.0 * t, B - 2.0 * t, np.maximum(r_out - t, 0.0))
     rm = np.maximum(r_out - t / 2.0, 0.0)
@@ -403,7 +294,7 @@ def circ_hollow(D: ArrayLike, t: ArrayLike, label: ArrayLike | None = None) -> S
     Raises:
         ValueError: non-positive or inconsistent dimensions, named in the message.
     """
-    D, t = _prepare("HSS_ROUND", D, t)
+    D, t = checked_dimensions("HSS_ROUND", D, t)
     Di = D - 2.0 * t
     A = np.pi / 4.0 * (D**2 - Di**2)
     inertia = np.pi / 64.0 * (D**4 - Di**4)
@@ -437,7 +328,7 @@ def tee(
     Raises:
         ValueError: non-positive or inconsistent dimensions, named in the message.
     """
-    d, bf, tw, tf, r = _prepare("T", d, bf, tw, tf, 0.0 if r is None else r)
+    d, bf, tw, tf, r = checked_dimensions("T", d, bf, tw, tf, 0.0 if r is None else r)
     c = _FILLET_CENTROID * r
     zero = 0.0 * d
     parts = [_rect(bf, tf, zero, -tf / 2.0), _rect(tw, d - tf, zero, -(d + tf) / 2.0)]
@@ -478,7 +369,7 @@ def channel(
     Raises:
         ValueError: non-positive or inconsistent dimensions, named in the message.
     """
-    d, bf, tw, tf, r = _prepare("U", d, bf, tw, tf, 0.0 if r is None else r)
+    d, bf, tw, tf, r = checked_dimensions("U", d, bf, tw, tf, 0.0 if r is None else r)
     c = _FILLET_CENTROID * r
     parts = [_rect(tw, d, tw / 2.0, 0.0 * d)]
     parts += [_rect(bf - tw, tf, (bf + tw) / 2.0, s * (d - tf) / 2.0) for s in (1.0, -1.0)]
@@ -509,7 +400,7 @@ def solid_rect(H: ArrayLike, B: ArrayLike, label: ArrayLike | None = None) -> Se
     Raises:
         ValueError: non-positive dimensions, named in the message.
     """
-    H, B = _prepare("RECT", H, B)
+    H, B = checked_dimensions("RECT", H, B)
     return _table(
         len(H), designation=_labels(label, "RECT", [H, B]), family="RECT",
         kind=Kind.SOLID_RECT, A=H * B, d=H, bf=B, Ix=B * H**3 / 12.0, Iy=H * B**3 / 12.0,
@@ -527,7 +418,7 @@ def solid_circle(D: ArrayLike, label: ArrayLike | None = None) -> SectionTable:
     Raises:
         ValueError: non-positive diameter.
     """
-    (D,) = _prepare("ROUND", D)
+    (D,) = checked_dimensions("ROUND", D)
     inertia = np.pi * D**4 / 64.0
     return _table(
         len(D), designation=_labels(label, "ROUND", [D]), family="ROUND",
