@@ -22,6 +22,7 @@ IfcInteger) is read in the project unit with a note.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 
@@ -208,6 +209,30 @@ def design_inputs(
         if note:
             out.notes.append(note)
     return out
+
+
+@functools.lru_cache(maxsize=64)
+def _default_text(k_given: frozenset[str], l_given: frozenset[str]) -> str | None:
+    parts = []
+    k_missing = [f"K{a}" for a in AXES if a not in k_given]
+    l_missing = [f"L{a.lower()}" for a in AXES if a not in l_given]
+    if k_missing:
+        parts.append(" = ".join(k_missing) + " = 1.0")
+    if l_missing:
+        parts.append(" = ".join(l_missing) + " = member length")
+    return ("defaults used (no Stanchion_Design value): " + "; ".join(parts)) if parts else None
+
+
+def default_note(design: DesignInputs) -> str | None:
+    """Message naming the K factors and unbraced lengths that took their defaults.
+
+    Args:
+        design: the member's Stanchion_Design inputs.
+
+    Returns:
+        The message, or None when every value was given.
+    """
+    return _default_text(frozenset(design.k), frozenset(design.unbraced))
 
 
 def pset_loads(

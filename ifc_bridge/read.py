@@ -18,7 +18,6 @@ Anything missing makes only that member "not checked" (``reason``), never the wh
 
 from __future__ import annotations
 
-import functools
 import gc
 import math
 from dataclasses import dataclass, field
@@ -52,6 +51,7 @@ from stanchion.ifc_bridge.properties import (
     LOADS_PSET,
     DesignInputs,
     PropertyValue,
+    default_note,
     design_inputs,
     find_definition,
     pset_loads,
@@ -293,23 +293,6 @@ def _safe_row(reader: _Reader, element: Entity) -> _Row:
         )
 
 
-@functools.lru_cache(maxsize=64)
-def _default_text(k_given: frozenset[str], l_given: frozenset[str]) -> str | None:
-    parts = []
-    k_missing = [f"K{a}" for a in AXES if a not in k_given]
-    l_missing = [f"L{a.lower()}" for a in AXES if a not in l_given]
-    if k_missing:
-        parts.append(" = ".join(k_missing) + " = 1.0")
-    if l_missing:
-        parts.append(" = ".join(l_missing) + " = member length")
-    return ("defaults used (no Stanchion_Design value): " + "; ".join(parts)) if parts else None
-
-
-def _default_note(design: DesignInputs) -> str | None:
-    """Message naming the K factors and unbraced lengths that took their defaults."""
-    return _default_text(frozenset(design.k), frozenset(design.unbraced))
-
-
 EXTRA_COLUMNS = ("global_id", "tag", "storey", "x", "y", "ifc_class", "length_source",
                  "profile_source", "load_source", "fy_source")
 
@@ -367,7 +350,7 @@ class _Columns:
         if not all(math.isfinite(self.unbraced[a][i]) for a in AXES) and not broken:
             why.append("no length (no Axis or Body extrusion, no Length quantity and no "
                        "analysis member)")
-        default = _default_note(r.design)
+        default = default_note(r.design)
         if default:
             notes.append(default)
         by_source = {"analysis": r.analysis, "pset": r.pset}
