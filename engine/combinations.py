@@ -345,14 +345,7 @@ def custom_combinations(spec: Sequence[object]) -> list[Combination]:
 def expand_signs(
     combinations: list[Combination],
 ) -> tuple[list[str], list[str], FloatArray]:
-    """Expand W and E into both signs (cached; see :func:`_expand_signs`).
-
-    Args:
-        combinations: the combinations, in priority order.
-
-    Returns:
-        ``(names, sources, factors)`` as :func:`_expand_signs` gives them.
-    """
+    """Expand W and E into both signs (cached; see :func:`_expand_signs`)."""
     hit = _expanded(combinations)
     return list(hit.names), list(hit.sources), hit.factors
 

@@ -287,14 +287,7 @@ class _RowConstants:
 
     @classmethod
     def cached(cls, sec: SectionTable) -> _RowConstants:
-        """Constants of ``sec``, kept on the table when its arrays are read-only (catalog).
-
-        Args:
-            sec: the section rows.
-
-        Returns:
-            The constants, computed once per read-only table.
-        """
+        """Constants of ``sec``, kept on the table when its arrays are read-only (catalog)."""
         hit: _RowConstants | None = getattr(sec, "_chapter_e_constants", None)
         if hit is not None:
             return hit
@@ -307,14 +300,7 @@ class _RowConstants:
 
     @classmethod
     def of(cls, sec: SectionTable) -> _RowConstants:
-        """Compute the constants of ``sec``.
-
-        Args:
-            sec: the section rows.
-
-        Returns:
-            The constants, one entry per row.
-        """
+        """Compute the constants of ``sec``, one entry per row."""
         with np.errstate(divide="ignore", invalid="ignore"):
             inv_rx, inv_ry = 1.0 / sec.rx, 1.0 / sec.ry
             ro2 = ro_bar_squared(sec.xo, sec.yo, sec.Ix, sec.Iy, sec.A)
