@@ -19,10 +19,12 @@ demo: $(STAMP)
 
 test: $(STAMP)
 	$(BIN)/ruff check .
+	$(BIN)/mypy
 	$(BIN)/python -m pytest -q
 
 lint: $(STAMP)
 	$(BIN)/ruff check .
+	$(BIN)/mypy
 
 bench: $(STAMP)
 	for f in tests/benchmarks/bench_*.py; do $(BIN)/python $$f || exit 1; done
