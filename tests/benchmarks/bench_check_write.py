@@ -23,7 +23,9 @@ time and peak resident memory, VmHWM, of that child):
 * ``rerun``: ``pipeline.check`` on its own output (every set updated in place);
 * ``stanchion by phase``: the same steps called one by one, timed separately.
 
-Each mode runs ``repeats`` times, round-robin so that load from other processes on a shared
+Every mode frees what it built inside the timed run (``pipeline.check`` drops the model
+before it returns, so the floor and the phases drop theirs too; ``open`` discards its file at
+once).  Each mode runs ``repeats`` times, round-robin so that load from other processes on a shared
 machine spreads over every mode; the fastest run of each mode is printed with the spread
 (slowest / fastest).  Then the ratios: stanchion / floor (time; target <= 1.5) and
 stanchion / open (peak memory; target <= 2), and the written files' sizes and property
@@ -138,7 +140,11 @@ elif mode in ("floor", "floor_kw"):
                    RelatingPropertyDefinition=pset)
     t2 = time.perf_counter(); phases["create"] = t2 - t1
     f.write(str(out / f"{mode}.ifc"))
-    phases["write"] = time.perf_counter() - t2
+    t3 = time.perf_counter(); phases["write"] = t3 - t2
+    for name in ("f", "columns", "text", "col", "props", "pset", "rel", "new", "create",
+                 "typed", "prop"):  # done: free the model and every handle on it, as
+        globals().pop(name, None)  # check() does before it returns
+    phases["free"] = time.perf_counter() - t3
 elif mode in ("stanchion", "all", "rerun"):
     from stanchion.service.pipeline import OutputPaths, check
     target = out / ("stanchion.ifc" if mode != "rerun" else "rerun.ifc")
@@ -160,7 +166,10 @@ elif mode == "phases":
                      disclaimer=mc.DISCLAIMER, checked_at="2026-01-01T00:00:00+00:00")
     phases["property sets"] = time.perf_counter() - t; t = time.perf_counter()
     mc.write_model_checked(out / "phases.ifc", model)
-    phases["write"] = time.perf_counter() - t
+    phases["write"] = time.perf_counter() - t; t = time.perf_counter()
+    for name in ("model", "read", "results", "report"):
+        globals().pop(name, None)
+    phases["free"] = time.perf_counter() - t
 seconds = time.perf_counter() - t0
 print(json.dumps({"seconds": seconds, "peak_mb": peak_mb(), "phases": phases}))
 """
