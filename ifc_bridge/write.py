@@ -38,10 +38,12 @@ IfcPersonAndOrganization / IfcSIUnit (FORCEUNIT) / IfcUnitAssignment.  Nothing e
 
 from __future__ import annotations
 
+import contextlib
+import gc
 import math
 import os
 import time
-from collections.abc import Callable, Iterable, Sequence
+from collections.abc import Callable, Iterable, Iterator, Sequence
 from dataclasses import dataclass, field
 from datetime import UTC, datetime
 from typing import Any
@@ -721,6 +723,23 @@ def _shared_properties(
 # ---------------------------------------------------------------------------- writing
 
 
+@contextlib.contextmanager
+def _collector_paused() -> Iterator[None]:
+    """Pause the cyclic garbage collector (restored afterwards, as the reader does).
+
+    The writer makes many small acyclic objects (value columns, targets, property lists); a
+    full collection triggered among them costs about 0.15 s on a 20,000-column model and
+    finds nothing to free.
+    """
+    was_enabled = gc.isenabled()
+    gc.disable()
+    try:
+        yield
+    finally:
+        if was_enabled:
+            gc.enable()
+
+
 def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
     model: ifcopenshell.file,
     members: MemberTable,
@@ -770,23 +789,24 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
     stamp = _checked_at_text(checked_at)
     if stamp is not None:
         constant["CheckedAt"] = stamp
-    cols = _value_columns(members, results, 1.0 / to_kip, constant, suggested)
-    targets = _targets(model, members, mark_unlisted_columns, summary)
-    existing = existing_sets(model)
-    writer = _Writer(model, _owner_history(model), {})
-    rewritten = [current[0][1] for current in (existing.get(e.id()) for e, _ in targets)
-                 if current and len(current[0][0][_RELATED]) == 1]
-    common = _common(cols, sorted({row for _, row in targets}))
-    writer.prepare(cols, _shared_properties(writer, common, rewritten))
-    summary.shared = list(writer.shared)
-    del rewritten
+    with _collector_paused():
+        cols = _value_columns(members, results, 1.0 / to_kip, constant, suggested)
+        targets = _targets(model, members, mark_unlisted_columns, summary)
+        existing = existing_sets(model)
+        writer = _Writer(model, _owner_history(model), {})
+        rewritten = [current[0][1] for current in (existing.get(e.id()) for e, _ in targets)
+                     if current and len(current[0][0][_RELATED]) == 1]
+        common = _common(cols, sorted({row for _, row in targets}))
+        writer.prepare(cols, _shared_properties(writer, common, rewritten))
+        summary.shared = list(writer.shared)
+        del rewritten
 
-    total = len(targets)
-    for n, (element, row) in enumerate(targets, 1):
-        writer.write(element, row, cols, existing.get(element.id()), summary)
-        if progress is not None and (n % 2000 == 0 or n == total):
-            progress(n, total)
-    summary.removed_properties = writer.remove_orphans()
+        total = len(targets)
+        for n, (element, row) in enumerate(targets, 1):
+            writer.write(element, row, cols, existing.get(element.id()), summary)
+            if progress is not None and (n % 2000 == 0 or n == total):
+                progress(n, total)
+        summary.removed_properties = writer.remove_orphans()
     return summary
 
 

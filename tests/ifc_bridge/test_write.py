@@ -7,6 +7,7 @@ into the model's force unit with pint (engine.units.factor; common practice, no 
 
 from __future__ import annotations
 
+import gc
 from collections import Counter
 
 import ifcopenshell
@@ -481,3 +482,16 @@ def test_new_guids_are_valid_ifc_globalids() -> None:
         assert ifcopenshell.guid.compress(hex_id) == gid
         assert hex_id[12] == "4" and hex_id[16] in "89ab"  # UUID version 4, RFC 4122 variant
     assert new_guids(0) == []
+
+
+def test_garbage_collector_state_is_restored(builder) -> None:
+    cols = _columns(builder)
+    assert gc.isenabled()
+    _write(builder, cols)
+    assert gc.isenabled()
+    gc.disable()
+    try:
+        _write(builder, cols)
+        assert not gc.isenabled()
+    finally:
+        gc.enable()
