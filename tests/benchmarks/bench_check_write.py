@@ -8,7 +8,8 @@ time and peak resident memory, VmHWM, of that child):
   directly + ``file.write`` -- the floor of issue 12.  The 8 properties are the per-column
   results (Status, Section, Utilization, RequiredStrength, AvailableStrength,
   GoverningCombination, GoverningLimitState, Slenderness), each its own
-  IfcPropertySingleValue typed as stanchion types it, in one IfcPropertySet and one
+  IfcPropertySingleValue typed as stanchion types it (numbers at full precision, as a check
+  gives them, so they take as much room in the file as ours), in one IfcPropertySet and one
   IfcRelDefinesByProperties per column.  They are made the fastest direct way found:
   ``file.create`` + ``entity_instance.set_attribute_value_py`` by attribute index (the
   primitive stanchion's writer uses; about six times faster than ``create_entity`` with
@@ -53,7 +54,7 @@ ROOT = HERE.parents[1]
 
 # Runs in a child: argv = mode, model path, output folder.  Prints one JSON line.
 CHILD = r"""
-import json, os, resource, sys, time
+import json, os, random, resource, sys, time
 from pathlib import Path
 
 def peak_mb():
@@ -81,6 +82,8 @@ elif mode in ("floor", "floor_kw"):
     f = ifcopenshell.open(str(src))
     t1 = time.perf_counter(); phases["open"] = t1 - t0
     columns = f.by_type("IfcColumn")
+    # results as a check gives them: full-precision numbers (as long in the file as ours)
+    rnd = random.Random(1).random
     n = len(columns)
     labels = ("PASS", "W14X48", "1.2D+1.6L+0.5Lr", "flexural buckling about y")
     if mode == "floor":
@@ -106,14 +109,14 @@ elif mode in ("floor", "floor_kw"):
             p = new("IfcPropertySingleValue", -1); put(p, 0, name); put(p, 2, value); return p
         text = [typed("IfcLabel", s) for s in labels]
         for i, col in enumerate(columns):
-            u = 0.5 + (i % 100) / 200.0
+            u, avail, slender = 0.3 + 0.7 * rnd(), 800.0 + 3000.0 * rnd(), 30.0 + 90.0 * rnd()
             props = [prop("Status", text[0]), prop("Section", text[1]),
                      prop("Utilization", typed("IfcRatioMeasure", u)),
-                     prop("RequiredStrength", typed("IfcForceMeasure", 1000.0 * u)),
-                     prop("AvailableStrength", typed("IfcForceMeasure", 1000.0 + i % 7)),
+                     prop("RequiredStrength", typed("IfcForceMeasure", avail * u)),
+                     prop("AvailableStrength", typed("IfcForceMeasure", avail)),
                      prop("GoverningCombination", text[2]),
                      prop("GoverningLimitState", text[3]),
-                     prop("Slenderness", typed("IfcRatioMeasure", 60.0 + i % 40))]
+                     prop("Slenderness", typed("IfcRatioMeasure", slender))]
             pset = new("IfcPropertySet", -1)
             put(pset, 0, gids[2 * i]); put(pset, 2, "Stanchion_ColumnCheck"); put(pset, 4, props)
             rel = new("IfcRelDefinesByProperties", -1)
@@ -123,22 +126,22 @@ elif mode in ("floor", "floor_kw"):
         create, gid = f.create_entity, ifcopenshell.guid.new
         text = [create("IfcLabel", s) for s in labels]
         for i, col in enumerate(columns):
-            u = 0.5 + (i % 100) / 200.0
+            u, avail, slender = 0.3 + 0.7 * rnd(), 800.0 + 3000.0 * rnd(), 30.0 + 90.0 * rnd()
             props = [
                 create("IfcPropertySingleValue", Name="Status", NominalValue=text[0]),
                 create("IfcPropertySingleValue", Name="Section", NominalValue=text[1]),
                 create("IfcPropertySingleValue", Name="Utilization",
                        NominalValue=create("IfcRatioMeasure", u)),
                 create("IfcPropertySingleValue", Name="RequiredStrength",
-                       NominalValue=create("IfcForceMeasure", 1000.0 * u)),
+                       NominalValue=create("IfcForceMeasure", avail * u)),
                 create("IfcPropertySingleValue", Name="AvailableStrength",
-                       NominalValue=create("IfcForceMeasure", 1000.0 + i % 7)),
+                       NominalValue=create("IfcForceMeasure", avail)),
                 create("IfcPropertySingleValue", Name="GoverningCombination",
                        NominalValue=text[2]),
                 create("IfcPropertySingleValue", Name="GoverningLimitState",
                        NominalValue=text[3]),
                 create("IfcPropertySingleValue", Name="Slenderness",
-                       NominalValue=create("IfcRatioMeasure", 60.0 + i % 40)),
+                       NominalValue=create("IfcRatioMeasure", slender)),
             ]
             pset = create("IfcPropertySet", GlobalId=gid(), Name="Stanchion_ColumnCheck",
                           HasProperties=props)
