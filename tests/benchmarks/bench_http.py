@@ -1,7 +1,7 @@
 """HTTP service benchmark: prints numbers, asserts nothing.
 
-Starts the real server (``python -m service.cli serve``) on 127.0.0.1 with a throw-away data
-folder and measures, in the same run on the same server:
+Starts the real server (``python -m stanchion.service.cli serve``) on 127.0.0.1 with a
+throw-away data folder and measures, in the same run on the same server:
 
 1. requests/second of ``POST /v1/checks`` with a 100-member request next to ``GET
    /v1/health`` (target ratio checks/health >= 0.3), with one sequential client and with four
