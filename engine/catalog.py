@@ -26,6 +26,7 @@ the tabulated values. Values not tabulated for a family (Cw of closed sections, 
 
 from __future__ import annotations
 
+import csv
 import difflib
 import functools
 import re
@@ -33,12 +34,15 @@ import unicodedata
 from collections.abc import Sequence
 from fractions import Fraction
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 import numpy as np
-import pandas as pd
 
 from stanchion.engine.arrays import BoolArray, FloatArray, IntArray
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
+
+if TYPE_CHECKING:
+    import pandas as pd
 
 CATALOG_PATH = Path(__file__).resolve().parent / "data" / "aisc_shapes_v16.csv"
 
@@ -196,26 +200,46 @@ def _designation_numbers(designation: str) -> list[float]:
 # --------------------------------------------------------------------------- loading
 
 
+#: Text columns of the catalog file; every other column is a number (blank: not applicable).
+TEXT_COLUMNS = ("designation", "family", "source_label")
+
+
 @functools.lru_cache(maxsize=1)
-def _frame() -> pd.DataFrame:
-    text_cols = {"designation": str, "family": str, "source_label": str}
-    return pd.read_csv(CATALOG_PATH, dtype=text_cols, keep_default_na=False, na_values=[""])
+def _columns() -> dict[str, np.ndarray]:
+    """The catalog file by column: text as object arrays, numbers as floats (blank -> NaN).
+
+    Read with the standard library: the file is small, and pandas would cost the model
+    check a third of a second and 40 MB just to import.
+    """
+    with CATALOG_PATH.open(newline="", encoding="utf-8") as fh:
+        header, *rows = list(csv.reader(fh))
+    out: dict[str, np.ndarray] = {}
+    for j, name in enumerate(header):
+        values = [row[j] for row in rows]
+        if name in TEXT_COLUMNS:
+            out[name] = np.array(values, dtype=object)
+        else:
+            out[name] = np.array([float(v) if v else np.nan for v in values], dtype=float)
+        out[name].flags.writeable = False
+    return out
 
 
 def catalog_frame() -> pd.DataFrame:
     """The catalog file as a DataFrame (a copy): tabulated values, blank = not applicable."""
-    return _frame().copy()
+    import pandas as pd  # for tests and tools only
+
+    return pd.DataFrame({k: v.copy() for k, v in _columns().items()})
 
 
-def _build_table(df: pd.DataFrame) -> SectionTable:
+def _build_table(columns: dict[str, np.ndarray]) -> SectionTable:
     """SectionTable from catalog rows, vectorized over families (conventions: module doc)."""
-    fam = df["family"].to_numpy(dtype=object)
+    fam = columns["family"].copy()
     unknown = set(fam) - set(FAMILIES)
     if unknown:
         raise ValueError(f"{CATALOG_PATH.name}: unknown families {sorted(unknown)}")
 
     def col(name: str) -> FloatArray:
-        return df[name].to_numpy(dtype=float, copy=True)
+        return np.array(columns[name], dtype=float)  # a writable copy
 
     is_i = np.isin(fam, ["W", "M", "S", "HP"])
     is_rect = fam == "HSS"
@@ -245,7 +269,7 @@ def _build_table(df: pd.DataFrame) -> SectionTable:
         return pick(0.0, *pairs).astype(np.int64)
 
     data = {
-        "designation": df["designation"].to_numpy(dtype=object),
+        "designation": columns["designation"].copy(),
         "family": fam.copy(),
         "kind": np.array([FAMILY_KIND[f] for f in fam], dtype=np.int64),
         "weight": col("weight"),
@@ -296,7 +320,7 @@ def _build_table(df: pd.DataFrame) -> SectionTable:
 @functools.lru_cache(maxsize=1)
 def load_catalog() -> SectionTable:
     """All catalog shapes as a read-only :class:`SectionTable` (cached; row order = file)."""
-    return _build_table(_frame())
+    return _build_table(_columns())
 
 
 @functools.lru_cache(maxsize=1)
