@@ -60,18 +60,15 @@ def _sig_columns(columns: list[np.ndarray], digits: list[int]) -> list[list[floa
     return out
 
 
-def _sig_list(a: np.ndarray, digits: int = 6) -> list[float | None]:
-    """Vectorized :func:`_sig` for one array."""
-    return _sig_columns([a], [digits])[0]
-
-
 def _sig(x: float, digits: int = 6) -> float | None:
-    """Round to significant digits for the report; NaN / inf become null."""
+    """One value rounded as :func:`_sig_columns` rounds the report's columns; NaN / inf -> None.
+
+    The same rounding everywhere: ``summary.max_utilization`` is the largest row's
+    ``utilization`` as written (``round`` gave 0.7047 for 0.70475 where the rows say 0.7048).
+    """
     if x is None or not math.isfinite(x):
         return None
-    if x == 0:
-        return 0.0
-    return round(x, digits - 1 - int(math.floor(math.log10(abs(x)))))
+    return _sig_columns([np.array([x])], [digits])[0][0]
 
 
 def build_report(

@@ -52,3 +52,12 @@ def test_very_large_and_very_small_values_keep_their_digits() -> None:
     got = _sig_columns([np.array([1.4e30, -2.345678e25, 1.23456789e-30])], [6])[0]
     assert got == [1.4e30, -2.34568e25, 1.23457e-30]
     assert [repr(x) for x in got] == ["1.4e+30", "-2.34568e+25", "1.23457e-30"]
+
+
+def test_scalar_rounding_is_the_column_rounding() -> None:
+    # summary.max_utilization (_sig) must equal the row's utilization (_sig_columns).
+    # By hand: the float 0.70475 x 1e4 is 7047.5, which np.round takes to 7048, so the rows
+    # say 0.7048; Python's round(0.70475, 4) said 0.7047 (the float is 0.704749999...).
+    values = [0.70475, 1.4e30, -2.345678e25, 123.4565, 6972.0]
+    assert [_sig(x, 4) for x in values] == _sig_columns([np.array(values)], [4])[0]
+    assert _sig(0.70475, 4) == 0.7048
