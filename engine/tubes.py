@@ -2,8 +2,8 @@
 
 Catalog rows (AISC Shapes Database v16.0, ASTM A500 HSS and ASTM A53 pipe) tabulate
 tdes = 0.93 tnom, which is :func:`design_wall` for ``"ASTM A500"`` / ``"ASTM A53"`` (checked
-row by row in tests/engine/test_tubes.py); members-file profiles (``service.core``) and IFC
-profiles (``ifc_bridge.sections``) get their design wall from :func:`design_wall`.
+row by row in tests/engine/test_tubes.py); members-file profiles (``service.members_check``) and
+IFC profiles (``ifc_bridge.sections``) get their design wall from :func:`design_wall`.
 """
 
 from __future__ import annotations

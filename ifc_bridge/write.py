@@ -759,7 +759,7 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
         model: the model to annotate; changed in memory only (the caller writes it elsewhere).
         members: the member table the results belong to; ``members.id`` are GlobalIds.
         results: the engine's results, rows aligned with ``members``.
-        design_basis: the report's design basis line (``service.report.design_basis``).
+        design_basis: the report's design basis line (``service.reports.report.design_basis``).
         disclaimer: the report's disclaimer text.
         force_unit_factor: multiplier model force unit -> kip as the reader used it; checked
             against the model's own unit (ValueError on disagreement).  None: the model's.

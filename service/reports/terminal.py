@@ -1,8 +1,8 @@
 """What ``stanchion check`` prints for a person: source, counts, worst members, changes.
 
-Builds on :func:`service.report.format_summary` (counts and the highest utilizations) and adds
-the input line, a per-storey table for models, the baseline comparison and a closing verdict
-that matches the exit code.
+Builds on :func:`stanchion.service.reports.report.format_summary` (counts and the highest
+utilizations) and adds the input line, a per-storey table for models, the baseline comparison
+and a closing verdict that matches the exit code.
 """
 
 from __future__ import annotations

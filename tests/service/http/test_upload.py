@@ -1,4 +1,4 @@
-"""The streaming upload parser behind ``POST /v1/models`` (service/upload.py)."""
+"""The streaming upload parser behind ``POST /v1/models`` (service/http/upload.py)."""
 
 from __future__ import annotations
 

@@ -1,7 +1,7 @@
 """Job store and job runner: queueing, worker processes, crashes, time limit, restarts.
 
-The worker processes run the real ``service.worker`` with a stand-in model check
-(``test_jobs_stub.py``), so these tests need no IFC parsing.  Every wait is bounded.
+The worker processes run the real ``stanchion.service.jobs.worker`` with a stand-in model
+check (``stub_worker.py``), so these tests need no IFC parsing.  Every wait is bounded.
 """
 
 from __future__ import annotations
