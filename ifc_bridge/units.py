@@ -2,8 +2,9 @@
 
 Model unit -> SI comes from ``ifcopenshell.util.unit`` (``calculate_unit_scale`` for length,
 ``get_project_unit`` + ``get_unit_scale`` for force and pressure, which follows chains of
-IfcConversionBasedUnit and applies SI prefixes); SI -> internal comes from pint
-(:func:`engine.units.factor`).  No conversion factor is written down here.
+IfcConversionBasedUnit and applies SI prefixes); SI -> internal comes from
+:func:`engine.units.factor` (the units' exact SI definitions).  No conversion factor is
+written down here.
 
 Undeclared units.  IFC measure types are defined in SI base units (IfcLengthMeasure in metre,
 IfcForceMeasure in newton, IfcPressureMeasure in pascal), so a model whose IfcUnitAssignment
