@@ -48,8 +48,9 @@ class Settings(BaseSettings):
 
     api_token: str | None = None
     data_dir: Path = Path("stanchion-data")
-    max_upload_mb: float = Field(200.0, gt=0)
-    job_timeout_s: float = Field(600.0, gt=0)
+    # finite: an infinite upload limit cannot become a byte count (every request answered 500)
+    max_upload_mb: float = Field(200.0, gt=0, allow_inf_nan=False)
+    job_timeout_s: float = Field(600.0, gt=0, allow_inf_nan=False)
     max_workers: int = Field(1, ge=1, le=16)
 
     @field_validator("api_token")

@@ -44,6 +44,9 @@ def test_serve_defaults_and_settings_from_env(clean_env, monkeypatch) -> None:
 @pytest.mark.parametrize(("name", "value"), [
     ("STANCHION_MAX_UPLOAD_MB", "lots"), ("STANCHION_MAX_UPLOAD_MB", "0"),
     ("STANCHION_JOB_TIMEOUT_S", "-1"), ("STANCHION_MAX_WORKERS", "0"),
+    # infinite: int(inf) bytes raised OverflowError on every request (each answered 500)
+    ("STANCHION_MAX_UPLOAD_MB", "inf"), ("STANCHION_JOB_TIMEOUT_S", "inf"),
+    ("STANCHION_MAX_UPLOAD_MB", "nan"),
 ])
 def test_serve_refuses_bad_settings(clean_env, monkeypatch, capsys, name, value) -> None:
     monkeypatch.setattr(uvicorn, "run", lambda *a, **k: pytest.fail("must not start"))
