@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections import Counter
 from typing import Literal, get_args
 
 from pydantic import BaseModel, ConfigDict, Field, field_validator, model_validator
@@ -172,6 +173,6 @@ class MembersRequest(_Strict):
     def _unique_ids(self) -> MembersRequest:
         ids = [m.id for m in self.members]
         if len(set(ids)) < len(ids):  # the common case (no repeats) costs one set()
-            dup = sorted({i for i in ids if ids.count(i) > 1})
+            dup = sorted(i for i, n in Counter(ids).items() if n > 1)  # linear, not ids.count
             raise ValueError(f"member ids must be unique; repeated: {', '.join(dup)}")
         return self
