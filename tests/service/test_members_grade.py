@@ -82,7 +82,8 @@ def test_fy_from_grade_in_request_units():
         "units": {"force": "kN", "length": "m", "stress": "MPa"},
         "members": [{"id": "A", "section": "W14X48", "grade": "S355JR", "length": 4,
                      "loads": {"D": 100}}]})
-    # EN 1993-1-1:2005 Table 3.1: S355, t = 0.595 in = 15.1 mm <= 40 mm: fy = 355 MPa
+    # EN 1993-1-1:2005 Table 3.1: S355, t = 0.595 in = 15.1 mm <= 40 mm: fy = 355 MPa;
+    # 1 MPa = 0.1450377 ksi (1 ksi = 6.894757 MPa, NIST SP 811 Appendix B)
     assert members_from_request(req).Fy[0] == pytest.approx(355.0 * 0.1450377, rel=1e-6)
 
 
@@ -131,7 +132,9 @@ def test_en_thickness_band_uses_the_nominal_wall():
 
 def test_catalog_tube_thickness_band_uses_its_nominal_wall():
     # HSS8X8X1/2: tdes 0.465 in, tnom 0.5 in = 12.7 mm (AISC Shapes Database v16.0);
-    # S355J2H, t <= 40 mm: fy = 355 MPa (EN 1993-1-1:2005 Table 3.1)
-    req = MembersRequest.model_validate({"members": [_member(0, section="HSS8X8X1/2",
-                                                              grade="S355J2H")]})
+    # S355J2H, t <= 40 mm: fy = 355 MPa (EN 1993-1-1:2005 Table 3.1).  No catalog tube is
+    # thick enough for the band to differ, so the message shows which wall was banded:
+    # the nominal 12.7 mm, not the design 0.93 x 12.7 = 11.8 mm.
+    rows, req = _report({"section": "HSS8X8X1/2", "grade": "S355J2H"})
     assert members_from_request(req).Fy[0] == pytest.approx(355.0 * 0.1450377, rel=1e-6)
+    assert any("t = 12.7 mm <= 40 mm" in s for s in rows["M0"]["messages"])
