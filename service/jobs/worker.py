@@ -34,6 +34,7 @@ from stanchion.service.jobs.store import (
     RESULT_FILE,
 )
 from stanchion.service.pipeline import CheckOptions, OutputPaths, check
+from stanchion.service.reports.files import write_json
 
 log = logging.getLogger("stanchion.worker")
 
@@ -53,13 +54,6 @@ def pipeline_check(model: Path, options: CheckOptions, outputs: OutputPaths
                    ) -> dict[str, Any]:
     """The pipeline's check of a model; returns its report."""
     return check(model, options, outputs).report
-
-
-def _write_json(path: Path, data: dict) -> None:
-    """Write JSON through a temporary file and a rename (the server never sees half)."""
-    tmp = path.with_name(f".{path.name}.tmp")
-    tmp.write_text(json.dumps(data, indent=2, ensure_ascii=False) + "\n", encoding="utf-8")
-    os.replace(tmp, path)
 
 
 def _public_message(msg: str, job_dir: Path, names: dict[str, str]) -> str:
@@ -95,7 +89,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
                               csv=job_dir / CSV_FILE)
         report = (check or pipeline_check)(model, options, outputs)
         if not (job_dir / REPORT_FILE).exists():
-            _write_json(job_dir / REPORT_FILE, report)
+            write_json(job_dir / REPORT_FILE, report)
         result = {"status": "done", "summary": report.get("summary")}
     except MemoryError:
         result = {"status": "failed", "error": "the model is too large to process"}
@@ -108,7 +102,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
                      if isinstance(exc, ImportError)
                      else f"the model could not be processed ({type(exc).__name__})")
         result = {"status": "failed", "error": error}
-    _write_json(job_dir / RESULT_FILE, result)
+    write_json(job_dir / RESULT_FILE, result)
     return result
 
 
