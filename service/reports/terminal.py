@@ -58,7 +58,7 @@ def storey_table(report: dict) -> list[str]:
 
 
 def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False) -> str:
-    """The closing line; agrees with :func:`service.cmd_check.exit_code`."""
+    """The closing line; agrees with :func:`stanchion.service.cli.check.exit_code`."""
     s = report["summary"]
     if fail_on == "new-failures" and "changes" in report:
         n = regressions(report["changes"], allow_not_checked)
