@@ -21,9 +21,12 @@ rows with different values (dual certification), the lowest value is used and no
 
 from __future__ import annotations
 
+import math
 import re
+from collections.abc import Iterable
 from dataclasses import dataclass
 from functools import lru_cache
+from typing import Literal
 
 from stanchion.engine.units import factor
 
@@ -201,6 +204,29 @@ def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm:
             text = extra or f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
             return fy_mpa * _KSI_PER_MPA, text
     return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {min(80.0, max_mm):.0f} mm"
+
+
+def band_thickness(form: Literal["solid_rect", "solid_round", "walls"],
+                   dims: Iterable[float | None]) -> float | None:
+    """The nominal thickness at which an EN yield-strength band is read.
+
+    EN 10025-2, EN 10210-1 and EN 10219-1 give the minimum yield strength by the product's
+    nominal thickness: a solid rectangular bar's is its smaller side, a solid round's its
+    diameter, and a section of walls, webs and flanges is read at its thickest element (the
+    lowest band of its elements governs).
+
+    Args:
+        form: ``"solid_rect"``, ``"solid_round"`` or ``"walls"``.
+        dims: the sides, the diameter, or the element thicknesses (any length unit); None
+            for one not known.
+
+    Returns:
+        The thickness in the unit of ``dims``, or None when none is known.
+    """
+    given = [v for v in dims if v is not None and math.isfinite(v) and v > 0]
+    if not given:
+        return None
+    return min(given) if form == "solid_rect" else max(given)
 
 
 def match_grade(

@@ -34,6 +34,7 @@ import numpy as np
 from stanchion.engine import section_properties as sp
 from stanchion.engine.arrays import IntArray
 from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
+from stanchion.engine.materials import band_thickness
 from stanchion.engine.sections import Kind, SectionRow, SectionTable
 from stanchion.engine.tubes import catalog_wall_note, design_wall
 from stanchion.ifc_bridge.profiles import ProfileSpec
@@ -189,10 +190,13 @@ def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
 
 
 def _thickest(spec: ProfileSpec) -> float | None:
-    """The thickest element of a profile, in (EN grades are banded by it), None if unknown."""
-    keys = ("B", "D") if spec.family in ("RECT", "ROUND") else ("tw", "tf", "t", "tf_top")
-    ts = [v for k, v in spec.dims if k in keys and v is not None]
-    return max(ts) if ts else None
+    """The thickness EN grades are banded by, in (:func:`engine.materials.band_thickness`)."""
+    dims = dict(spec.dims)
+    if spec.family == "RECT":
+        return band_thickness("solid_rect", (dims.get("B"), dims.get("D")))
+    if spec.family == "ROUND":
+        return band_thickness("solid_round", (dims.get("D"),))
+    return band_thickness("walls", (dims.get(k) for k in ("tw", "tf", "t", "tf_top")))
 
 
 def resolve_sections(requests: list[SectionRequest]) -> Resolution:

@@ -15,7 +15,13 @@ import numpy as np
 from stanchion.engine import catalog, section_properties
 from stanchion.engine.check import CheckResults, check_members
 from stanchion.engine.combinations import custom_combinations
-from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, match_grade, product_standard
+from stanchion.engine.materials import (
+    E_DEFAULT,
+    G_DEFAULT,
+    band_thickness,
+    match_grade,
+    product_standard,
+)
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import Kind, SectionTable
 from stanchion.engine.tubes import ERW_RATIO, catalog_wall_note, design_wall
@@ -136,29 +142,31 @@ def _sections(members: list[Member], length_unit: str
 
 
 def _thickest(sections: SectionTable, row: int, profile: Profile | None, length_unit: str
-              ) -> float:
-    """The thickest element of a section, nominal, in (EN grades are banded by it).
+              ) -> float | None:
+    """The thickness EN grades are banded by, nominal, in.
 
-    A profile's dimensions as given (a tube's ``t`` is nominal); a catalog tube's nominal
-    wall is its tabulated tdes / 0.93 (the catalog's A500 rule, :data:`engine.tubes.ERW_RATIO`).
+    :func:`engine.materials.band_thickness` of a profile's dimensions as given (a tube's
+    ``t`` is nominal) or of a catalog row (a catalog tube's nominal wall is its tabulated
+    tdes / 0.93, the catalog's A500 rule, :data:`engine.tubes.ERW_RATIO`).
     """
-    if profile is not None:  # the request model requires each shape's dimensions
-        dims: tuple[float | None, ...]
+    if profile is not None:
+        f = length_factor(profile.unit or length_unit)
+        scaled = [None if v is None else v * f for v in
+                  (profile.h, profile.b, profile.D, profile.t, profile.tw, profile.tf)]
+        h, b, d, t, tw, tf = scaled
         if profile.shape == "RECT":
-            dims = (min(profile.h or 0.0, profile.b or 0.0),)
-        elif profile.shape == "CIRCLE":
-            dims = (profile.D,)
-        else:  # walls, webs and flanges
-            dims = (profile.t, profile.tw, profile.tf)
-        return max(v for v in dims if v is not None) * length_factor(profile.unit or length_unit)
+            return band_thickness("solid_rect", (h, b))
+        if profile.shape == "CIRCLE":
+            return band_thickness("solid_round", (d,))
+        return band_thickness("walls", (t, tw, tf))
     kind = int(sections.kind[row])
     if kind == Kind.SOLID_RECT:
-        return float(min(sections.d[row], sections.bf[row]))
+        return band_thickness("solid_rect", (float(sections.d[row]), float(sections.bf[row])))
     if kind == Kind.SOLID_ROUND:
-        return float(sections.d[row])
+        return band_thickness("solid_round", (float(sections.d[row]),))
     if kind in _TUBES:
-        return float(sections.tw[row]) / ERW_RATIO
-    return float(max(sections.tw[row], sections.tf[row]))
+        return band_thickness("walls", (float(sections.tw[row]) / ERW_RATIO,))
+    return band_thickness("walls", (float(sections.tw[row]), float(sections.tf[row])))
 
 
 def _apply_grades(

@@ -9,6 +9,7 @@ from stanchion.engine.materials import (
     G_DEFAULT,
     GRADES,
     STANDARDS,
+    band_thickness,
     match_grade,
     product_standard,
 )
@@ -144,3 +145,16 @@ def test_hollow_section_grade_without_its_standard_stops_at_40_mm():
     assert found is None and "> 40 mm" in notes[0]
     found, _ = match_grade("S355J2H", "HSS", 1.0)  # 25.4 mm
     assert found.fy == pytest.approx(355.0 * KSI_PER_MPA)  # Table 3.1, t <= 40 mm
+
+
+@pytest.mark.parametrize(("form", "dims", "expected"), [
+    ("solid_rect", (20.0, 200.0), 20.0),  # a 20 x 200 flat is 20 thick
+    ("solid_round", (60.0,), 60.0),  # a round bar: its diameter
+    ("walls", (10.2, 17.0, None), 17.0),  # an I section: its thickest element governs
+    ("walls", (None, None), None),  # nothing known: no thickness, never a guess
+])
+def test_band_thickness_is_the_products_nominal_thickness(form, dims, expected) -> None:
+    # EN 10025-2 / EN 10210-1 / EN 10219-1: yield strength by nominal thickness (the
+    # thickness of a flat or plate, the diameter of a round; common practice for a section:
+    # its thickest element)
+    assert band_thickness(form, dims) == expected
