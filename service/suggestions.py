@@ -15,7 +15,7 @@ import numpy as np
 from stanchion.engine import catalog
 from stanchion.engine.check import CheckResults
 from stanchion.engine.members import MemberTable
-from stanchion.engine.selection import suggest_for_members
+from stanchion.engine.selection import suggest_for_members, suggestion_family
 
 
 def _unusable(spec: Sequence[str]) -> str | None:
@@ -81,4 +81,29 @@ def suggest(
                            f"{limit[i]:g}")
     for i, text in problems.items():
         results.messages[i] = [*results.messages[i], text]
+    _note_other_families(members, results, suggestions)
     return suggestions
+
+
+def _note_other_families(members: MemberTable, results: CheckResults,
+                         suggestions: dict[int, list[dict[str, Any]]]) -> None:
+    """Say so where a suggestion is of another family than the member's own.
+
+    Every suggestion is rated at the member's own yield stress; a section of another family
+    is usually made of another material (a W of ASTM A992, a round HSS of A500, a pipe of
+    A53), whose Fy may be lower.  Nothing is assumed about that material: the member is told.
+    """
+    if not suggestions:
+        return
+    families = catalog.load_catalog().family
+    for i, found in suggestions.items():
+        row = int(members.section_index[i])
+        own = str(members.sections.family[row]) if row >= 0 else ""
+        rows = catalog.lookup([s["section"] for s in found]).tolist()
+        other = sorted({str(families[r]) for r in rows if r >= 0}
+                       - {own, suggestion_family(own)})
+        if other:
+            results.messages[i] = [
+                *results.messages[i],
+                f"suggested {', '.join(other)} sections are rated at this member's own yield "
+                "stress; check the grade such a section is made of (its Fy may be lower)"]

@@ -140,3 +140,21 @@ def test_suggest_needs_the_yield_stress() -> None:
     with pytest.raises(SystemExit) as exc:  # no default: 50 would mean ksi or MPa by --units
         main(["suggest", "--load", "100", "--length", "10"])
     assert exc.value.code == 2
+
+
+def test_suggestions_of_another_family_say_they_use_the_members_yield_stress(tmp_path) -> None:
+    # A W12X45 at 50 ksi (ASTM A992) asked for round HSS: the suggestion is rated at 50 ksi,
+    # but round HSS of ASTM A500 Gr. C have Fy = 46 ksi (ASTM A500) -- the member is told.
+    data = {"members": [
+        {"id": "A", "section": "W12X45", "fy": 50, "length": 16, "required_strength": 200,
+         "candidates": ["HSS_ROUND"]},
+        {"id": "B", "section": "W12X45", "fy": 50, "length": 16, "required_strength": 200,
+         "candidates": ["W12"]}]}
+    p = tmp_path / "m.json"
+    p.write_text(json.dumps(data))
+    out = tmp_path / "r.json"
+    main(["check", str(p), "--report", str(out), "--quiet"])
+    a, b = json.loads(out.read_text())["members"]
+    assert a["suggestions"] and any("HSS_ROUND sections are rated at this member's own yield"
+                                    in m for m in a["messages"])
+    assert b["suggestions"] and not any("own yield" in m for m in b["messages"])
