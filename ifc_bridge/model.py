@@ -8,7 +8,11 @@ whose message is ready to print after ``stanchion:``.
 
 from __future__ import annotations
 
+import os
 import re
+import tempfile
+import zipfile
+from collections.abc import Mapping
 from pathlib import Path
 
 import ifcopenshell
@@ -20,6 +24,16 @@ SUPPORTED_SCHEMAS: tuple[str, ...] = ("IFC2X3", "IFC4", "IFC4X3")
 
 #: File endings ifcopenshell can open (STEP, zipped STEP, IFC-XML).
 _SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
+
+#: Environment variable: the largest model an ``.ifczip`` may expand to, MiB.
+MAX_MODEL_MB_ENV = "STANCHION_MAX_MODEL_MB"
+#: Its default, MiB: five times the server's default upload limit of 200 MiB
+#: (docs/design.md §6).  STEP text compresses about 5-10 times (common practice, no source),
+#: so a real model fits; a zip bomb (the issue measured 1 MB -> 1.07 GB) does not.
+DEFAULT_MAX_MODEL_MB = 1000.0
+#: Bytes read from a zip member at a time while it is extracted.
+_CHUNK = 1 << 20
+_MIB = 1024 * 1024
 
 
 def supported_schema(schema: str) -> bool:
@@ -40,17 +54,113 @@ def _first_line(path: Path) -> str:
         return fh.read(64).decode("latin-1", errors="replace")
 
 
-def open_model(path: str | Path) -> ifcopenshell.file:
+def max_model_bytes(environ: Mapping[str, str] | None = None) -> int:
+    """The largest size an ``.ifczip`` may expand to, bytes (``STANCHION_MAX_MODEL_MB``).
+
+    Args:
+        environ: the environment to read (default ``os.environ``).
+
+    Raises:
+        ModelReadError: the variable is not a positive, finite number of MiB.
+    """
+    env = os.environ if environ is None else environ
+    text = env.get(MAX_MODEL_MB_ENV, "").strip()
+    if not text:
+        return int(DEFAULT_MAX_MODEL_MB * _MIB)
+    try:
+        value = float(text)
+    except ValueError:
+        value = float("nan")
+    if not (0 < value < float("inf")):
+        raise ModelReadError(f"{MAX_MODEL_MB_ENV}={text!r}: expected a positive number of MiB")
+    return int(value * _MIB)
+
+
+def _zip_member(zf: zipfile.ZipFile, label: str) -> zipfile.ZipInfo:
+    """The one IFC file (``.ifc`` or ``.ifcxml``) of an archive; other files are ignored."""
+    members = [i for i in zf.infolist()
+               if not i.is_dir() and Path(i.filename).suffix.lower() in (".ifc", ".ifcxml")]
+    if not members:
+        raise ModelReadError(f"cannot read {label}: the archive holds no .ifc or .ifcxml file")
+    if len(members) > 1:
+        names = ", ".join(i.filename for i in members[:3]) + (", ..." if len(members) > 3
+                                                              else "")
+        raise ModelReadError(f"cannot read {label}: the archive holds {len(members)} IFC "
+                             f"files ({names}); expected one")
+    return members[0]
+
+
+def _extract(path: Path, label: str, folder: Path, limit: int) -> Path:
+    """Stream the archive's one IFC file into ``folder``, stopping at ``limit`` bytes."""
+    too_big = (f"cannot read {label}: the model expands beyond {limit / _MIB:g} MiB "
+               f"(the limit, {MAX_MODEL_MB_ENV})")
+    try:
+        with zipfile.ZipFile(path) as zf:
+            info = _zip_member(zf, label)
+            if info.file_size > limit:
+                raise ModelReadError(too_big)
+            target = folder / ("model" + Path(info.filename).suffix.lower())
+            written = 0
+            with zf.open(info) as src, target.open("wb") as dst:
+                while chunk := src.read(_CHUNK):
+                    written += len(chunk)
+                    if written > limit:
+                        raise ModelReadError(too_big)
+                    dst.write(chunk)
+            return target
+    except (zipfile.BadZipFile, zipfile.LargeZipFile, RuntimeError, NotImplementedError,
+            EOFError, ValueError) as exc:  # damaged, encrypted, unsupported compression
+        detail = str(exc).strip().splitlines()[0] if str(exc).strip() else type(exc).__name__
+        raise ModelReadError(f"cannot read {label}: not a usable zip archive ({detail})"
+                             ) from None
+    except OSError as exc:
+        raise ModelReadError(f"cannot read {label}: {exc.strerror or exc}") from None
+
+
+def _open_zipped(path: Path, label: str, limit: int) -> ifcopenshell.file:
+    """Open an ``.ifczip``: extract its IFC file into a temporary folder, open it, remove it.
+
+    The folder is made in :func:`tempfile.gettempdir` (``TMPDIR``; a job worker's is inside
+    its job folder) and removed on every way out of here: a read, an error, the size limit,
+    or an exception raised by a signal handler (SIGINT, SIGTERM).
+    """
+    with tempfile.TemporaryDirectory(prefix="stanchion-unzip-") as folder:
+        return _open_file(_extract(path, label, Path(folder), limit), label)
+
+
+def _open_file(p: Path, label: str) -> ifcopenshell.file:
+    """``ifcopenshell.open`` with its errors as one ModelReadError line."""
+    try:
+        return ifcopenshell.open(str(p))
+    except Exception as exc:  # ifcopenshell raises several types (Error, SchemaError, ...)
+        text = str(exc).strip().splitlines()
+        detail = text[0] if text else type(exc).__name__
+        if "schema" in detail.lower():
+            found = re.search(r"schema:?\s*(\S+)", detail, flags=re.IGNORECASE)
+            name = found.group(1) if found else "?"
+            raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
+        raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
+
+
+def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
+               ) -> ifcopenshell.file:
     """Open an IFC model for reading.
+
+    An ``.ifczip`` must hold exactly one ``.ifc`` or ``.ifcxml`` file (other files in it are
+    ignored); it is extracted in chunks into a temporary folder that is always removed, and
+    refused once it expands beyond ``max_expanded_bytes``.
 
     Args:
         path: an ``.ifc`` (STEP physical file), ``.ifczip`` or ``.ifcxml`` file.
+        max_expanded_bytes: largest size an ``.ifczip`` may expand to (default
+            :func:`max_model_bytes`: ``STANCHION_MAX_MODEL_MB`` or 1000 MiB).
 
     Returns:
         The opened :class:`ifcopenshell.file`.  It is only read, never modified.
 
     Raises:
-        ModelReadError: the file does not exist, is not readable, is not an IFC file or uses a
+        ModelReadError: the file does not exist, is not readable, is not an IFC file, is an
+            archive without exactly one IFC file or expanding beyond the limit, or uses a
             schema other than IFC2X3 / IFC4 / IFC4X3; the message reads like
             ``"cannot read model.ifc: not an IFC file"``.
     """
@@ -67,16 +177,11 @@ def open_model(path: str | Path) -> ifcopenshell.file:
     suffix = p.suffix.lower()
     if suffix not in (".ifczip", ".ifcxml") and not head.lstrip().startswith("ISO-10303-21"):
         raise ModelReadError(f"cannot read {label}: not an IFC file")
-    try:
-        model = ifcopenshell.open(str(p))
-    except Exception as exc:  # ifcopenshell raises several types (Error, SchemaError, ...)
-        text = str(exc).strip().splitlines()
-        detail = text[0] if text else type(exc).__name__
-        if "schema" in detail.lower():
-            found = re.search(r"schema:?\s*(\S+)", detail, flags=re.IGNORECASE)
-            name = found.group(1) if found else "?"
-            raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
-        raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
+    if suffix == ".ifczip":
+        limit = max_model_bytes() if max_expanded_bytes is None else max_expanded_bytes
+        model = _open_zipped(p, label, limit)
+    else:
+        model = _open_file(p, label)
     schema = getattr(model, "schema_identifier", None) or model.schema
     if not supported_schema(schema):
         raise ModelReadError(f"cannot read {label}: {_unsupported(schema)}")
