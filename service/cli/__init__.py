@@ -3,20 +3,52 @@
 Each verb lives in its own module of this package (``check``, ``suggest``, ``serve``,
 ``demo``) exposing ``add_parser(subparsers)``
 that registers the verb with ``func=`` set.  Exit codes: 0 every member passes; 1 any member
-fails or is not checked; 2 unusable input (one line on stderr, nothing written).
+fails or is not checked; 2 unusable input (one line on stderr, nothing written); 130 when
+interrupted (SIGINT, Ctrl-C) and 143 when terminated (SIGTERM), after the temporary files of
+unfinished writes are removed (one line on stderr).
 """
 
 from __future__ import annotations
 
 import argparse
 import importlib
+import signal
 import sys
+import threading
 from collections.abc import Sequence
+from types import FrameType
 
 from stanchion.service.errors import EXIT_BAD_INPUT, InputError
 
 #: The verbs, one module each in this package; each exposes ``add_parser(subparsers)``.
 VERBS = ("check", "suggest", "serve", "demo")
+#: Exit codes when interrupted (SIGINT) and terminated (SIGTERM): 128 + the signal number,
+#: as a shell reports a process ended by that signal (common practice, no source).
+EXIT_INTERRUPTED, EXIT_TERMINATED = 128 + signal.SIGINT, 128 + signal.SIGTERM
+
+
+class Terminated(BaseException):
+    """Raised in the main thread on SIGTERM, so every ``finally`` and cleanup runs.
+
+    A :class:`BaseException` like :class:`KeyboardInterrupt`: ``except Exception`` handlers do
+    not swallow it; :func:`stanchion.service.reports.files.write_atomic` removes its
+    temporary file and an ``.ifczip``'s extraction folder is removed on the way out.
+    """
+
+
+def _terminate(signum: int, frame: FrameType | None) -> None:
+    raise Terminated
+
+
+def _run(args: argparse.Namespace) -> int:
+    """Run the verb with SIGTERM raising :class:`Terminated` (``serve``: uvicorn's own)."""
+    if args.command == "serve" or threading.current_thread() is not threading.main_thread():
+        return int(args.func(args))  # uvicorn handles SIGTERM itself (graceful shutdown)
+    previous = signal.signal(signal.SIGTERM, _terminate)
+    try:
+        return int(args.func(args))
+    finally:
+        signal.signal(signal.SIGTERM, previous)
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -39,13 +71,16 @@ def main(argv: Sequence[str] | None = None) -> int:
     """Run one verb and return its exit code."""
     args = build_parser().parse_args(argv)
     try:
-        return int(args.func(args))
+        return _run(args)
     except InputError as exc:
         print(f"stanchion: {exc}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("stanchion: interrupted", file=sys.stderr)
-        return 130
+        return EXIT_INTERRUPTED
+    except Terminated:
+        print("stanchion: terminated", file=sys.stderr)
+        return EXIT_TERMINATED
 
 
 def run() -> None:  # pragma: no cover - console script wrapper
