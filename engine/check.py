@@ -73,11 +73,14 @@ class CheckResults:
 
 #: Why a member cannot be checked, in the order the tests apply (a member gets the first that
 #: applies); :func:`_not_checked_reasons` builds one mask row per entry, in this order.
+#: ``lx`` is the member length unless given apart: "no length" when neither is known; a bad
+#: value is named "unbraced length x" (a members request names a bad ``length`` itself,
+#: :func:`stanchion.service.members_check.members_from_request`).
 _REASONS = (
     "no usable section",
     "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)",
     "no yield strength", "yield strength must be a finite number greater than zero",
-    "no length", "length must be a finite number greater than zero",
+    "no length", "unbraced length x must be a finite number greater than zero",
     "no unbraced length y", "unbraced length y must be a finite number greater than zero",
     "no unbraced length z", "unbraced length z must be a finite number greater than zero",
     "effective length factor kx must be a finite number greater than zero",

@@ -227,6 +227,11 @@ def members_from_request(req: MembersRequest) -> MemberTable:
     loads = np.stack([_floats([d.get(t) for d in loads_of]) for t in LOAD_TYPES], axis=1) * fF
     length = length * fL
     lx, ly, lz = (lx * fL, ly * fL, lz * fL)
+    # A bad length given is named "length", the field given, even where lx, ly and lz are
+    # all given (the engine names a bad lx "unbraced length x"; docs/design.md §2).
+    bad_length = ~np.isnan(length) & ~(np.isfinite(length) & (length > 0))
+    for i in np.flatnonzero(bad_length):
+        reasons[i] = reasons[i] or "length must be a finite number greater than zero"
     Fy = fy * fS
     grades = list(map(_grade_item, fields))
     if grades.count(None) != len(grades):

@@ -273,6 +273,8 @@ def load_members_request(path: Path, method: str | None = None) -> MembersReques
             f"cannot read {path}: not valid JSON (line {exc.lineno}, column {exc.colno}: "
             f"{exc.msg})"
         ) from None
+    except RecursionError:  # a members request is at most a few levels deep
+        raise InputError(f"cannot read {path}: JSON nested too deeply") from None
     if isinstance(data, dict) and method:
         data["design_method"] = method
     try:

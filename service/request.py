@@ -3,10 +3,11 @@
 from __future__ import annotations
 
 from collections import Counter
-from typing import Literal, get_args
+from typing import Annotated, Literal, get_args
 
-from pydantic import BaseModel, ConfigDict, Field, field_validator, model_validator
+from pydantic import BaseModel, ConfigDict, Field, Strict, field_validator, model_validator
 
+from stanchion.engine.catalog import normalize_designation
 from stanchion.engine.members import LOAD_TYPES
 from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
 
@@ -19,6 +20,17 @@ for _alias, _table in ((ForceUnit, FORCE_UNITS), (LengthUnit, LENGTH_UNITS),
                        (StressUnit, STRESS_UNITS)):
     if set(get_args(_alias)) != set(_table):  # pragma: no cover - a unit added on one side
         raise ImportError(f"unit names out of step with stanchion.engine.units: {_alias}")
+#: A number of the request: a JSON number, never a boolean (``true`` is not 1) nor a string;
+#: pydantic's strict mode per field, so refusing costs nothing on the hot path.  An integer
+#: is taken as a float; NaN and infinities are refused by ``allow_inf_nan=False``.
+Number = Annotated[float, Strict()]
+#: A whole number of the request, never a boolean.
+Count = Annotated[int, Strict()]
+#: Most entries a member's ``candidates`` list may hold (docs/design.md §2; our choice): far
+#: more than a list written by hand needs (the catalog has 14 families; ``W14`` names one
+#: depth of one), small enough that one request cannot make suggestions cost seconds of
+#: server time (100,000 entries took 14 s, issue 13).
+MAX_CANDIDATES = 200
 ProfileShape = Literal["I", "RECT_HOLLOW", "CIRC_HOLLOW", "T", "U", "RECT", "CIRCLE"]
 
 
@@ -37,7 +49,7 @@ class Units(_Strict):
 
 LoadType = Literal[LOAD_TYPES]  # type: ignore[valid-type]
 #: Axial service load effects by type (a plain mapping: validated faster than a model).
-Loads = dict[LoadType, float | None]
+Loads = dict[LoadType, Number | None]
 
 
 class Profile(_Strict):
@@ -55,15 +67,15 @@ class Profile(_Strict):
 
     shape: ProfileShape
     unit: LengthUnit | None = None
-    d: float | None = Field(None, gt=0)
-    bf: float | None = Field(None, gt=0)
-    tw: float | None = Field(None, gt=0)
-    tf: float | None = Field(None, gt=0)
-    r: float | None = Field(None, ge=0)
-    h: float | None = Field(None, gt=0)
-    b: float | None = Field(None, gt=0)
-    t: float | None = Field(None, gt=0)
-    D: float | None = Field(None, gt=0)
+    d: Number | None = Field(None, gt=0)
+    bf: Number | None = Field(None, gt=0)
+    tw: Number | None = Field(None, gt=0)
+    tf: Number | None = Field(None, gt=0)
+    r: Number | None = Field(None, ge=0)
+    h: Number | None = Field(None, gt=0)
+    b: Number | None = Field(None, gt=0)
+    t: Number | None = Field(None, gt=0)
+    D: Number | None = Field(None, gt=0)
 
     @model_validator(mode="after")
     def _has_dimensions(self) -> Profile:
@@ -90,30 +102,44 @@ class Member(_Strict):
         "'A500 Gr. C', 'A1085', 'A992', 'S355J2H EN 10210': decides a tube's design wall "
         "(AISC 360-22 §B4.2; without it, 0.93 t with a message) and, when fy is absent, "
         "gives the specified minimum yield stress (stated in the member's messages)")
-    fy: float | None = Field(
+    fy: Number | None = Field(
         None, description="yield stress, stress unit; absent: from grade (if it names one)")
-    length: float | None = None
-    kx: float = 1.0
-    ky: float = 1.0
-    kz: float = 1.0
-    lx: float | None = None
-    ly: float | None = None
-    lz: float | None = None
+    length: Number | None = None
+    kx: Number = 1.0
+    ky: Number = 1.0
+    kz: Number = 1.0
+    lx: Number | None = None
+    ly: Number | None = None
+    lz: Number | None = None
     loads: Loads | None = Field(
         None, description="axial service load effects by type (D, L, Lr, S, R, W, E), force "
         "unit, compression positive; W and E are reversible; absent or null: none")
-    required_strength: float | None = None
+    required_strength: Number | None = None
     candidates: list[str] | None = Field(
-        None, description="families (W12, HSS) or designations to suggest sections from")
-    max_utilization: float | None = Field(
+        None, max_length=MAX_CANDIDATES,
+        description=f"families (W12, HSS) or designations to suggest sections from; at most "
+        f"{MAX_CANDIDATES}, repeats (as designations compare: case and spaces ignored) dropped")
+    max_utilization: Number | None = Field(
         None, gt=0, description="reserve margin for suggestions (default 1.0)")
+
+    @field_validator("candidates")
+    @classmethod
+    def _distinct_candidates(cls, v: list[str] | None) -> list[str] | None:
+        # The first spelling of each designation or family is kept, in the order given.
+        if v is None or len(v) < 2:
+            return v
+        keys = list(map(normalize_designation, v))
+        if len(set(keys)) == len(keys):
+            return v
+        first = dict(zip(reversed(keys), reversed(v), strict=True))  # the first spelling wins
+        return [first[k] for k in dict.fromkeys(keys)]
 
 
 class CombinationSpec(_Strict):
     """A custom load combination: factors by load type."""
 
     name: str = Field(min_length=1)
-    factors: dict[str, float]
+    factors: dict[str, Number]
 
     @field_validator("factors")
     @classmethod
@@ -131,9 +157,9 @@ class CombinationSpec(_Strict):
 class SelectionOptions(_Strict):
     """Limits for section suggestions (members that carry ``candidates``)."""
 
-    min_depth: float | None = Field(None, ge=0, description="smallest nominal depth, in")
-    max_depth: float | None = Field(None, gt=0, description="largest nominal depth, in")
-    max_suggestions: int = Field(5, ge=1, le=100)
+    min_depth: Number | None = Field(None, ge=0, description="smallest nominal depth, in")
+    max_depth: Number | None = Field(None, gt=0, description="largest nominal depth, in")
+    max_suggestions: Count = Field(5, ge=1, le=100)
 
 
 class MembersRequest(_Strict):
@@ -150,8 +176,8 @@ class MembersRequest(_Strict):
     )
     detail: bool = Field(False, description="add every combination's value to each member")
     selection: SelectionOptions = Field(default_factory=SelectionOptions)
-    E: float | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
-    G: float | None = Field(None, gt=0, description="shear modulus, stress unit")
+    E: Number | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
+    G: Number | None = Field(None, gt=0, description="shear modulus, stress unit")
 
     @field_validator("design_method", mode="before")
     @classmethod

@@ -47,7 +47,8 @@ def _bad(column: str, value: float, n: int = 3) -> dict:
     (_bad("Fy", np.nan), "no yield strength"),
     (_bad("Fy", 0.0), "yield strength must be a finite number greater than zero"),
     (_bad("lx", np.nan), "no length"),
-    (_bad("lx", -1.0), "length must be a finite number greater than zero"),
+    # A bad lx is named "unbraced length x" (issue 13: "lx": -5 was reported as "length"):
+    (_bad("lx", -1.0), "unbraced length x must be a finite number greater than zero"),
     (_bad("ly", np.nan), "no unbraced length y"),
     (_bad("lz", 0.0), "unbraced length z must be a finite number greater than zero"),
     (_bad("kx", 0.0), "effective length factor kx must be a finite number greater than zero"),
@@ -62,7 +63,7 @@ def _bad(column: str, value: float, n: int = 3) -> dict:
      "required strength must be compression (zero or positive)"),
     # Infinite numbers (a JSON 1e400, an IFC real out of range) never check as "pass":
     (_bad("Fy", np.inf), "yield strength must be a finite number greater than zero"),
-    (_bad("lx", np.inf), "length must be a finite number greater than zero"),
+    (_bad("lx", np.inf), "unbraced length x must be a finite number greater than zero"),
     (_bad("ky", np.inf), "effective length factor ky must be a finite number greater than zero"),
     ({"E": np.array([29000.0, np.inf, 29000.0])},
      "E and G must be finite numbers greater than zero"),

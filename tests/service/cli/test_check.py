@@ -96,6 +96,13 @@ def test_method_option_overrides_the_file(tmp_path) -> None:
         (json.dumps([1, 2]), "request"),
         (json.dumps({"members": [{"id": "A"}, {"id": "A"}]}), "unique"),
         (json.dumps({"design_method": "WSD", "members": [{"id": "A"}]}), "design_method"),
+        # issue 13: a boolean is not a number ("fy": true was taken as 1 ksi) ...
+        (json.dumps({"members": [{"id": "A", "fy": True}]}), "members.0.fy"),
+        # ... a candidate list has a cap (MAX_CANDIDATES, 200, docs/design.md §2) ...
+        (json.dumps({"members": [{"id": "A", "candidates": ["W14"] * 201}]}),
+         "members.0.candidates"),
+        # ... and a file nested 1,000 levels deep gave a RecursionError traceback.
+        ('{"members": ' + "[" * 1000 + "]" * 1000 + "}", "nested too deeply"),
     ],
 )
 def test_malformed_file_exits_2_with_one_line_and_writes_nothing(tmp_path, capsys, content,

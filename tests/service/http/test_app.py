@@ -113,16 +113,25 @@ def test_checks_refuses_malformed_requests_as_a_whole(client, payload, loc) -> N
     assert loc in [d["loc"] for d in r.json()["details"]]
 
 
-@pytest.mark.parametrize(("text", "loc"), [
-    ('"fy": 1e400', "members.0.fy"),  # parses as infinity
-    ('"loads": {"D": 1e400}', "members.0.loads.D"),
-    ('"loads": {"D": "NaN"}', "members.0.loads.D"),
+@pytest.mark.parametrize(("text", "loc", "msg"), [
+    ('"fy": 1e400', "members.0.fy", "finite"),  # parses as infinity
+    ('"loads": {"D": 1e400}', "members.0.loads.D", "finite"),
+    ('"loads": {"D": "NaN"}', "members.0.loads.D", "valid"),  # a string is not a number
+    # Booleans are not numbers (issue 13: "fy": true was taken as 1 ksi); the field is named.
+    ('"fy": true', "members.0.fy", "valid"),
+    ('"lx": false', "members.0.lx", "valid"),
+    ('"loads": {"D": true}', "members.0.loads.D", "valid"),
+    ('"fy": 50}], "E": true, "x": [{', "E", "valid"),
+    ('"fy": 50}], "selection": {"max_suggestions": true}, "x": [{',
+     "selection.max_suggestions", "valid"),
 ])
-def test_checks_refuses_numbers_that_are_not_finite(client, text, loc) -> None:
+def test_checks_refuses_numbers_that_are_not_finite_numbers(client, text, loc, msg) -> None:
     body = '{"members": [{"id": "C-1", "section": "W14X48", "length": 16, ' + text + "}]}"
     r = client.post("/v1/checks", content=body, headers={"content-type": "application/json"})
     assert r.status_code == 422
-    assert r.json()["details"] == [{"loc": loc, "msg": "Input should be a finite number"}]
+    assert loc in [d["loc"] for d in r.json()["details"]]
+    detail = next(d for d in r.json()["details"] if d["loc"] == loc)
+    assert detail["msg"].startswith(f"Input should be a {msg}")
 
 
 def test_checks_not_json(client: TestClient) -> None:
