@@ -78,3 +78,51 @@ class PlanPositions:
             return float(matrix[0, 3]), float(matrix[1, 3])
         except Exception:  # grid / linear placements this reader does not evaluate
             return math.nan, math.nan
+
+
+def _predefined_label(value: str | None) -> str:
+    return "no predefined type" if value in (None, "NOTDEFINED") else str(value)
+
+
+def found_instead(model: ifcopenshell.file, include_members: bool) -> list[str]:
+    """What a model without a column to read holds that could have been one.
+
+    Counted once over the model's own indices (no per-element scans of the file):
+    IfcMember by predefined type (own, else its type's), IfcStructuralCurveMember (analysis
+    members), IfcBeam, and IfcColumnType with no occurrence.
+
+    Args:
+        model: an opened model.
+        include_members: the run read STRUT / POST IfcMembers too (then every IfcMember
+            counted here is of another type).
+
+    Returns:
+        Phrases such as ``"3 IfcMember (2 BRACE, 1 no predefined type)"``, most telling
+        first; empty when the model holds none of them.
+    """
+    import ifcopenshell.util.element
+
+    found: list[str] = []
+    members = list(model.by_type("IfcMember"))
+    if members:
+        kinds: dict[str, int] = {}
+        for m in members:
+            label = _predefined_label(_predefined(m, ifcopenshell.util.element.get_type(m)))
+            kinds[label] = kinds.get(label, 0) + 1
+        parts = ", ".join(f"{n} {k}" for k, n in sorted(kinds.items(), key=lambda kv: -kv[1]))
+        hint = ("" if include_members or not any(k in MEMBER_TYPES for k in kinds)
+                else "; --include-members reads STRUT and POST")
+        found.append(f"{len(members)} IfcMember ({parts}{hint})")
+    analysis = len(model.by_type("IfcStructuralCurveMember"))
+    if analysis:
+        found.append(f"{analysis} IfcStructuralCurveMember (analysis members, not read "
+                     "without a physical element)")
+    beams = len(model.by_type("IfcBeam"))
+    if beams:
+        found.append(f"{beams} IfcBeam")
+    typed = {get(rel, "RelatingType").id() for rel in model.by_type("IfcRelDefinesByType")
+             if get(rel, "RelatingType") is not None and get(rel, "RelatedObjects")}
+    unused = sum(1 for t in model.by_type("IfcColumnType") if t.id() not in typed)
+    if unused:
+        found.append(f"{unused} IfcColumnType without occurrences")
+    return found

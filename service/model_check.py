@@ -20,6 +20,7 @@ from stanchion.engine.check import CheckResults, check_members
 from stanchion.engine.members import MemberTable
 from stanchion.engine.selection import suggestion_family
 from stanchion.engine.units import UNIT_SYSTEMS, length_factor
+from stanchion.ifc_bridge.elements import found_instead
 from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import ReadResult, read_columns
@@ -97,6 +98,23 @@ def _add_extra_fields(report: dict[str, Any], members: MemberTable,
                 row[key] = round(value, 4) if math.isfinite(value) else None
 
 
+def no_columns_message(name: str, model: ifcopenshell.file, include_members: bool) -> str:
+    """The one line refusing a model with no column to read, naming what it has instead.
+
+    A model in which no column is found is unusable input (docs/design.md §4), never a pass.
+
+    Args:
+        name: the model's name as the user knows it.
+        model: the opened model.
+        include_members: STRUT / POST IfcMembers were read too.
+    """
+    wanted = "IfcColumn or STRUT / POST IfcMember" if include_members else "IfcColumn"
+    found = found_instead(model, include_members)
+    instead = ("found instead: " + "; ".join(found) if found else
+               "nor any IfcMember, IfcBeam, IfcStructuralCurveMember or IfcColumnType")
+    return f"no columns found in {name}: the model has no {wanted}; {instead}"
+
+
 def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelCheck:
     """Read every column of an IFC model, check it, suggest sections, build the report.
 
@@ -106,7 +124,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
         progress: told about long phases.
 
     Raises:
-        InputError: an unreadable model or load table.
+        InputError: an unreadable model or load table, or a model with no column to read
+            (:func:`no_columns_message`).
     """
     units = options.units or "us"
     try:
@@ -116,6 +135,9 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     with progress.phase(f"reading {path.name}"):
         model, read = _read(path, options.include_members, options.loads_table)
     members = read.members
+    if not len(members):
+        raise InputError(no_columns_message(options.source_name or path.name, model,
+                                            options.include_members))
     progress.consider(items=len(members))
     with progress.phase(f"checking {len(members):,} members"):
         results = check_members(members, options.method or "LRFD")

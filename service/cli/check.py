@@ -2,8 +2,8 @@
 
 Exit codes (docs/design.md §4): 0 every member passes; 1 any member fails or is not checked
 (``--allow-not-checked``: not-checked members are warnings; ``--fail-on new-failures``: only
-regressions against ``--baseline`` count); 2 unusable input, one line on stderr, nothing
-written.
+regressions against ``--baseline`` count), and always 1 when no member got a verdict; 2
+unusable input (a model with no column included), one line on stderr, nothing written.
 """
 
 from __future__ import annotations
@@ -20,19 +20,27 @@ from stanchion.service.cli.suggest import family_list
 from stanchion.service.errors import EXIT_FAILURES, EXIT_OK, InputError, validation_message
 from stanchion.service.pipeline import CheckOptions, OutputPaths, check
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, regressions
-from stanchion.service.reports.terminal import format_run, warnings
+from stanchion.service.reports.terminal import (
+    format_run,
+    nothing_checked,
+    nothing_checked_line,
+    warnings,
+)
 
 FAIL_ON = ("any", "new-failures")
 
 
 def exit_code(report: dict[str, Any], allow_not_checked: bool = False, fail_on: str = "any") -> int:
-    """The exit code of a finished check.
+    """The exit code of a finished check (docs/design.md §4).
 
-    ``fail_on="any"``: 1 when any member fails or is not checked (not-checked members allowed
-    on request), else 0.  ``fail_on="new-failures"``: 1 only for regressions against the
-    baseline (``report["changes"]``): new failures, and newly not-checked members unless
-    allowed.
+    A run in which no member got a verdict (none passed, none failed) is 1 whatever the
+    options: nothing checked is never a green run.  Otherwise ``fail_on="any"``: 1 when any
+    member fails or is not checked (not-checked members allowed on request), else 0.
+    ``fail_on="new-failures"``: 1 only for regressions against the baseline
+    (``report["changes"]``): new failures, and newly not-checked members unless allowed.
     """
+    if nothing_checked(report):
+        return EXIT_FAILURES
     if fail_on == "new-failures":
         changes = report.get("changes")
         if changes is None:
@@ -84,6 +92,8 @@ def run_check(args: argparse.Namespace) -> int:
                          allow_not_checked=args.allow_not_checked))
         for line in warnings(report, args.allow_not_checked):
             print(f"stanchion: warning: {line}", file=sys.stderr)
+    if nothing_checked(report):  # exit 1 whatever the options (docs/design.md §4)
+        print(f"stanchion: {nothing_checked_line(report)}", file=sys.stderr)
     return code
 
 
@@ -92,8 +102,8 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     c = sub.add_parser(
         "check", help="check the members of a members JSON file or IFC model",
         description="Check the columns of an IFC model (.ifc, .ifczip, .ifcxml) or a members "
-        "JSON file. Exit 0: every member passes; 1: a member fails or is not checked; 2: "
-        "unusable input.")
+        "JSON file. Exit 0: every member passes; 1: a member fails or is not checked, or "
+        "nothing was checked; 2: unusable input (a model with no column included).")
     c.add_argument("input", help="members .json file or IFC model")
     c.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"],
                    help="design method (overrides the file; default LRFD)")

@@ -57,9 +57,30 @@ def storey_table(report: dict) -> list[str]:
     return lines
 
 
+def nothing_checked(report: dict) -> bool:
+    """True when no member got a verdict (none passed, none failed): never a green run.
+
+    Such a run exits 1 whatever ``--allow-not-checked`` and ``--fail-on`` say
+    (docs/design.md §4).
+    """
+    s = report["summary"]
+    return not (s["pass"] or s["fail"])
+
+
+def nothing_checked_line(report: dict) -> str:
+    """The line saying that nothing was checked (stderr and the closing line)."""
+    n = report["summary"]["not_checked"]
+    if n == 1:
+        return "nothing was checked: the only member is not checked"
+    return (f"nothing was checked: all {n} members are not checked" if n
+            else "nothing was checked: no members")
+
+
 def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False) -> str:
     """The closing line; agrees with :func:`stanchion.service.cli.check.exit_code`."""
     s = report["summary"]
+    if nothing_checked(report):
+        return f"result: FAIL ({nothing_checked_line(report)})"
     if fail_on == "new-failures" and "changes" in report:
         n = regressions(report["changes"], allow_not_checked)
         return (f"result: FAIL ({n} regressions against the baseline)" if n
