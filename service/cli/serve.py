@@ -40,7 +40,8 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
         "serve", help="run the HTTP service",
         description="Run the HTTP service. Settings come from the environment: "
         "STANCHION_API_TOKEN, STANCHION_DATA_DIR (default ./stanchion-data), "
-        "STANCHION_MAX_UPLOAD_MB (200), STANCHION_JOB_TIMEOUT_S (600), "
+        "STANCHION_MAX_UPLOAD_MB (200), STANCHION_MAX_MODEL_MB (5 x the upload limit), "
+        "STANCHION_JOB_TIMEOUT_S (600), "
         "STANCHION_MAX_WORKERS (1).",
     )
     s.add_argument("--host", default="127.0.0.1", help="address to listen on (127.0.0.1)")

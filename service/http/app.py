@@ -58,7 +58,8 @@ def create_app(settings: Settings | None = None, *,
     async def lifespan(app: FastAPI) -> AsyncIterator[None]:
         store = JobStore(settings.data_dir)
         runner = JobRunner(store, max_workers=settings.max_workers,
-                           timeout_s=settings.job_timeout_s, command=worker_command)
+                           timeout_s=settings.job_timeout_s, command=worker_command,
+                           max_model_mb=settings.model_limit_mb)
         app.state.store, app.state.runner = store, runner
         _warm_up()
         runner.start()

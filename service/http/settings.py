@@ -12,6 +12,8 @@ Environment variables (docs/design.md §6):
 - ``STANCHION_DATA_DIR``: where the job database and job files live (default
   ``./stanchion-data``).
 - ``STANCHION_MAX_UPLOAD_MB``: largest request body accepted, in MiB (default 200).
+- ``STANCHION_MAX_MODEL_MB``: largest size an uploaded ``.ifczip`` may expand to, in MiB
+  (default five times ``STANCHION_MAX_UPLOAD_MB``: 1000); a larger one fails its job.
 - ``STANCHION_JOB_TIMEOUT_S``: a model job still running after this many seconds is
   stopped and marked failed (default 600).
 - ``STANCHION_MAX_WORKERS``: how many model jobs run at the same time, each in its own
@@ -40,6 +42,8 @@ class Settings(BaseSettings):
         api_token: bearer token required on every endpoint but health; ``None``: no auth.
         data_dir: folder holding ``jobs.sqlite3`` and one sub-folder per job.
         max_upload_mb: largest request body, MiB (model upload including its load table).
+        max_model_mb: largest size an ``.ifczip`` may expand to, MiB; ``None``: five times
+            ``max_upload_mb`` (:attr:`model_limit_mb`).
         job_timeout_s: longest a model job may run before it is stopped and failed.
         max_workers: model jobs processed at the same time (one process each).
     """
@@ -50,6 +54,7 @@ class Settings(BaseSettings):
     data_dir: Path = Path("stanchion-data")
     # finite: an infinite upload limit cannot become a byte count (every request answered 500)
     max_upload_mb: float = Field(200.0, gt=0, allow_inf_nan=False)
+    max_model_mb: float | None = Field(None, gt=0, allow_inf_nan=False)
     job_timeout_s: float = Field(600.0, gt=0, allow_inf_nan=False)
     max_workers: int = Field(1, ge=1, le=16)
 
@@ -62,6 +67,15 @@ class Settings(BaseSettings):
     def max_upload_bytes(self) -> int:
         """``max_upload_mb`` in bytes (1 MiB = 1,048,576 bytes)."""
         return int(self.max_upload_mb * 1024 * 1024)
+
+    @property
+    def model_limit_mb(self) -> float:
+        """The ``.ifczip`` expanded-size limit, MiB: ``max_model_mb`` or 5 × the upload limit.
+
+        Five times: STEP text compresses about 5-10 times (common practice, no source), and
+        the default, 1000 MiB, is the command line's (``ifc_bridge.model``).
+        """
+        return self.max_model_mb if self.max_model_mb is not None else 5 * self.max_upload_mb
 
     @classmethod
     def env_name(cls, field: str) -> str:

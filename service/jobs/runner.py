@@ -14,6 +14,7 @@ import fcntl
 import json
 import logging
 import os
+import shutil
 import signal
 import subprocess
 import sys
@@ -27,6 +28,8 @@ from stanchion.service.jobs.store import (
     INTERRUPTED_BY_SHUTDOWN,
     LOG_FILE,
     RESULT_FILE,
+    SCRATCH_DIR,
+    STOPPED_FILE,
     Job,
     JobStore,
 )
@@ -52,13 +55,56 @@ def worker_command() -> list[str]:
 #: Environment variable telling a worker its CPU-time limit (seconds), a safety net that
 #: holds even when the server that should kill it has died.
 CPU_LIMIT_ENV = "STANCHION_WORKER_CPU_LIMIT_S"
+#: Environment variable telling a worker its server's process id: a worker whose parent is
+#: no longer that process ends at once (docs/design.md §6, "Jobs").
+SERVER_PID_ENV = "STANCHION_SERVER_PID"
+#: The expanded-size limit of an ``.ifczip`` (``ifc_bridge.model.MAX_MODEL_MB_ENV``).
+MAX_MODEL_MB_ENV = "STANCHION_MAX_MODEL_MB"
 
 
-def _worker_env(timeout_s: float) -> dict[str, str]:
-    """The server's environment as it is, plus the worker's CPU-time limit."""
+def _worker_env(timeout_s: float, job_dir: os.PathLike[str] | str,
+                max_model_mb: float | None = None) -> dict[str, str]:
+    """The server's environment as it is, plus what the worker is told.
+
+    That is its CPU-time limit, the server's pid, ``TMPDIR`` inside the job folder (so the
+    server can remove whatever a killed worker left) and the ``.ifczip`` size limit.
+    """
     env = dict(os.environ)
     env[CPU_LIMIT_ENV] = str(int(timeout_s) + 30)
+    env[SERVER_PID_ENV] = str(os.getpid())
+    env["TMPDIR"] = os.path.join(job_dir, SCRATCH_DIR)
+    if max_model_mb is not None:
+        env[MAX_MODEL_MB_ENV] = repr(float(max_model_mb))
     return env
+
+
+def clean_job_dir(job_dir: os.PathLike[str] | str) -> None:
+    """Remove what an ended worker may have left: its ``TMPDIR`` and ``.*.tmp`` files.
+
+    A worker killed at the time limit (SIGKILL) cannot clean up after itself: an ``.ifczip``
+    half extracted, an output half written (``reports.files.write_atomic``).
+    """
+    folder = os.fspath(job_dir)
+    shutil.rmtree(os.path.join(folder, SCRATCH_DIR), ignore_errors=True)
+    try:
+        names = os.listdir(folder)
+    except OSError:
+        return
+    for name in names:
+        if name.startswith(".") and name.endswith(".tmp"):
+            try:
+                os.unlink(os.path.join(folder, name))
+            except OSError:
+                pass
+
+
+def mark_stopped(job_dir: os.PathLike[str] | str) -> None:
+    """Tell a worker that may still be alive that its job has been failed (best effort)."""
+    try:
+        with open(os.path.join(job_dir, STOPPED_FILE), "w", encoding="utf-8") as fh:
+            fh.write("stopped\n")
+    except OSError:
+        pass
 
 
 class JobRunner:
@@ -70,11 +116,15 @@ class JobRunner:
         timeout_s: a worker running longer is killed and its job failed.
         command: worker command line without the job folder (tests pass a stand-in).
         poll_s: how often the dispatcher looks at its processes, seconds.
+        max_model_mb: the ``.ifczip`` expanded-size limit given to workers, MiB (None: the
+            worker's environment or default decides).
     """
 
     def __init__(self, store: JobStore, *, max_workers: int = 1, timeout_s: float = 600.0,
-                 command: list[str] | None = None, poll_s: float = 0.05) -> None:
+                 command: list[str] | None = None, poll_s: float = 0.05,
+                 max_model_mb: float | None = None) -> None:
         self.store = store
+        self.max_model_mb = max_model_mb
         self.max_workers = max_workers
         self.timeout_s = timeout_s
         self.command = list(command) if command else worker_command()
@@ -106,6 +156,9 @@ class JobRunner:
             raise RuntimeError(
                 f"another stanchion server is using {self.store.data_dir}"
             ) from None
+        for job_id in self.store.running_ids():  # an earlier server's, its worker may live on
+            mark_stopped(self.store.job_dir(job_id))
+            clean_job_dir(self.store.job_dir(job_id))
         found = {
             "interrupted": self.store.fail_running(INTERRUPTED_BY_RESTART),
             "queued": self.store.count("queued"),
@@ -173,10 +226,14 @@ class JobRunner:
     def _spawn(self, job: Job) -> None:
         job_dir = self.store.job_dir(job.id)
         try:
+            (job_dir / SCRATCH_DIR).mkdir(exist_ok=True)
             logf = open(job_dir / LOG_FILE, "wb")  # noqa: SIM115
+            # Started from the dispatcher thread, which lives as long as the runner: a worker's
+            # parent-death signal (worker.py) fires when the thread that started it ends.
             proc = subprocess.Popen(
                 [*self.command, str(job_dir)], stdin=subprocess.DEVNULL,
-                stdout=logf, stderr=subprocess.STDOUT, env=_worker_env(self.timeout_s),
+                stdout=logf, stderr=subprocess.STDOUT,
+                env=_worker_env(self.timeout_s, job_dir, self.max_model_mb),
                 cwd=job_dir, start_new_session=True,
             )
         except OSError as exc:
@@ -193,6 +250,7 @@ class JobRunner:
                 code = r.proc.poll()
                 if code is None and now - r.started > self.timeout_s:
                     self._kill(job_id)
+                    mark_stopped(self.store.job_dir(job_id))
                     self.store.finish(job_id, "failed", error=(
                         f"stopped after {self.timeout_s:g} s, the time limit for a job "
                         "(STANCHION_JOB_TIMEOUT_S)"))
@@ -200,6 +258,7 @@ class JobRunner:
                 elif code is not None:
                     del self._running[job_id]
                     r.log.close()
+                    clean_job_dir(self.store.job_dir(job_id))
                     self._record(job_id, code)
 
     def _record(self, job_id: str, code: int) -> None:
@@ -236,3 +295,4 @@ class JobRunner:
         except subprocess.TimeoutExpired:
             log.error("worker %d of job %s did not end after SIGKILL", r.proc.pid, job_id)
         r.log.close()
+        clean_job_dir(self.store.job_dir(job_id))

@@ -43,6 +43,12 @@ REPORT_FILE = "report.json"
 MODEL_OUT_FILE = "checked.ifc"
 CSV_FILE = "report.csv"
 LOG_FILE = "worker.log"
+#: The worker's temporary folder (its ``TMPDIR``: an ``.ifczip`` is extracted there), removed
+#: by the server whenever the worker has ended.
+SCRATCH_DIR = "tmp"
+#: Written by the server when it fails a job whose worker may still be alive (killed at the
+#: time limit, interrupted by a restart): a worker finding it writes no result.
+STOPPED_FILE = "stopped"
 
 _SCHEMA = """
 CREATE TABLE IF NOT EXISTS jobs (
@@ -201,6 +207,15 @@ class JobStore:
         n = self._exec("DELETE FROM jobs WHERE id = ?", (job_id,))
         shutil.rmtree(self.job_dir(job_id), ignore_errors=True)
         return n == 1
+
+    def running_ids(self) -> list[str]:
+        """The ids of the jobs marked running."""
+        con = self._connect()
+        try:
+            rows = con.execute("SELECT id FROM jobs WHERE status = 'running'").fetchall()
+        finally:
+            con.close()
+        return [str(r["id"]) for r in rows]
 
     def fail_running(self, reason: str) -> int:
         """Fail every job marked running (after a restart); returns how many."""

@@ -13,10 +13,12 @@ folder, server-side only), never into ``result.json``.
 from __future__ import annotations
 
 import argparse
+import ctypes
 import json
 import logging
 import os
 import resource
+import signal
 import sys
 import traceback
 from collections.abc import Callable, Sequence
@@ -25,13 +27,14 @@ from typing import Any
 
 from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.service.errors import InputError
-from stanchion.service.jobs.runner import CPU_LIMIT_ENV
+from stanchion.service.jobs.runner import CPU_LIMIT_ENV, SERVER_PID_ENV
 from stanchion.service.jobs.store import (
     CSV_FILE,
     MODEL_OUT_FILE,
     PARAMS_FILE,
     REPORT_FILE,
     RESULT_FILE,
+    STOPPED_FILE,
 )
 from stanchion.service.pipeline import CheckOptions, OutputPaths, check
 from stanchion.service.reports.files import write_json
@@ -40,6 +43,11 @@ log = logging.getLogger("stanchion.worker")
 
 #: The check a job runs: (model, options, outputs) -> report.  Tests pass a stand-in.
 CheckModel = Callable[[Path, CheckOptions, OutputPaths], dict[str, Any]]
+
+#: ``prctl`` option: the signal this process gets when its parent dies (linux/prctl.h).
+PR_SET_PDEATHSIG = 1
+#: The result of a job the server has already failed: nothing is written.
+STOPPED = {"status": "failed", "error": "the job was stopped by the server"}
 
 
 def _is_input_error(exc: BaseException) -> bool:
@@ -76,6 +84,8 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
         The result written to ``result.json``.
     """
     job_dir = Path(job_dir)
+    if (job_dir / STOPPED_FILE).exists():
+        return dict(STOPPED)
     params = json.loads((job_dir / PARAMS_FILE).read_text(encoding="utf-8"))
     model = job_dir / params["model"]
     loads = job_dir / params["loads"] if params.get("loads") else None
@@ -102,8 +112,33 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
                      if isinstance(exc, ImportError)
                      else f"the model could not be processed ({type(exc).__name__})")
         result = {"status": "failed", "error": error}
+    if (job_dir / STOPPED_FILE).exists():  # failed meanwhile (time limit, server restart)
+        return dict(STOPPED)
     write_json(job_dir / RESULT_FILE, result)
     return result
+
+
+def die_with_server(environ: dict[str, str] | None = None) -> bool:
+    """End this worker when its server ends; False when the server is already gone.
+
+    On Linux the kernel sends SIGKILL to this process when its parent (the server's job
+    dispatcher thread) ends: ``prctl(PR_SET_PDEATHSIG, SIGKILL)``.  The parent may have died
+    before that call: then the parent is no longer the server whose pid the runner passed in
+    ``STANCHION_SERVER_PID``, and the caller ends at once.  Elsewhere only that comparison and
+    the CPU-time cap remain.
+
+    Args:
+        environ: the environment (default ``os.environ``).
+    """
+    env = os.environ if environ is None else environ
+    if sys.platform.startswith("linux"):
+        try:
+            libc = ctypes.CDLL(None, use_errno=True)
+            libc.prctl(PR_SET_PDEATHSIG, int(signal.SIGKILL), 0, 0, 0)
+        except (OSError, AttributeError):  # pragma: no cover - no prctl in this libc
+            pass
+    server = env.get(SERVER_PID_ENV, "")
+    return not server.isdigit() or os.getppid() == int(server)
 
 
 def _limit_self() -> None:
@@ -131,6 +166,9 @@ def main(argv: Sequence[str] | None = None, check: CheckModel | None = None) -> 
     args = p.parse_args(argv)
     logging.basicConfig(level=logging.INFO, stream=sys.stderr,
                         format="%(asctime)s %(levelname)s %(name)s: %(message)s")
+    if not die_with_server():
+        print("the server that started this worker has ended", file=sys.stderr)
+        return 3
     _limit_self()
     if not (args.job_dir / PARAMS_FILE).is_file():
         print(f"no {PARAMS_FILE} in {args.job_dir}", file=sys.stderr)

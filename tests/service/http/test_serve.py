@@ -16,7 +16,7 @@ from stanchion.service.jobs.store import JobStore
 @pytest.fixture
 def clean_env(monkeypatch, tmp_path: Path) -> Path:
     for name in ("STANCHION_API_TOKEN", "STANCHION_DATA_DIR", "STANCHION_MAX_UPLOAD_MB",
-                 "STANCHION_JOB_TIMEOUT_S", "STANCHION_MAX_WORKERS"):
+                 "STANCHION_JOB_TIMEOUT_S", "STANCHION_MAX_WORKERS", "STANCHION_MAX_MODEL_MB"):
         monkeypatch.delenv(name, raising=False)
     monkeypatch.chdir(tmp_path)
     return tmp_path
@@ -47,6 +47,8 @@ def test_serve_defaults_and_settings_from_env(clean_env, monkeypatch) -> None:
     # infinite: int(inf) bytes raised OverflowError on every request (each answered 500)
     ("STANCHION_MAX_UPLOAD_MB", "inf"), ("STANCHION_JOB_TIMEOUT_S", "inf"),
     ("STANCHION_MAX_UPLOAD_MB", "nan"),
+    ("STANCHION_MAX_MODEL_MB", "0"), ("STANCHION_MAX_MODEL_MB", "inf"),
+    ("STANCHION_MAX_MODEL_MB", "lots"),
 ])
 def test_serve_refuses_bad_settings(clean_env, monkeypatch, capsys, name, value) -> None:
     monkeypatch.setattr(uvicorn, "run", lambda *a, **k: pytest.fail("must not start"))
@@ -72,3 +74,21 @@ def test_serve_refuses_a_data_folder_in_use(clean_env, monkeypatch, capsys) -> N
 def test_empty_token_means_no_auth() -> None:
     assert Settings.from_env({"STANCHION_API_TOKEN": ""}).api_token is None
     assert Settings.from_env({}).api_token is None
+
+
+def test_model_size_limit_setting() -> None:
+    # 5 x the upload limit unless set (service/http/settings.py; docs/design.md §6); the
+    # default 1000 MiB is the command line's (ifc_bridge/model.py DEFAULT_MAX_MODEL_MB).
+    assert Settings.from_env({}).model_limit_mb == 1000
+    assert Settings.from_env({"STANCHION_MAX_UPLOAD_MB": "5"}).model_limit_mb == 25
+    assert Settings.from_env({"STANCHION_MAX_MODEL_MB": "50"}).model_limit_mb == 50
+
+
+def test_the_app_gives_its_runner_the_model_size_limit(tmp_path: Path) -> None:
+    from fastapi.testclient import TestClient
+
+    from stanchion.service.http.app import create_app
+
+    app = create_app(Settings(data_dir=tmp_path / "data", max_model_mb=42))
+    with TestClient(app):
+        assert app.state.runner.max_model_mb == 42

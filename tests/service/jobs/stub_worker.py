@@ -5,9 +5,12 @@ Run as ``python tests/service/jobs/stub_worker.py JOB_DIR``: it runs the real
 chosen by the first bytes of the uploaded file, so the tests can exercise every outcome
 without IFC parsing:
 
-``CRASH`` abort the process · ``HANG`` sleep for an hour · ``INPUT`` raise InputError naming
-the file's server path · ``BOOM`` raise RuntimeError · ``SLOW<s>`` sleep ``s`` seconds, then
-succeed · anything else: succeed, echoing the method, load table and size in the report.
+``CRASH`` abort the process · ``HANG`` sleep for an hour · ``FILL`` leave a file in the
+temporary folder and a half-written ``.report.json.*.tmp`` in the job folder, then hang ·
+``INPUT`` raise InputError naming the file's server path · ``BOOM`` raise RuntimeError ·
+``SLOW<s>`` sleep ``s`` seconds, then succeed · anything else: succeed, echoing the method,
+load table and size in the report.  Every run first writes its pid to ``stub.pid`` (and,
+for ``FILL``, the temporary file's path to ``stub.tmp``) in the job folder.
 """
 
 from __future__ import annotations
@@ -15,6 +18,7 @@ from __future__ import annotations
 import os
 import resource
 import sys
+import tempfile
 import time
 from pathlib import Path
 
@@ -28,6 +32,15 @@ def stand_in_check(path: Path, options: CheckOptions, outputs: OutputPaths) -> d
     method, loads_table = options.method, options.loads_table
     out_model, out_csv = outputs.model, outputs.csv
     data = Path(path).read_bytes()
+    job_dir = Path(path).parent
+    (job_dir / "stub.pid").write_text(str(os.getpid()))
+    if data.startswith(b"FILL"):
+        fd, scratch = tempfile.mkstemp(prefix="stanchion-unzip-")  # as an .ifczip extraction
+        os.write(fd, b"x" * 100_000)
+        os.close(fd)
+        (job_dir / ".report.json.abc.tmp").write_text("{")  # as write_atomic, half way
+        (job_dir / "stub.tmp").write_text(scratch)
+        time.sleep(3600)
     if data.startswith(b"CRASH"):
         os.abort()
     if data.startswith(b"HANG"):
