@@ -20,6 +20,7 @@ from __future__ import annotations
 
 import gc
 import math
+from collections import Counter
 from dataclasses import dataclass, field
 from pathlib import PurePath
 
@@ -397,6 +398,32 @@ def _section_reasons(r: _Row, resolution_reason: str | None) -> list[str]:
     return why
 
 
+def _repeated_global_ids(rows: list[_Row], reasons: list[str | None]) -> list[str]:
+    """Model-level messages for GlobalIds several elements share; those members not checked.
+
+    A GlobalId is an element's identity (reports, baselines and load tables are keyed by
+    it): elements sharing one are never checked, whatever else is wrong with them, and the
+    model gets one message per repeated id (docs/design.md §5).
+    """
+    counts = Counter(r.gid for r in rows)
+    if len(counts) == len(rows):  # the common case: one Counter, nothing else
+        return []
+    groups: dict[str, list[int]] = {}
+    for i, r in enumerate(rows):
+        if counts[r.gid] > 1:
+            groups.setdefault(r.gid, []).append(i)
+    messages = []
+    for gid, where in groups.items():
+        n = len(where)
+        why = f"GlobalId {gid} is used by {n} elements"
+        for i in where:
+            reasons[i] = why if reasons[i] is None else f"{why}; {reasons[i]}"
+        tags = ", ".join(f"#{rows[i].element.id()}" for i in where[:5])
+        messages.append(f"{why} ({tags}{', ...' if n > 5 else ''}): none of them is checked; "
+                        "give each element its own GlobalId")
+    return messages
+
+
 def read_columns(
     model: ifcopenshell.file,
     *,
@@ -463,6 +490,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
     for i, r in enumerate(rows):
         cols.add(i, r, res, reader, matched.by_member.get(i, {}) if matched is not None else None)
 
+    messages.extend(_repeated_global_ids(rows, cols.reasons))
     if matched is not None:
         messages.extend(matched.messages)
     messages.extend(reader.analysis.model_messages)

@@ -10,12 +10,15 @@ report as ``changes``:
 - ``utilization_changes``: members checked on both sides whose utilization moved by more than
   the threshold (an absolute difference: 0.05 is five percentage points).
 
-Every entry carries the id, name and both sides' status, utilization and section.
+Every entry carries the id, name and both sides' status, utilization and section.  Ids are
+the only key: a baseline or a report that repeats one (two IFC elements with one GlobalId) is
+refused, never matched by guess.
 """
 
 from __future__ import annotations
 
 import json
+from collections import Counter
 from pathlib import Path
 
 from stanchion.service.errors import InputError
@@ -80,9 +83,26 @@ def _entry(ident: str, before: dict | None, after: dict | None) -> dict:
     }
 
 
+def _refuse_repeated_ids(side: str, ids: list[str]) -> None:
+    """InputError naming the ids ``side`` repeats, if any (one set() when none repeats)."""
+    if len(set(ids)) == len(ids):
+        return
+    dup = sorted(i for i, n in Counter(ids).items() if n > 1)
+    more = f" and {len(dup) - 5} more" if len(dup) > 5 else ""
+    raise InputError(f"cannot compare with the baseline: {side} repeats the member id(s) "
+                     f"{', '.join(dup[:5])}{more} (in a model: one GlobalId on several "
+                     "elements); give each element its own GlobalId")
+
+
 def compare(baseline: dict, report: dict, threshold: float = DEFAULT_THRESHOLD,
             baseline_name: str | None = None) -> dict:
-    """The ``changes`` object of ``report`` against ``baseline`` (see the module notes)."""
+    """The ``changes`` object of ``report`` against ``baseline`` (see the module notes).
+
+    Raises:
+        InputError: the baseline or the report repeats a member id (one line).
+    """
+    for side, data in (("baseline", baseline), ("this run's report", report)):
+        _refuse_repeated_ids(side, [m["id"] for m in data["members"]])
     old = {m["id"]: m for m in baseline["members"]}
     new = {m["id"]: m for m in report["members"]}
     changes: dict = {

@@ -249,3 +249,20 @@ def test_member_type_from_its_element_type(builder):
     standard_column(builder, "P1", ifc_class="IfcMember", column_type=post_t)
     m = read_columns(builder.model, include_members=True).members
     assert list(m.name) == ["P1"]
+
+
+def test_a_repeated_global_id_leaves_its_elements_unchecked(builder):
+    # issue 13: a second column given the first's GlobalId (ifcopenshell API model); the
+    # reader keeps both, neither checkable, and says so once for the model.
+    prof = builder.profile("I", "W14X48", d=13.8, bf=8.03, tw=0.34, tf=0.595)  # AISC v16.0
+    steel = builder.material("A992")
+    cols = [builder.column(n, profile=prof, material=steel, at=(240.0 * k, 0.0))
+            for k, n in enumerate(("C1", "C2", "C3"))]
+    for c in cols:
+        builder.loads(c, D=10.0)
+    cols[1].GlobalId = cols[0].GlobalId
+    read = read_columns(builder.model)
+    why = f"GlobalId {cols[0].GlobalId} is used by 2 elements"
+    assert [r is not None and r.startswith(why) for r in read.members.reason] == \
+        [True, True, False]
+    assert [m for m in read.messages if why in m] != []

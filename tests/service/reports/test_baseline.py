@@ -107,3 +107,14 @@ def test_a_real_report_loads(tmp_path) -> None:
     p = tmp_path / "old.json"
     p.write_text(json.dumps(OLD))
     assert load_baseline(p)["members"][0]["id"] == "A"
+
+
+@pytest.mark.parametrize("side", ["baseline", "report"])
+def test_repeated_ids_are_refused_not_matched(side: str) -> None:
+    # issue 13: two elements with one GlobalId; a comparison keyed by id cannot tell them
+    # apart, so it refuses in one line naming the id (docs/design.md §3).
+    twice = _report(("A", "pass", 0.70), ("B", "pass", 0.50), ("A", "fail", 1.20))
+    old, new = (twice, NEW) if side == "baseline" else (OLD, twice)
+    with pytest.raises(InputError, match=r"repeats the member id\(s\) A \(") as exc:
+        compare(old, new)
+    assert "\n" not in str(exc.value)
