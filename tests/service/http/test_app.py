@@ -101,6 +101,8 @@ def test_checks_malformed_body_names_the_fields(client: TestClient) -> None:
     ({"members": [MEMBER, MEMBER]}, "request"),  # repeated ids: a whole-request rule
     ({"members": [{**MEMBER, "loads": {"D": 10, "T": 5}}]}, "members.0.loads.T"),  # no type T
     ({"members": [{**MEMBER, "loads": {"D": "heavy"}}]}, "members.0.loads.D"),
+    # more candidates than request.MAX_CANDIDATES (200; 100,000 cost 14 s of CPU, issue 13)
+    ({"members": [{**MEMBER, "candidates": ["W14"] * 201}]}, "members.0.candidates"),
     # a rule checked after validation: repeated combination names (the error body still
     # names the field)
     ({"members": [MEMBER], "combinations": [{"name": "x", "factors": {"D": 1}},
