@@ -111,3 +111,15 @@ def test_sigterm_during_ifczip_extraction_removes_the_folder(tmp_path, env) -> N
     assert done.returncode == 143, done.stderr
     assert done.stderr == "stanchion: terminated\n"
     assert list(Path(env["TMPDIR"]).iterdir()) == []
+
+
+def test_the_previous_sigterm_handler_is_restored(tmp_path) -> None:
+    # main() may run inside another program (tests, a caller's process): its handler is only
+    # in place while the verb runs.
+    from stanchion.service.cli import main
+
+    members = tmp_path / "members.json"
+    members.write_text(json.dumps(MEMBERS))
+    before = signal.getsignal(signal.SIGTERM)
+    assert main(["check", str(members), "--quiet"]) in (0, 1)
+    assert signal.getsignal(signal.SIGTERM) is before
