@@ -34,6 +34,12 @@ DEFAULT_MAX_MODEL_MB = 1000.0
 #: Bytes read from a zip member at a time while it is extracted.
 _CHUNK = 1 << 20
 _MIB = 1024 * 1024
+#: Bytes read from the end of a STEP file to find its trailer (comments and blank lines
+#: after ``ENDSEC;`` fit easily; common practice, no source).
+_TAIL_BYTES = 64 * 1024
+#: The STEP trailer (ISO 10303-21): the DATA section's ``ENDSEC;`` and then this keyword.
+_END_KEYWORD = b"END-ISO-10303-21;"
+_ENDSEC = b"ENDSEC;"
 
 
 def supported_schema(schema: str) -> bool:
@@ -128,10 +134,65 @@ def _open_zipped(path: Path, label: str, limit: int) -> ifcopenshell.file:
         return _open_file(_extract(path, label, Path(folder), limit), label)
 
 
-def _open_file(p: Path, label: str) -> ifcopenshell.file:
-    """``ifcopenshell.open`` with its errors as one ModelReadError line."""
+def _line_of(p: Path, position: int) -> int:
+    """The 1-based line number of byte ``position`` of file ``p`` (counted in chunks)."""
+    newlines = 0
+    with p.open("rb") as fh:
+        remaining = position
+        while remaining > 0 and (chunk := fh.read(min(_CHUNK, remaining))):
+            newlines += chunk.count(b"\n")
+            remaining -= len(chunk)
+    return newlines + 1
+
+
+def _strip_trailing_comments(text: bytes) -> bytes:
+    """``text`` without the whitespace and complete ``/* ... */`` comments at its end."""
+    text = text.rstrip()
+    while text.endswith(b"*/") and (start := text.rfind(b"/*", 0, len(text) - 2)) >= 0:
+        text = text[:start].rstrip()
+    return text
+
+
+def check_trailer(path: str | Path, label: str | None = None) -> None:
+    """Refuse a STEP file that does not end with ``ENDSEC;`` and ``END-ISO-10303-21;``.
+
+    A file cut short (a failed upload or copy, ``head``) otherwise opens without complaint
+    and is checked as if complete (issue 13).  Only the last :data:`_TAIL_BYTES` bytes are
+    read; whitespace and ``/* ... */`` comments around the trailer are allowed.
+
+    Args:
+        path: the ``.ifc`` (STEP) file.
+        label: the name used in the message (default ``path``).
+
+    Raises:
+        ModelReadError: the trailer is missing; the message names the line where the file
+            ends (or where ``END-ISO-10303-21;`` stands) and what is missing.
+    """
+    p = Path(path)
+    name = str(path) if label is None else label
     try:
-        return ifcopenshell.open(str(p))
+        size = p.stat().st_size
+        start = max(0, size - _TAIL_BYTES)
+        with p.open("rb") as fh:
+            fh.seek(start)
+            tail = fh.read()
+    except OSError as exc:
+        raise ModelReadError(f"cannot read {name}: {exc.strerror or exc}") from None
+    end = tail.rfind(_END_KEYWORD)
+    if end < 0 or _strip_trailing_comments(tail[end + len(_END_KEYWORD):]):
+        last = _line_of(p, len(_strip_trailing_comments(tail)) + start)
+        raise ModelReadError(f"cannot read {name}: line {last}: the file ends without "
+                             "END-ISO-10303-21; (cut short?)")
+    if not _strip_trailing_comments(tail[:end]).endswith(_ENDSEC):
+        line = _line_of(p, start + end)
+        raise ModelReadError(f"cannot read {name}: line {line}: END-ISO-10303-21; is not "
+                             "preceded by ENDSEC; (the DATA section is not closed)")
+
+
+def _open_file(p: Path, label: str) -> ifcopenshell.file:
+    """``ifcopenshell.open`` with its errors as one ModelReadError line; then the trailer."""
+    try:
+        model = ifcopenshell.open(str(p))
     except Exception as exc:  # ifcopenshell raises several types (Error, SchemaError, ...)
         text = str(exc).strip().splitlines()
         detail = text[0] if text else type(exc).__name__
@@ -140,6 +201,9 @@ def _open_file(p: Path, label: str) -> ifcopenshell.file:
             name = found.group(1) if found else "?"
             raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
         raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
+    if p.suffix.lower() == ".ifc":
+        check_trailer(p, label)
+    return model
 
 
 def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
@@ -160,7 +224,8 @@ def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
 
     Raises:
         ModelReadError: the file does not exist, is not readable, is not an IFC file, is an
-            archive without exactly one IFC file or expanding beyond the limit, or uses a
+            archive without exactly one IFC file or expanding beyond the limit, is a STEP
+            file without its ``ENDSEC;`` / ``END-ISO-10303-21;`` trailer, or uses a
             schema other than IFC2X3 / IFC4 / IFC4X3; the message reads like
             ``"cannot read model.ifc: not an IFC file"``.
     """

@@ -71,3 +71,32 @@ def test_model_without_columns(builder):
 def test_model_without_columns_or_members(builder):
     result = read_columns(builder.model, include_members=True)
     assert result.messages == ["model has no IfcColumn or STRUT / POST IfcMember"]
+
+
+@pytest.mark.parametrize("schema", ["IFC2X3", "IFC4", "IFC4X3"])
+def test_trailer_missing_is_refused_for_each_schema(tmp_path, schema):
+    # a file written by ifcopenshell ends "ENDSEC;\nEND-ISO-10303-21;\n" (ISO 10303-21)
+    good = tmp_path / "good.ifc"
+    model = ifcopenshell.file(schema=schema)
+    model.createIfcProject(ifcopenshell.guid.new())
+    model.write(str(good))
+    open_model(good)
+    text = good.read_text()
+    cut = tmp_path / "cut.ifc"
+    cut.write_text(text[:text.rindex("END-ISO-10303-21;")])
+    with pytest.raises(ModelReadError) as err:
+        open_model(cut)
+    last = text[:text.rindex("END-ISO-10303-21;")].rstrip().count("\n") + 1
+    assert str(err.value) == (f"cannot read {cut}: line {last}: the file ends without "
+                              "END-ISO-10303-21; (cut short?)")
+
+
+def test_text_after_the_trailer_is_refused(tmp_path):
+    good = tmp_path / "good.ifc"
+    model = ifcopenshell.file(schema="IFC4")
+    model.createIfcProject(ifcopenshell.guid.new())
+    model.write(str(good))
+    bad = tmp_path / "bad.ifc"
+    bad.write_text(good.read_text() + "#99=IFCWALL($);\n")
+    with pytest.raises(ModelReadError, match=r"line \d+: the file ends without END-ISO"):
+        open_model(bad)

@@ -1,0 +1,81 @@
+"""Strict reading (issue 13 item 1): a STEP file cut short is refused, exit 2, one line.
+
+Issue 13 measured ``head -n -7 workshop_annex.ifc`` turning two failing columns into passes
+and ``head -c 2000`` giving ``result: PASS`` on nothing (docs/design.md §4, §5).  The damaged
+files are made here from the sample model; nothing may be written for them.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+from stanchion.service.cli import main
+
+SAMPLE = Path(__file__).resolve().parents[3] / "sample_models" / "workshop_annex.ifc"
+
+
+def _lines() -> list[bytes]:
+    return SAMPLE.read_bytes().splitlines(keepends=True)
+
+
+def _cut_lines(count: int) -> bytes:
+    """The sample without its last ``count`` lines (``head -n -count``)."""
+    return b"".join(_lines()[:-count])
+
+
+def _without_data_endsec() -> tuple[bytes, int]:
+    """The sample without the DATA section's ``ENDSEC;``, and END-ISO's line number then."""
+    lines = _lines()
+    index = max(i for i, line in enumerate(lines) if line.strip() == b"ENDSEC;")
+    del lines[index]
+    end = next(i for i, line in enumerate(lines) if line.strip() == b"END-ISO-10303-21;")
+    return b"".join(lines), end + 1
+
+
+@pytest.mark.parametrize(("data", "line"), [
+    # head -n -7 (the issue's case): the file's last line is then line count - 7
+    (_cut_lines(7), len(_lines()) - 7),
+    # head -n -1: only END-ISO-10303-21; is missing
+    (_cut_lines(1), len(_lines()) - 1),
+    # head -c 2000 (the issue's case): the last line is the one byte 2000 falls in
+    (SAMPLE.read_bytes()[:2000], SAMPLE.read_bytes()[:2000].count(b"\n") + 1),
+])
+def test_cut_short_model_is_refused_in_one_line_and_nothing_is_written(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str], data: bytes, line: int) -> None:
+    path = tmp_path / "cut.ifc"
+    path.write_bytes(data)
+    report, out = tmp_path / "r.json", tmp_path / "checked.ifc"
+    junit = tmp_path / "j.xml"
+    code = main(["check", str(path), "--report", str(report), "--out", str(out),
+                 "--junit", str(junit), "--quiet"])
+    assert code == 2  # docs/design.md §4: unusable input
+    err = capsys.readouterr().err
+    assert err == (f"stanchion: cannot read {path}: line {line}: the file ends without "
+                   "END-ISO-10303-21; (cut short?)\n")
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["cut.ifc"]
+
+
+def test_data_section_without_endsec_is_refused(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    data, line = _without_data_endsec()
+    path = tmp_path / "open.ifc"
+    path.write_bytes(data)
+    report = tmp_path / "r.json"
+    assert main(["check", str(path), "--report", str(report), "--quiet"]) == 2
+    err = capsys.readouterr().err
+    assert err == (f"stanchion: cannot read {path}: line {line}: END-ISO-10303-21; is not "
+                   "preceded by ENDSEC; (the DATA section is not closed)\n")
+    assert not report.exists()
+
+
+def test_comments_and_blank_lines_around_the_trailer_are_accepted(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    text = SAMPLE.read_bytes().replace(b"END-ISO-10303-21;",
+                                       b"/* exported */\n\nEND-ISO-10303-21;\n/* end */\n\n")
+    path = tmp_path / "commented.ifc"
+    path.write_bytes(text)
+    # the sample fails on purpose (sample_models/README.md): exit 1, not the refusal's 2
+    assert main(["check", str(path), "--quiet"]) == 1
+    assert "cannot read" not in capsys.readouterr().err
