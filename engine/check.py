@@ -22,6 +22,7 @@ from stanchion.engine.compression import (
 from stanchion.engine.masks import all_set, any_set, finite_positive, is_none
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
 from stanchion.engine.members import MemberTable
+from stanchion.engine.plausibility import implausible_reasons
 from stanchion.engine.sections import Kind
 
 PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
@@ -75,7 +76,9 @@ class CheckResults:
 #: applies); :func:`_not_checked_reasons` builds one mask row per entry, in this order.
 #: ``lx`` is the member length unless given apart: "no length" when neither is known; a bad
 #: value is named "unbraced length x" (a members request names a bad ``length`` itself,
-#: :func:`stanchion.service.members_check.members_from_request`).
+#: :func:`stanchion.service.members_check.members_from_request`). A member none of these
+#: applies to is then held to the plausibility limits (:mod:`stanchion.engine.plausibility`):
+#: "implausible <what> <value> <unit>: check the units".
 _REASONS = (
     "no usable section",
     "angles and double angles are out of scope (AISC 360-22 E5 is not implemented)",
@@ -122,9 +125,14 @@ def _not_checked_reasons(m: MemberTable) -> ObjectArray:
         masks[14] = np.isnan(m.loads).all(axis=1) & np.isnan(m.required_strength)
         masks[15] = _infinite_demand(m)
         np.less(m.required_strength, 0, out=masks[16])
-    hit = masks.any(axis=0) & is_none(reason)
+    free = is_none(reason)
+    hit = masks.any(axis=0) & free
     if any_set(hit):
         reason[hit] = _REASON_TEXTS[masks.argmax(axis=0)[hit]]
+    implausible = implausible_reasons(m, free & ~hit)
+    flagged = ~is_none(implausible)
+    if any_set(flagged):
+        reason[flagged] = implausible[flagged]
     return reason
 
 

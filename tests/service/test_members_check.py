@@ -31,3 +31,23 @@ def _reason(**member: object) -> str | None:
 def test_a_bad_length_is_named_by_its_field(member: dict, reason: str) -> None:
     assert _reason(**member) == reason
 
+
+
+@pytest.mark.parametrize(("member", "reason"), [
+    # issue 13: "fy": 1e300 passed. Plausibility limits (engine/plausibility.py, each with
+    # its source there): Fy 20–120 ksi, lengths 1–200 ft, loads up to 100,000 kip.
+    ({"fy": 1e300}, "implausible yield stress 1e+300 ksi: check the units"),
+    ({"fy": 345}, "implausible yield stress 345 ksi: check the units"),  # MPa given as ksi
+    ({"length": 4877}, "implausible unbraced length x 4877 ft: check the units"),  # mm as ft
+    ({"ly": 0.5}, "implausible unbraced length y 0.5 ft: check the units"),
+    ({"loads": {"D": 444822.0}}, "implausible load 4.448e+05 kip: check the units"),  # N as kip
+    ({"required_strength": 2e5}, "implausible required strength 2e+05 kip: check the units"),
+    # A profile of a W12X40 (d = 11.9 in, AISC Shapes Database v16.0) given in m as if mm
+    # would be 11.9 m deep; here d = 302 m: A = 2·203·13.1 + (302 − 2·13.1)·7.5 = 7387 m²
+    # = 1.145e+07 in² (by hand, no fillets), far over 4 × 272 in².
+    ({"section": None, "profile": {"shape": "I", "unit": "m", "d": 302, "bf": 203,
+                                   "tw": 7.5, "tf": 13.1}},
+     "implausible section area 1.145e+07 in²: check the units"),
+])
+def test_an_implausible_value_is_not_checked(member: dict, reason: str) -> None:
+    assert _reason(**member) == reason

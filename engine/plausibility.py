@@ -1,0 +1,117 @@
+"""Plausibility limits: values no real steel column has, the mark of a unit mistake.
+
+A model whose length unit is wrong by 1000 (mm read as m), a load table in kN read as N or a
+yield stress typed in Pa instead of MPa gives numbers far outside any steel column; such a
+member is not checked ("implausible <what> <value>: check the units"), never passed.
+Internal units: kip, inch, ksi. Each limit names its source beside it (docs/design.md §8).
+"""
+
+from __future__ import annotations
+
+from typing import TYPE_CHECKING
+
+import numpy as np
+
+from stanchion.engine.masks import any_set
+
+if TYPE_CHECKING:
+    from stanchion.engine.arrays import BoolArray, FloatArray, ObjectArray
+    from stanchion.engine.members import MemberTable
+
+#: Yield stress, ksi. The grades of engine/materials.py span 35–100 ksi (ASTM A53 Gr B 35 ksi,
+#: EN S235 34 ksi, ASTM A514 / EN S690 about 100 ksi); 20–120 ksi leaves a margin on both
+#: sides (common practice, no source).
+FY_MIN, FY_MAX = 20.0, 120.0
+#: Modulus of elasticity, ksi: 29,000 ksi (AISC 360-22 §B4 nomenclature, E) and 210,000 MPa
+#: = 30,458 ksi (EN 1993-1-1 §3.2.6); ±20 % around 29,000 ksi (common practice, no source).
+E_MIN, E_MAX = 23_200.0, 34_800.0
+#: Largest rolled area, in²: W36X925, A = 272 in² (AISC Shapes Database v16.0).
+LARGEST_ROLLED_AREA = 272.0
+#: Built-up columns (box and plated sections) up to four times the largest rolled area
+#: (common practice, no source).
+BUILT_UP_MARGIN = 4.0
+#: Smallest catalog area, in²: PIPE1/2STD, A = 0.234 in² (AISC Shapes Database v16.0); half
+#: of it as the floor (common practice, no source).
+AREA_MIN, AREA_MAX = 0.117, LARGEST_ROLLED_AREA * BUILT_UP_MARGIN
+#: Section depth, in: the deepest rolled shape is W44X408, d = 44.8 in, the shallowest
+#: PIPE1/2STD, d = 0.84 in (AISC Shapes Database v16.0); built-up columns up to 120 in
+#: (10 ft), and half the shallowest as the floor (common practice, no source).
+DEPTH_MIN, DEPTH_MAX = 0.42, 120.0
+#: Member and unbraced lengths, in: 1 ft to 200 ft (common practice, no source).
+LENGTH_MIN, LENGTH_MAX = 12.0, 2400.0
+#: Magnitude of a load or a required strength, kip (common practice, no source).
+LOAD_MAX = 100_000.0
+
+#: (what, unit shown, internal units per unit shown) of each test, in the order they apply
+#: (a member gets the first); lengths are shown in ft.
+_TESTS = (
+    ("yield stress", "ksi", 1.0),
+    ("modulus of elasticity E", "ksi", 1.0),
+    ("section area", "in²", 1.0),
+    ("section depth", "in", 1.0),
+    ("unbraced length x", "ft", 12.0),
+    ("unbraced length y", "ft", 12.0),
+    ("unbraced length z", "ft", 12.0),
+    ("load", "kip", 1.0),
+    ("required strength", "kip", 1.0),
+)
+
+
+def _outside(values: FloatArray, low: float, high: float) -> BoolArray:
+    """True where a known value lies outside [low, high] (NaN is never outside)."""
+    with np.errstate(invalid="ignore"):
+        return (values < low) | (values > high)
+
+
+def _largest_load(loads: FloatArray) -> FloatArray:
+    """The load of largest magnitude of each member (NaN where it has none)."""
+    if loads.shape[1] == 0:
+        return np.full(loads.shape[0], np.nan)
+    filled = np.where(np.isnan(loads), 0.0, loads)
+    pick = np.abs(filled).argmax(axis=1)
+    largest = np.take_along_axis(filled, pick[:, None], axis=1)[:, 0]
+    return np.where(np.isnan(loads).all(axis=1), np.nan, largest)
+
+
+def implausible_reasons(m: MemberTable, candidates: BoolArray) -> ObjectArray:
+    """The first plausibility limit each candidate member breaks, as a reason, or None.
+
+    Args:
+        m: the members (kip, inch, ksi).
+        candidates: members to test (those without another reason).
+
+    Returns:
+        One entry per member: "implausible <what> <value> <unit>: check the units", or None.
+    """
+    n = len(m)
+    reason = np.full(n, None, dtype=object)
+    if not any_set(candidates):
+        return reason
+    idx = m.section_index
+    has_section = (idx >= 0) & (len(m.sections) > 0)
+    safe = np.where(has_section, idx, 0)
+    area = (np.where(has_section, m.sections.A.take(safe), np.nan) if len(m.sections)
+            else np.full(n, np.nan))
+    depth = (np.where(has_section, m.sections.d.take(safe), np.nan) if len(m.sections)
+             else np.full(n, np.nan))
+    load = _largest_load(m.loads)
+    values = np.stack([m.Fy, m.E, area, depth, m.lx, m.ly, m.lz, load, m.required_strength])
+    masks = np.stack([
+        _outside(m.Fy, FY_MIN, FY_MAX),
+        _outside(m.E, E_MIN, E_MAX),
+        _outside(area, AREA_MIN, AREA_MAX),
+        _outside(depth, DEPTH_MIN, DEPTH_MAX),
+        _outside(m.lx, LENGTH_MIN, LENGTH_MAX),
+        _outside(m.ly, LENGTH_MIN, LENGTH_MAX),
+        _outside(m.lz, LENGTH_MIN, LENGTH_MAX),
+        _outside(load, -LOAD_MAX, LOAD_MAX),
+        _outside(m.required_strength, -LOAD_MAX, LOAD_MAX),
+    ])
+    hit = masks.any(axis=0) & candidates
+    if any_set(hit):
+        first = masks.argmax(axis=0)
+        for i in hit.nonzero()[0].tolist():
+            what, unit, per = _TESTS[first[i]]
+            reason[i] = (f"implausible {what} {values[first[i], i] / per:.4g} {unit}: "
+                         "check the units")
+    return reason
