@@ -8,14 +8,16 @@ whose message is ready to print after ``stanchion:``.
 
 from __future__ import annotations
 
+import json
 import os
 import re
 import tempfile
 import zipfile
-from collections.abc import Mapping
+from collections.abc import Callable, Mapping
 from pathlib import Path
 
 import ifcopenshell
+import ifcopenshell.ifcopenshell_wrapper as wrapper
 
 from stanchion.ifc_bridge.errors import ModelReadError
 
@@ -40,6 +42,14 @@ _TAIL_BYTES = 64 * 1024
 #: The STEP trailer (ISO 10303-21): the DATA section's ``ENDSEC;`` and then this keyword.
 _END_KEYWORD = b"END-ISO-10303-21;"
 _ENDSEC = b"ENDSEC;"
+#: Levels of the parser's log that are not errors (ifcopenshell's logger; a warning such as
+#: "Expected 11 attribute values, found 10" is common in real exports and read as written).
+_NOT_ERRORS = frozenset({"debug", "perf", "info", "notice", "warning"})
+#: Where the parser's messages name the byte offset of the problem.
+_OFFSET = re.compile(r"\s*at offset (\d+)")
+#: The parser's process-wide log (untyped in the wrapper): JSON lines, drained when read.
+_get_log: Callable[[], object] = wrapper.get_log
+_set_log_format_json: Callable[[], object] = wrapper.set_log_format_json
 
 
 def supported_schema(schema: str) -> bool:
@@ -189,11 +199,52 @@ def check_trailer(path: str | Path, label: str | None = None) -> None:
                              "preceded by ENDSEC; (the DATA section is not closed)")
 
 
+def _parser_errors() -> list[tuple[int | None, str]]:
+    """The errors ifcopenshell's parser logged since the last call (the log is drained).
+
+    Returns:
+        ``(byte offset or None, message without "at offset N")`` per error, in log order.
+    """
+    errors: list[tuple[int | None, str]] = []
+    for raw in str(_get_log()).splitlines():
+        try:
+            entry = json.loads(raw)
+            level, message = str(entry.get("level", "")), str(entry.get("message", ""))
+        except (ValueError, AttributeError):
+            level, message = "error", raw
+        if not message.strip() or level.lower() in _NOT_ERRORS:
+            continue
+        found = _OFFSET.search(message)
+        offset = int(found.group(1)) if found else None
+        errors.append((offset, _OFFSET.sub("", message).strip()))
+    return errors
+
+
+def _first_error(p: Path, errors: list[tuple[int | None, str]]) -> str | None:
+    """``"line N: what"`` for the error earliest in the file (one without an offset last)."""
+    if not errors:
+        return None
+    offset, message = min(errors, key=lambda e: (e[0] is None, e[0] or 0))
+    if offset is None:
+        return message
+    return f"line {_line_of(p, offset)}: {message}"
+
+
 def _open_file(p: Path, label: str) -> ifcopenshell.file:
-    """``ifcopenshell.open`` with its errors as one ModelReadError line; then the trailer."""
+    """``ifcopenshell.open`` with its errors as one ModelReadError line; then the trailer.
+
+    A file the parser opens is still refused when its log holds an error: an instance it
+    skipped (a damaged line, an entity foreign to the schema, an invalid enumeration) or a
+    reference to an instance that is not in the file.  Warnings are not refused.
+    """
+    _set_log_format_json()
+    _parser_errors()  # drop what earlier reads left in the (process-wide) log
     try:
         model = ifcopenshell.open(str(p))
     except Exception as exc:  # ifcopenshell raises several types (Error, SchemaError, ...)
+        located = [e for e in _parser_errors() if e[0] is not None]
+        if located:
+            raise ModelReadError(f"cannot read {label}: {_first_error(p, located)}") from None
         text = str(exc).strip().splitlines()
         detail = text[0] if text else type(exc).__name__
         if "schema" in detail.lower():
@@ -201,8 +252,11 @@ def _open_file(p: Path, label: str) -> ifcopenshell.file:
             name = found.group(1) if found else "?"
             raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
         raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
+    errors = _parser_errors()
     if p.suffix.lower() == ".ifc":
         check_trailer(p, label)
+    if errors:
+        raise ModelReadError(f"cannot read {label}: {_first_error(p, errors)}")
     return model
 
 

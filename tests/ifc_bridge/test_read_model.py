@@ -100,3 +100,53 @@ def test_text_after_the_trailer_is_refused(tmp_path):
     bad.write_text(good.read_text() + "#99=IFCWALL($);\n")
     with pytest.raises(ModelReadError, match=r"line \d+: the file ends without END-ISO"):
         open_model(bad)
+
+
+def _project_file(tmp_path, schema):
+    path = tmp_path / "good.ifc"
+    model = ifcopenshell.file(schema=schema)
+    model.createIfcProject(ifcopenshell.guid.new())
+    model.write(str(path))
+    return path.read_text()
+
+
+def test_entity_foreign_to_the_declared_schema_is_refused(tmp_path):
+    # IfcIndexedPolyCurve is new in IFC4 (IFC4 schema, 8.9.3.37); IFC2X3 has no such entity
+    text = _project_file(tmp_path, "IFC2X3")
+    bad = tmp_path / "bad.ifc"
+    bad.write_text(text.replace("ENDSEC;\nEND-ISO",
+                                "#900=IFCINDEXEDPOLYCURVE($,$,$);\nENDSEC;\nEND-ISO"))
+    line = bad.read_text().splitlines().index("#900=IFCINDEXEDPOLYCURVE($,$,$);") + 1
+    with pytest.raises(ModelReadError) as err:
+        open_model(bad)
+    assert str(err.value) == (f"cannot read {bad}: line {line}: Entity with name "
+                              "'IFCINDEXEDPOLYCURVE' not found in schema 'IFC2X3'")
+
+
+def test_a_reference_to_a_missing_instance_is_refused_also_in_an_ifczip(tmp_path):
+    import zipfile
+
+    text = _project_file(tmp_path, "IFC4")
+    data = text.replace("ENDSEC;\nEND-ISO", "#900=IFCRELAGGREGATES('0YvctVUKr0kugbFTf53O9L',"
+                        "$,$,$,#1,(#77777));\nENDSEC;\nEND-ISO")
+    line = data.splitlines().index(next(x for x in data.splitlines()
+                                        if x.startswith("#900="))) + 1
+    path = tmp_path / "bad.ifczip"
+    with zipfile.ZipFile(path, "w") as zf:
+        zf.writestr("bad.ifc", data)
+    with pytest.raises(ModelReadError) as err:
+        open_model(path)
+    assert str(err.value) == (f"cannot read {path}: line {line}: Instance reference #77777 "
+                              "used by instance #900 at attribute index 5 not found")
+
+
+def test_attribute_count_warning_is_not_refused(tmp_path):
+    # a real export pattern (IFC4 files with pre-final attribute counts): the parser warns
+    # "Expected 2 attribute values, found 1" and reads the instance; not damage, so accepted
+    text = _project_file(tmp_path, "IFC4")
+    path = tmp_path / "old.ifc"
+    path.write_text(text.replace(
+        "ENDSEC;\nEND-ISO", "#900=IFCCOLOURRGB($,0.5,0.5,0.5);\n"
+        "#901=IFCSURFACESTYLESHADING(#900);\nENDSEC;\nEND-ISO"))
+    model = open_model(path)
+    assert model.by_id(901).is_a("IfcSurfaceStyleShading")

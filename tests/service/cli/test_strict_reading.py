@@ -79,3 +79,70 @@ def test_comments_and_blank_lines_around_the_trailer_are_accepted(
     # the sample fails on purpose (sample_models/README.md): exit 1, not the refusal's 2
     assert main(["check", str(path), "--quiet"]) == 1
     assert "cannot read" not in capsys.readouterr().err
+
+
+def _reaction_line() -> int:
+    """Index (0-based) of the sample's first IfcStructuralCurveReaction line."""
+    return next(i for i, line in enumerate(_lines())
+                if b"=IFCSTRUCTURALCURVEREACTION(" in line)
+
+
+def _deleted_reaction() -> tuple[bytes, str]:
+    # the issue's case: one reaction line deleted turned P-M2 from FAIL into PASS; the next
+    # line's relationship (#984 in the sample) then refers to the missing instance
+    lines = _lines()
+    index = _reaction_line()
+    step_id = lines[index].split(b"=", 1)[0].decode()
+    del lines[index]
+    user = next(i for i, line in enumerate(lines) if f",{step_id})".encode() in line)
+    user_id = lines[user].split(b"=", 1)[0].decode()
+    return b"".join(lines), (f"line {user + 1}: Instance reference {step_id} used by "
+                             f"instance {user_id} at attribute index 5 not found")
+
+
+def _foreign_entity() -> tuple[bytes, str]:
+    # the relationship after the reaction renamed to an entity the schema does not have
+    lines = _lines()
+    index = _reaction_line() + 1
+    assert b"=IFCRELCONNECTSSTRUCTURALACTIVITY(" in lines[index]
+    lines[index] = lines[index].replace(b"=IFCREL", b"=IFXREL")
+    return b"".join(lines), (f"line {index + 1}: Entity with name "
+                             "'IFXRELCONNECTSSTRUCTURALACTIVITY' not found in schema 'IFC4'")
+
+
+def _dangling_reference() -> tuple[bytes, str]:
+    # the reaction's applied load (attribute 7) pointing at an instance not in the file
+    lines = _lines()
+    index = _reaction_line()
+    step_id = lines[index].split(b"=", 1)[0].decode()
+    load = lines[index].rsplit(b",#", 1)[1].split(b",", 1)[0]
+    lines[index] = lines[index].replace(b",#" + load + b",", b",#999999,")
+    return b"".join(lines), (f"line {index + 1}: Instance reference #999999 used by "
+                             f"instance {step_id} at attribute index 7 not found")
+
+
+def _syntax_error() -> tuple[bytes, str]:
+    # a comma deleted between a reference and an enumeration: "#982.LOCAL_COORDS."
+    lines = _lines()
+    index = _reaction_line()
+    broken = lines[index].replace(b",.LOCAL_COORDS.", b".LOCAL_COORDS.")
+    assert broken != lines[index]
+    lines[index] = broken
+    load = broken.split(b"#")[-1].split(b".LOCAL")[0].decode()
+    return b"".join(lines), (f"line {index + 1}: token {load}.LOCAL_COORDS. invalid "
+                             "instance name")
+
+
+@pytest.mark.parametrize("damage", [_deleted_reaction, _foreign_entity, _dangling_reference,
+                                    _syntax_error])
+def test_damaged_line_is_refused_naming_its_line(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str], damage) -> None:
+    # the messages are ifcopenshell's parser log (its wording), with the offset as a line
+    data, problem = damage()
+    path = tmp_path / "damaged.ifc"
+    path.write_bytes(data)
+    report, out = tmp_path / "r.json", tmp_path / "checked.ifc"
+    code = main(["check", str(path), "--report", str(report), "--out", str(out), "--quiet"])
+    assert code == 2  # docs/design.md §4: unusable input
+    assert capsys.readouterr().err == f"stanchion: cannot read {path}: {problem}\n"
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["damaged.ifc"]
