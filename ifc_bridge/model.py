@@ -133,7 +133,8 @@ def _extract(path: Path, label: str, folder: Path, limit: int) -> Path:
         raise ModelReadError(f"cannot read {label}: {exc.strerror or exc}") from None
 
 
-def _open_zipped(path: Path, label: str, limit: int) -> ifcopenshell.file:
+def _open_zipped(path: Path, label: str, limit: int, problems: list[str] | None
+                 ) -> ifcopenshell.file:
     """Open an ``.ifczip``: extract its IFC file into a temporary folder, open it, remove it.
 
     The folder is made in :func:`tempfile.gettempdir` (``TMPDIR``; a job worker's is inside
@@ -141,7 +142,7 @@ def _open_zipped(path: Path, label: str, limit: int) -> ifcopenshell.file:
     or an exception raised by a signal handler (SIGINT, SIGTERM).
     """
     with tempfile.TemporaryDirectory(prefix="stanchion-unzip-") as folder:
-        return _open_file(_extract(path, label, Path(folder), limit), label)
+        return _open_file(_extract(path, label, Path(folder), limit), label, problems)
 
 
 def _line_of(p: Path, position: int) -> int:
@@ -230,12 +231,15 @@ def _first_error(p: Path, errors: list[tuple[int | None, str]]) -> str | None:
     return f"line {_line_of(p, offset)}: {message}"
 
 
-def _open_file(p: Path, label: str) -> ifcopenshell.file:
+def _open_file(p: Path, label: str, problems: list[str] | None = None
+               ) -> ifcopenshell.file:
     """``ifcopenshell.open`` with its errors as one ModelReadError line; then the trailer.
 
     A file the parser opens is still refused when its log holds an error: an instance it
     skipped (a damaged line, an entity foreign to the schema, an invalid enumeration) or a
-    reference to an instance that is not in the file.  Warnings are not refused.
+    reference to an instance that is not in the file.  Warnings are not refused.  With
+    ``problems`` (lenient reading) the missing trailer and the parser's errors are appended
+    there instead (each ``"line N: what"``); a file the parser cannot open is still refused.
     """
     _set_log_format_json()
     _parser_errors()  # drop what earlier reads left in the (process-wide) log
@@ -253,15 +257,23 @@ def _open_file(p: Path, label: str) -> ifcopenshell.file:
             raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
         raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
     errors = _parser_errors()
+    damage: list[str] = []
     if p.suffix.lower() == ".ifc":
-        check_trailer(p, label)
-    if errors:
-        raise ModelReadError(f"cannot read {label}: {_first_error(p, errors)}")
+        try:
+            check_trailer(p, label)
+        except ModelReadError as exc:
+            damage.append(str(exc).removeprefix(f"cannot read {label}: "))
+    damage.extend(_first_error(p, [e]) or e[1] for e in
+                 sorted(errors, key=lambda e: (e[0] is None, e[0] or 0)))
+    if damage and problems is None:
+        raise ModelReadError(f"cannot read {label}: {damage[0]}")
+    if problems is not None:
+        problems.extend(damage)
     return model
 
 
-def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
-               ) -> ifcopenshell.file:
+def open_model(path: str | Path, *, max_expanded_bytes: int | None = None,
+               problems: list[str] | None = None) -> ifcopenshell.file:
     """Open an IFC model for reading.
 
     An ``.ifczip`` must hold exactly one ``.ifc`` or ``.ifcxml`` file (other files in it are
@@ -272,6 +284,10 @@ def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
         path: an ``.ifc`` (STEP physical file), ``.ifczip`` or ``.ifcxml`` file.
         max_expanded_bytes: largest size an ``.ifczip`` may expand to (default
             :func:`max_model_bytes`: ``STANCHION_MAX_MODEL_MB`` or 1000 MiB).
+        problems: lenient reading (``--lenient``): the damage that is refused by default
+            (a missing trailer, the parser's errors) is appended here as ``"line N: what"``
+            lines and the model is returned as the parser read it.  None (the default):
+            refused.
 
     Returns:
         The opened :class:`ifcopenshell.file`.  It is only read, never modified.
@@ -298,9 +314,9 @@ def open_model(path: str | Path, *, max_expanded_bytes: int | None = None
         raise ModelReadError(f"cannot read {label}: not an IFC file")
     if suffix == ".ifczip":
         limit = max_model_bytes() if max_expanded_bytes is None else max_expanded_bytes
-        model = _open_zipped(p, label, limit)
+        model = _open_zipped(p, label, limit, problems)
     else:
-        model = _open_file(p, label)
+        model = _open_file(p, label, problems)
     schema = getattr(model, "schema_identifier", None) or model.schema
     if not supported_schema(schema):
         raise ModelReadError(f"cannot read {label}: {_unsupported(schema)}")

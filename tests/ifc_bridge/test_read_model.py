@@ -150,3 +150,34 @@ def test_attribute_count_warning_is_not_refused(tmp_path):
         "#901=IFCSURFACESTYLESHADING(#900);\nENDSEC;\nEND-ISO"))
     model = open_model(path)
     assert model.by_id(901).is_a("IfcSurfaceStyleShading")
+
+
+def test_lenient_reading_lists_the_damage_instead_of_refusing(tmp_path):
+    # the groundwork of --lenient (issue 13 item 1): the problems refused by default are
+    # listed, earliest first, and the model is returned as the parser read it
+    text = _project_file(tmp_path, "IFC4")
+    data = text.replace("ENDSEC;\nEND-ISO", "#900=IFCRELAGGREGATES('0YvctVUKr0kugbFTf53O9L',"
+                        "$,$,$,#1,(#77777));\nENDSEC;\nEND-ISO")
+    data = data[:data.rindex("END-ISO-10303-21;")]  # and cut short
+    lines = data.splitlines()
+    ref = next(i for i, x in enumerate(lines) if x.startswith("#900=")) + 1
+    path = tmp_path / "damaged.ifc"
+    path.write_text(data)
+    problems: list[str] = []
+    model = open_model(path, problems=problems)
+    assert model.by_id(900).is_a("IfcRelAggregates")
+    assert problems == [
+        f"line {len(data.rstrip().splitlines())}: the file ends without END-ISO-10303-21; "
+        "(cut short?)",
+        f"line {ref}: Instance reference #77777 used by instance #900 at attribute index 5 "
+        "not found"]
+    with pytest.raises(ModelReadError, match="cut short"):
+        open_model(path)  # the default stays strict
+
+
+def test_lenient_reading_of_a_sound_file_lists_nothing(tmp_path):
+    path = tmp_path / "good.ifc"
+    path.write_text(_project_file(tmp_path, "IFC4X3"))
+    problems: list[str] = []
+    open_model(path, problems=problems)
+    assert problems == []
