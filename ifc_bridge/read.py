@@ -34,6 +34,7 @@ from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.access import Entity, get
 from stanchion.ifc_bridge.elements import PlanPositions, select_elements
+from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
 from stanchion.ifc_bridge.loads import match_table, merge_loads
@@ -445,6 +446,8 @@ def read_columns(
 
     Raises:
         TypeError: ``loads_table`` is a path (parse it first).
+        ModelReadError: the load table has columns without a unit and the model declares
+            no force unit (units are never guessed).
     """
     if isinstance(loads_table, str | PurePath):
         raise TypeError("read_columns takes a parsed load table "
@@ -460,9 +463,26 @@ def read_columns(
             gc.enable()
 
 
+def _unitless_table_message(table: LoadTable) -> str:
+    """The refusal of a load table without units for a model that declares no force unit.
+
+    Args:
+        table: the load table (some of its columns name no unit).
+
+    Returns:
+        One line naming the columns and the two fixes.
+    """
+    kinds = [k for k in LOAD_TYPES if k in table.to_kip and table.to_kip[k] is None]
+    return (f"load table {table.label}: column(s) {', '.join(kinds)} name no unit and the "
+            "model declares no force unit; units are never guessed: write the unit in the "
+            f"header ('{kinds[0]} [kN]') or give --force-unit")
+
+
 def _read(model: ifcopenshell.file, include_members: bool,
           table: LoadTable | None) -> ReadResult:
     units = read_units(model)
+    if table is not None and table.uses_model_unit and not units.declared["force"]:
+        raise ModelReadError(_unitless_table_message(table))
     reader = _Reader(model, units)
     elements = select_elements(model, reader.index, include_members)
     messages: list[str] = []

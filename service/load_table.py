@@ -9,8 +9,11 @@
 ``element`` is a GlobalId, Tag or Name (matched to the model's columns by
 :func:`ifc_bridge.loads.match_table`).  Load columns are ``D L Lr S R W E``
 (case-insensitive), optionally with a unit in brackets -- any force unit pint understands
-(``kip``, ``kN``, ``lbf``, ``N``, ``MN`` ...); without one, values are in the model's force
-unit (converted by the reader, which knows it).  Empty cells mean "not given".  Anything else
+(``kip``, ``kN``, ``lbf``, ``N``, ``MN`` ...); without one, values are in the force unit
+given apart (``--force-unit``), else in the model's force unit where the model declares one
+(converted by the reader, which knows it; a model that declares none refuses such a table,
+:func:`stanchion.ifc_bridge.read.read_columns`: units are never guessed, issue 13).  Empty
+cells mean "not given".  Anything else
 (unknown column, text in a number cell, a unit that is not a force) makes the whole table
 unusable: :class:`LoadTableError`, one line naming the problem (exit 2).
 """
@@ -48,6 +51,16 @@ def _force_factor(unit: str, label: str) -> float:
         raise LoadTableError(f"load table {label}: '{unit}' is not a force unit") from None
 
 
+def _given_unit(force_unit: str | None) -> float | None:
+    """The ``--force-unit`` option in kip per unit (None when not given)."""
+    if force_unit is None:
+        return None
+    try:
+        return factor(FORCE_UNITS.get(force_unit, force_unit), "kip")
+    except ValueError:
+        raise LoadTableError(f"--force-unit: '{force_unit}' is not a force unit") from None
+
+
 def _frame(path: str | Path, label: str) -> pd.DataFrame:
     import pandas as pd  # only when a table is given: the import costs a third of a second
 
@@ -62,20 +75,24 @@ def _frame(path: str | Path, label: str) -> pd.DataFrame:
         raise LoadTableError(f"cannot read load table {label}: {detail}") from None
 
 
-def read_load_table(path: str | Path) -> LoadTable:
+def read_load_table(path: str | Path, force_unit: str | None = None) -> LoadTable:
     """Parse the CSV load table.
 
     Args:
         path: the CSV file.
+        force_unit: the unit of columns whose header names none (``--force-unit``); None:
+            such columns take the model's declared force unit.
 
     Returns:
-        The table; values of columns with a unit are converted to kip when the reader asks
-        (:meth:`engine.loads.LoadTable.in_kip`), the others take the model's force unit.
+        The table; values of columns with a unit (or with ``force_unit``) are converted to
+        kip when the reader asks (:meth:`engine.loads.LoadTable.in_kip`), the others take
+        the model's force unit.
 
     Raises:
         LoadTableError: unreadable file or bad content, one line naming the problem.
     """
     label = str(path)
+    given = _given_unit(force_unit)
     frame = _frame(path, label)
     columns = [str(c).strip() for c in frame.iloc[0]] if len(frame) else []
     if not columns or columns[0].lower() != "element":
@@ -93,7 +110,7 @@ def read_load_table(path: str | Path) -> LoadTable:
             raise LoadTableError(f"load table {label}: load type {kind} appears twice")
         assert m is not None  # a load type was recognised in it
         unit = m.group(2)
-        to_kip[kind] = _force_factor(unit, label) if unit else None
+        to_kip[kind] = _force_factor(unit, label) if unit else given
         plan.append((pos, kind))
     rows: list[tuple[str, dict[str, float]]] = []
     for line, values in enumerate(frame.iloc[1:].itertuples(index=False, name=None), start=2):

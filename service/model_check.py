@@ -65,10 +65,11 @@ class ModelCheck:
         return self.read.members
 
 
-def _read(path: Path, include_members: bool, loads_table: Path | None
-          ) -> tuple[ifcopenshell.file, ReadResult]:
+def _read(path: Path, include_members: bool, loads_table: Path | None,
+          force_unit: str | None = None) -> tuple[ifcopenshell.file, ReadResult]:
     """Open the model and read its columns (the load table first: it is smaller)."""
-    table = read_load_table(loads_table) if loads_table is not None else None  # InputError
+    table = (read_load_table(loads_table, force_unit)  # InputError
+             if loads_table is not None else None)
     try:
         model = open_model(path)
         return model, read_columns(model, include_members=include_members, loads_table=table)
@@ -133,7 +134,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     except OSError:
         pass  # open_model names the problem
     with progress.phase(f"reading {path.name}"):
-        model, read = _read(path, options.include_members, options.loads_table)
+        model, read = _read(path, options.include_members, options.loads_table,
+                            options.force_unit)
     members = read.members
     if not len(members):
         raise InputError(no_columns_message(options.source_name or path.name, model,

@@ -81,6 +81,9 @@ class CheckOptions(BaseModel):
         None, description="report units of a model check: us (kip, ft, ksi, the default) or "
         "si (kN, m, MPa)")
     loads_table: Path | None = Field(None, description="CSV load table for a model")
+    force_unit: str | None = Field(
+        None, description="force unit of the load table's columns whose header names none "
+        "(kip, kN, N, lbf, MN or any force unit pint knows)")
     include_members: bool = Field(False, description="also check IfcMember STRUT / POST")
     suggest: bool = Field(False, description="suggest sections for failing columns")
     utilization_limit: float | None = Field(
@@ -191,10 +194,14 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
     if not model:
         for name, value in (("--loads", options.loads_table),
                             ("--include-members", options.include_members),
-                            ("--units", options.units), ("--suggest", options.suggest)):
+                            ("--units", options.units), ("--suggest", options.suggest),
+                            ("--force-unit", options.force_unit)):
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
                                  "its own loads, units and candidates")
+    if options.force_unit is not None and options.loads_table is None:
+        raise InputError("--force-unit goes with --loads (the unit of the load table's "
+                         "columns whose header names none)")
     if (options.utilization_limit is not None or options.oversized is not None
             or options.families) and not options.suggest:
         raise InputError("--utilization-limit, --oversized and --families go with --suggest")

@@ -70,6 +70,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
         options = CheckOptions(
             method=args.method, units=args.units,
             loads_table=Path(args.loads) if args.loads else None,
+            force_unit=args.force_unit,
             include_members=args.include_members, suggest=args.suggest,
             utilization_limit=args.utilization_limit, oversized=args.oversized,
             families=tuple(args.families) if args.families else None,
@@ -120,7 +121,12 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      "si = kN/m/MPa")
     inp = c.add_argument_group("IFC input")
     inp.add_argument("--loads", metavar="LOADS.csv",
-                     help="CSV load table: element,D,L,... (element = GlobalId, Tag or Name)")
+                     help="CSV load table: element,D [kN],L [kN],... (element = GlobalId, "
+                     "Tag or Name)")
+    inp.add_argument("--force-unit", metavar="UNIT",
+                     help="unit of the load table's columns whose header names none (kip, "
+                     "kN, N, lbf, MN); without it they take the model's declared force unit, "
+                     "and a model that declares none is refused")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
     gate = c.add_argument_group("pass / fail")

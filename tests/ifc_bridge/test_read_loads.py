@@ -9,6 +9,7 @@ import ifcopenshell.guid
 import pytest
 
 from stanchion.engine.members import LOAD_TYPES
+from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.load_cases import load_type
 from stanchion.ifc_bridge.read import read_columns
 from stanchion.service.load_table import read_load_table
@@ -210,12 +211,28 @@ def test_table_unknown_and_ambiguous_elements(builder, tmp_path):
     assert _loads(result.members, 1) == {}
 
 
-def test_table_without_a_model_force_unit_warns(make_builder, schema, tmp_path):
+def test_table_without_units_for_a_model_without_a_force_unit_is_refused(
+        make_builder, schema, tmp_path):
+    # issue 13 item 3: such a table was read in newtons (D = 100 meaning kN gave PASS at
+    # utilization 0.0001); units are never guessed, the fix is named.
     b = make_builder("mm_only", schema)
     _col(b, "C1")
-    result = read_columns(b.model, loads_table=_table(tmp_path, "element,D\nC1,4448.2216\n"))
-    assert _loads(result.members)["D"] == pytest.approx(1.0, rel=1e-6)  # N read, in kip
-    assert any(s.startswith("model declares no force unit") for s in result.messages)
+    table = _table(tmp_path, "element,D,L [kN]\nC1,100,50\n")
+    with pytest.raises(ModelReadError, match=r"column\(s\) D name no unit and the model "
+                       r"declares no force unit; .*'D \[kN\]'.* --force-unit"):
+        read_columns(b.model, loads_table=table)
+
+
+def test_a_force_unit_given_apart_reads_a_table_without_units(make_builder, schema, tmp_path):
+    b = make_builder("mm_only", schema)
+    _col(b, "C1")
+    path = tmp_path / "loads.csv"
+    path.write_text("element,D,L [kip]\nC1,4.4482216152605,2\n")
+    result = read_columns(b.model, loads_table=read_load_table(path, force_unit="kN"))
+    # 4.4482216152605 kN = 1 kip (1 kip = 1000 lbf, 1 lbf = 4.4482216152605 N exactly;
+    # common practice)
+    assert _loads(result.members) == pytest.approx({"D": 1.0, "L": 2.0}, rel=1e-9)
+    assert not any("force" in s for s in result.messages)
 
 
 def test_a_path_is_refused(builder, tmp_path):
