@@ -66,12 +66,16 @@ class ModelCheck:
 
 
 def _read(path: Path, include_members: bool, loads_table: Path | None,
-          force_unit: str | None = None) -> tuple[ifcopenshell.file, ReadResult]:
-    """Open the model and read its columns (the load table first: it is smaller)."""
+          force_unit: str | None = None, problems: list[str] | None = None
+          ) -> tuple[ifcopenshell.file, ReadResult]:
+    """Open the model and read its columns (the load table first: it is smaller).
+
+    With ``problems`` (``--lenient``) a damaged model is read and its damage listed there.
+    """
     table = (read_load_table(loads_table, force_unit)  # InputError
              if loads_table is not None else None)
     try:
-        model = open_model(path)
+        model = open_model(path, problems=problems)
         return model, read_columns(model, include_members=include_members, loads_table=table)
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
@@ -116,6 +120,18 @@ def no_columns_message(name: str, model: ifcopenshell.file, include_members: boo
     return f"no columns found in {name}: the model has no {wanted}; {instead}"
 
 
+def lenient_warning(problems: list[str]) -> str:
+    """The model-level warning of a damaged model checked with ``--lenient``.
+
+    Args:
+        problems: the damage :func:`open_model` listed (``"line N: what"``), earliest first.
+    """
+    shown = "; ".join(problems[:3]) + (f"; and {len(problems) - 3} more"
+                                       if len(problems) > 3 else "")
+    return (f"damaged model read with --lenient: {shown}; what the parser skipped is "
+            "missing, so any column's results may be wrong")
+
+
 def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelCheck:
     """Read every column of an IFC model, check it, suggest sections, build the report.
 
@@ -134,9 +150,14 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     except OSError:
         pass  # open_model names the problem
     with progress.phase(f"reading {path.name}"):
+        problems: list[str] | None = [] if options.lenient else None
         model, read = _read(path, options.include_members, options.loads_table,
-                            options.force_unit)
+                            options.force_unit, problems)
     members = read.members
+    if problems:
+        warning = lenient_warning(problems)
+        read.messages.insert(0, warning)
+        members.messages[:] = [[warning, *m] for m in members.messages]
     if not len(members):
         raise InputError(no_columns_message(options.source_name or path.name, model,
                                             options.include_members))

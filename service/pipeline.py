@@ -84,6 +84,8 @@ class CheckOptions(BaseModel):
     force_unit: str | None = Field(
         None, description="force unit of the load table's columns whose header names none "
         "(kip, kN, N, lbf, MN or any force unit pint knows)")
+    lenient: bool = Field(
+        False, description="check a damaged model anyway, with a model-level warning")
     include_members: bool = Field(False, description="also check IfcMember STRUT / POST")
     suggest: bool = Field(False, description="suggest sections for failing columns")
     utilization_limit: float | None = Field(
@@ -195,7 +197,8 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
         for name, value in (("--loads", options.loads_table),
                             ("--include-members", options.include_members),
                             ("--units", options.units), ("--suggest", options.suggest),
-                            ("--force-unit", options.force_unit)):
+                            ("--force-unit", options.force_unit),
+                            ("--lenient", options.lenient)):
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
                                  "its own loads, units and candidates")

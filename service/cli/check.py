@@ -70,7 +70,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
         options = CheckOptions(
             method=args.method, units=args.units,
             loads_table=Path(args.loads) if args.loads else None,
-            force_unit=args.force_unit,
+            force_unit=args.force_unit, lenient=args.lenient,
             include_members=args.include_members, suggest=args.suggest,
             utilization_limit=args.utilization_limit, oversized=args.oversized,
             families=tuple(args.families) if args.families else None,
@@ -127,6 +127,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      help="unit of the load table's columns whose header names none (kip, "
                      "kN, N, lbf, MN); without it they take the model's declared force unit, "
                      "and a model that declares none is refused")
+    inp.add_argument("--lenient", action="store_true",
+                     help="check a damaged model anyway (cut short, lines the parser "
+                     "skipped, references to missing instances) with a warning in every "
+                     "member's notes; refused by default")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
     gate = c.add_argument_group("pass / fail")

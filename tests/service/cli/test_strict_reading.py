@@ -146,3 +146,47 @@ def test_damaged_line_is_refused_naming_its_line(
     assert code == 2  # docs/design.md §4: unusable input
     assert capsys.readouterr().err == f"stanchion: cannot read {path}: {problem}\n"
     assert sorted(p.name for p in tmp_path.iterdir()) == ["damaged.ifc"]
+
+
+def test_lenient_checks_a_damaged_model_with_a_warning_in_every_output(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    import json
+
+    import ifcopenshell
+    import ifcopenshell.util.element
+
+    data, problem = _deleted_reaction()
+    path = tmp_path / "damaged.ifc"
+    path.write_bytes(data)
+    report, junit, out = tmp_path / "r.json", tmp_path / "j.xml", tmp_path / "checked.ifc"
+    code = main(["check", str(path), "--lenient", "--report", str(report), "--junit",
+                 str(junit), "--out", str(out)])
+    assert code == 1  # the sample fails on purpose (sample_models/README.md)
+    warning = f"damaged model read with --lenient: {problem}; "
+    assert f"note: {warning}" in capsys.readouterr().out
+    body = json.loads(report.read_text())
+    assert body["messages"][0].startswith(warning)
+    assert body["members"] and all(m["messages"][0].startswith(warning)
+                                   for m in body["members"])
+    assert junit.read_text().count("damaged model read with --lenient") >= len(body["members"])
+    model = ifcopenshell.open(str(out))
+    notes = [ifcopenshell.util.element.get_psets(c)["Stanchion_ColumnCheck"].get("Notes", "")
+             for c in model.by_type("IfcColumn")]
+    assert notes and all(n.startswith(warning) for n in notes)
+
+
+def test_lenient_does_not_open_what_the_parser_cannot(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    data, problem = _syntax_error()  # ifcopenshell refuses the whole file
+    path = tmp_path / "damaged.ifc"
+    path.write_bytes(data)
+    assert main(["check", str(path), "--lenient", "--quiet"]) == 2
+    assert capsys.readouterr().err == f"stanchion: cannot read {path}: {problem}\n"
+
+
+def test_lenient_is_refused_for_a_members_file(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    path = tmp_path / "members.json"
+    path.write_text("{}")
+    assert main(["check", str(path), "--lenient", "--quiet"]) == 2
+    assert capsys.readouterr().err.startswith("stanchion: --lenient applies to IFC models")
