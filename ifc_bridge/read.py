@@ -446,8 +446,8 @@ def read_columns(
 
     Raises:
         TypeError: ``loads_table`` is a path (parse it first).
-        ModelReadError: the load table has columns without a unit and the model declares
-            no force unit (units are never guessed).
+        ModelReadError: the model declares no force unit and the load table has columns
+            without a unit, or the model carries forces of its own (units are never guessed).
     """
     if isinstance(loads_table, str | PurePath):
         raise TypeError("read_columns takes a parsed load table "
@@ -510,6 +510,10 @@ def _read(model: ifcopenshell.file, include_members: bool,
     for i, r in enumerate(rows):
         cols.add(i, r, res, reader, matched.by_member.get(i, {}) if matched is not None else None)
 
+    if "force" in units.undeclared_used:
+        raise ModelReadError("model declares no force unit but carries forces (analysis "
+                             "results or Stanchion_Loads); units are never guessed: declare "
+                             "its force unit (IfcUnitAssignment) in the authoring program")
     messages.extend(_repeated_global_ids(rows, cols.reasons))
     if matched is not None:
         messages.extend(matched.messages)

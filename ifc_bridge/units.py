@@ -11,7 +11,9 @@ IfcForceMeasure in newton, IfcPressureMeasure in pascal), so a model whose IfcUn
 lacks a LENGTHUNIT / FORCEUNIT / PRESSUREUNIT is read in those SI base units -- but never
 silently: the first time a value of such a quantity is used, :meth:`ModelUnits.note_use`
 records a model-level warning naming the assumption (and the reader adds a note to every
-member that used such a value).
+member that used such a value).  Forces are the exception: :func:`ifc_bridge.read.read_columns`
+refuses a model that declares no force unit once a force was read
+(:attr:`ModelUnits.undeclared_used`; issue 13: units are never guessed).
 
 Per-property units.  An IfcPropertySingleValue or IfcPhysicalSimpleQuantity may carry its own
 ``Unit``; :meth:`ModelUnits.value_factor` uses it instead of the project unit.
@@ -87,6 +89,11 @@ class ModelUnits:
     declared: dict[str, bool]
     warnings: list[str] = field(default_factory=list)
     _warned: set[str] = field(default_factory=set, repr=False)
+
+    @property
+    def undeclared_used(self) -> frozenset[str]:
+        """The quantities read in an undeclared unit so far (see :meth:`note_use`)."""
+        return frozenset(self._warned)
 
     def note_use(self, quantity: str) -> str | None:
         """Record that a value of ``quantity`` was read in the project unit.

@@ -343,3 +343,34 @@ def test_results_outside_a_result_group_are_noted(builder):
     assert _loads(m) == {"D": pytest.approx(1.0)}
     assert any("in no IfcStructuralResultGroup" in s for s in m.messages[0])
     assert reaction is not None
+
+
+# ------------------------------------------------------------------ undeclared force unit
+
+
+def _with_analysis(b):
+    member = b.analysis_member(_col(b))
+    b.reaction(member, b.load_case("Dead", "DEAD_LOAD_G", "PERMANENT_G"), -120.0)
+
+
+def _with_pset(b):
+    b.loads(_col(b), D=100.0)
+
+
+@pytest.mark.parametrize("add_forces", [_with_analysis, _with_pset])
+def test_forces_in_a_model_without_a_force_unit_are_refused(make_builder, schema, add_forces):
+    # issue 13 item 3: with the force unit removed from the sample, its forces were read in
+    # newtons and every column passed at utilization <= 0.002; units are never guessed.
+    b = make_builder("mm_only", schema)
+    add_forces(b)
+    with pytest.raises(ModelReadError, match=r"^model declares no force unit but carries "
+                       r"forces .*units are never guessed"):
+        read_columns(b.model)
+
+
+def test_a_model_without_a_force_unit_and_without_forces_is_read(make_builder, schema):
+    # 14 of 17 real models declare no force unit and carry no forces (issue 13): still read.
+    b = make_builder("mm_only", schema)
+    _col(b)
+    result = read_columns(b.model)
+    assert len(result.members) == 1 and "no loads" in result.members.reason[0]

@@ -120,7 +120,9 @@ def test_material_on_the_type(builder):
 
 def test_undeclared_pressure_unit_is_warned(make_builder, schema):
     b = make_builder("mm_only", schema)
-    _column(b, b.material("Steel", fy=50.0))
+    # no loads: a model without a force unit carrying forces is refused (test_read_loads)
+    b.column("C1", profile=b.profile("I", "W14X48", **W14X48),
+             material=b.material("Steel", fy=50.0))
     result = read_columns(b.model)
     assert result.members.Fy[0] == pytest.approx(50.0)  # builder stored pascals
     assert any(s.startswith("model declares no pressure unit") for s in result.messages)

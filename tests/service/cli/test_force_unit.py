@@ -69,3 +69,15 @@ def test_a_members_file_refuses_force_unit(tmp_path, capsys) -> None:
         {"id": "C1", "section": "W14X48", "fy": 50, "length": 16, "loads": {"D": 95}}]}))
     assert main(["check", str(members), "--force-unit", "kN"]) == 2
     assert "--force-unit applies to IFC models" in capsys.readouterr().err
+
+
+def test_a_model_with_forces_and_no_force_unit_is_refused(tmp_path, capsys) -> None:
+    # issue 13 item 3: its Stanchion_Loads were read in newtons (every column passed at
+    # utilization <= 0.002); now exit 2, one line, nothing written.
+    model = write_model(tmp_path / "model.ifc", units="mm_only")
+    report = tmp_path / "r.json"
+    assert main(["check", str(model), "--report", str(report)]) == 2
+    err = capsys.readouterr().err.strip()
+    assert len(err.splitlines()) == 1
+    assert "model declares no force unit but carries forces" in err
+    assert not report.exists()
