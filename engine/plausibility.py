@@ -63,14 +63,10 @@ def _outside(values: FloatArray, low: float, high: float) -> BoolArray:
         return (values < low) | (values > high)
 
 
-def _largest_load(loads: FloatArray) -> FloatArray:
-    """The load of largest magnitude of each member (NaN where it has none)."""
-    if loads.shape[1] == 0:
-        return np.full(loads.shape[0], np.nan)
-    filled = np.where(np.isnan(loads), 0.0, loads)
-    pick = np.abs(filled).argmax(axis=1)
-    largest = np.take_along_axis(filled, pick[:, None], axis=1)[:, 0]
-    return np.where(np.isnan(loads).all(axis=1), np.nan, largest)
+def _largest_load(loads: FloatArray) -> float:
+    """The load of largest magnitude in one member's row (loads given)."""
+    known = loads[~np.isnan(loads)]
+    return float(known[np.abs(known).argmax()]) if len(known) else float("nan")
 
 
 def implausible_reasons(m: MemberTable, candidates: BoolArray) -> ObjectArray:
@@ -87,31 +83,30 @@ def implausible_reasons(m: MemberTable, candidates: BoolArray) -> ObjectArray:
     reason = np.full(n, None, dtype=object)
     if not any_set(candidates):
         return reason
-    idx = m.section_index
-    has_section = (idx >= 0) & (len(m.sections) > 0)
-    safe = np.where(has_section, idx, 0)
-    area = (np.where(has_section, m.sections.A.take(safe), np.nan) if len(m.sections)
-            else np.full(n, np.nan))
-    depth = (np.where(has_section, m.sections.d.take(safe), np.nan) if len(m.sections)
-             else np.full(n, np.nan))
-    load = _largest_load(m.loads)
-    values = np.stack([m.Fy, m.E, area, depth, m.lx, m.ly, m.lz, load, m.required_strength])
-    masks = np.stack([
-        _outside(m.Fy, FY_MIN, FY_MAX),
-        _outside(m.E, E_MIN, E_MAX),
-        _outside(area, AREA_MIN, AREA_MAX),
-        _outside(depth, DEPTH_MIN, DEPTH_MAX),
-        _outside(m.lx, LENGTH_MIN, LENGTH_MAX),
-        _outside(m.ly, LENGTH_MIN, LENGTH_MAX),
-        _outside(m.lz, LENGTH_MIN, LENGTH_MAX),
-        _outside(load, -LOAD_MAX, LOAD_MAX),
-        _outside(m.required_strength, -LOAD_MAX, LOAD_MAX),
-    ])
+    if len(m.sections):
+        idx = m.section_index
+        has_section = idx >= 0
+        safe = np.where(has_section, idx, 0)
+        area = np.where(has_section, m.sections.A.take(safe), np.nan)
+        depth = np.where(has_section, m.sections.d.take(safe), np.nan)
+    else:
+        area = depth = np.full(n, np.nan)
+    masks = np.empty((len(_TESTS), n), dtype=bool)
+    with np.errstate(invalid="ignore"):
+        for row, (values, low, high) in enumerate((
+                (m.Fy, FY_MIN, FY_MAX), (m.E, E_MIN, E_MAX), (area, AREA_MIN, AREA_MAX),
+                (depth, DEPTH_MIN, DEPTH_MAX), (m.lx, LENGTH_MIN, LENGTH_MAX),
+                (m.ly, LENGTH_MIN, LENGTH_MAX), (m.lz, LENGTH_MIN, LENGTH_MAX))):
+            masks[row] = _outside(values, low, high)
+        masks[7] = (np.abs(m.loads) > LOAD_MAX).any(axis=1) if m.loads.shape[1] else False
+        masks[8] = np.abs(m.required_strength) > LOAD_MAX
     hit = masks.any(axis=0) & candidates
     if any_set(hit):
         first = masks.argmax(axis=0)
+        columns = (m.Fy, m.E, area, depth, m.lx, m.ly, m.lz, None, m.required_strength)
         for i in hit.nonzero()[0].tolist():
             what, unit, per = _TESTS[first[i]]
-            reason[i] = (f"implausible {what} {values[first[i], i] / per:.4g} {unit}: "
-                         "check the units")
+            column = columns[first[i]]
+            value = _largest_load(m.loads[i]) if column is None else float(column[i])
+            reason[i] = f"implausible {what} {value / per:.4g} {unit}: check the units"
     return reason
