@@ -7,24 +7,14 @@ real pipeline), through the app built by ``create_app``.
 
 from __future__ import annotations
 
-import time
 from pathlib import Path
 
 from fastapi.testclient import TestClient
 
 from stanchion.service.http.app import create_app
 from stanchion.service.http.settings import Settings
+from tests.service.http.test_app import _wait
 from tests.service.test_no_columns import columnless_model
-
-
-def _wait(c: TestClient, job_id: str, timeout: float = 60.0) -> dict:
-    end = time.monotonic() + timeout
-    while time.monotonic() < end:
-        job = c.get(f"/v1/jobs/{job_id}").json()
-        if job["status"] in ("done", "failed"):
-            return job
-        time.sleep(0.05)
-    raise AssertionError(f"job {job_id} not finished after {timeout} s")
 
 
 def test_model_without_columns_fails_its_job_with_the_message(tmp_path: Path) -> None:
@@ -33,7 +23,7 @@ def test_model_without_columns_fails_its_job_with_the_message(tmp_path: Path) ->
     with TestClient(app, raise_server_exceptions=False) as c:
         r = c.post("/v1/models", files={"file": ("portal.ifc", content)})
         assert r.status_code == 202, r.text
-        job = _wait(c, r.json()["job_id"])
+        job = _wait(c, r.json()["job_id"], timeout=60.0)  # a real worker process
         assert job["status"] == "failed", job
         # The counts are the test model's own (tests/service/test_no_columns.columnless_model).
         assert job["error"] == (

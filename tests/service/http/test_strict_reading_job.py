@@ -12,7 +12,7 @@ from fastapi.testclient import TestClient
 
 from stanchion.service.http.app import create_app
 from stanchion.service.http.settings import Settings
-from tests.service.http.test_no_columns_job import _wait
+from tests.service.http.test_app import _wait
 
 SAMPLE = Path(__file__).resolve().parents[3] / "sample_models" / "workshop_annex.ifc"
 
@@ -25,7 +25,7 @@ def test_cut_model_fails_its_job_naming_the_line(tmp_path: Path) -> None:
     with TestClient(app, raise_server_exceptions=False) as c:
         r = c.post("/v1/models", files={"file": ("annex.ifc", content)})
         assert r.status_code == 202, r.text
-        job = _wait(c, r.json()["job_id"])
+        job = _wait(c, r.json()["job_id"], timeout=60.0)  # a real worker process
         assert job["status"] == "failed", job
         assert job["error"].endswith(f": line {len(lines) - 7}: the file ends without "
                                      "END-ISO-10303-21; (cut short?)"), job["error"]
