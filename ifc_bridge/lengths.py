@@ -9,7 +9,10 @@ Order (``length_source`` names the one used):
    (IFC2X3);
 4. ``analytical`` -- edge length of the IfcStructuralCurveMember(s) tied to the column
    (summed when the column is split into several analysis members);
-5. ``none`` -- the member is not checked unless Stanchion_Design gives all three unbraced
+5. ``body`` -- for a body that is not an extrusion (Brep, face set): the extent of its
+   vertices along the element's local z axis (it includes whatever the body models beyond
+   the shaft, such as base plates; the member notes it);
+6. ``none`` -- the member is not checked unless Stanchion_Design gives all three unbraced
    lengths.
 
 When the axis and the extrusion disagree by more than 2 %, the member notes it.
@@ -83,4 +86,11 @@ def choose_length(
         return quantity_in, "quantity", notes
     if analytical_model is not None:
         return analytical_model * length_factor, "analytical", notes
+    if shape.body_extent is not None:
+        extent = shape.body_extent * length_factor
+        notes.append(f"length {extent:.4g} in is the extent of the {shape.body_kind or 'body'} "
+                     "along the column's local z axis (it includes anything modelled beyond "
+                     "the shaft, such as base plates): review it, or give a Length quantity "
+                     "or Stanchion_Design unbraced lengths")
+        return extent, "body", notes
     return math.nan, "none", notes

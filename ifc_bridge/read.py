@@ -9,7 +9,8 @@ Per member, the extra columns say where each input came from:
 
 * ``profile_source``: ``profile_set/catalog``, ``body/dimensions`` ... (where the profile was
   found / what the properties are based on), or ``none``;
-* ``length_source``: ``axis``, ``extrusion``, ``quantity``, ``analytical`` or ``none``;
+* ``length_source``: ``axis``, ``extrusion``, ``quantity``, ``analytical``, ``body`` or
+  ``none``;
 * ``load_source``: ``analysis``, ``table``, ``pset`` joined with ``+``, or ``none``;
 * ``fy_source``: ``override``, ``material``, ``grade`` or ``none``.
 
@@ -114,6 +115,7 @@ class _Row:
     pset: dict[str, float]
     notes: list[str]
     reasons: list[str]
+    body_kind: str | None = None  # a Body that is not an extrusion (IfcFacetedBrep ...)
 
 
 class _Reader:
@@ -188,7 +190,9 @@ class _Reader:
         shape = self.shapes.read(element)
         if not shape.extrusions and etype is not None:
             typed = self.shapes.read_type(etype)
-            shape = ShapeInfo(typed.extrusions, shape.axis_length, shape.notes + typed.notes)
+            shape = ShapeInfo(typed.extrusions, shape.axis_length, shape.notes + typed.notes,
+                              shape.body_extent or typed.body_extent,
+                              shape.body_kind or typed.body_kind)
         notes.extend(shape.notes)
         material = element_material(element, etype, self.index, self._materials)
         notes.extend(material.notes)
@@ -222,7 +226,7 @@ class _Reader:
             storey=(get(storey, "Name") or "") if storey else "",
             x=x, y=y, spec=spec, profile_origin=origin, material=material, length=length,
             length_source=length_source, design=design, analysis=analysis, pset=pset,
-            notes=notes, reasons=reasons,
+            notes=notes, reasons=reasons, body_kind=shape.body_kind,
         )
 
     def _profile(self, material: MaterialInfo, shape: ShapeInfo, notes: list[str],
@@ -393,7 +397,9 @@ def _section_reasons(r: _Row, resolution_reason: str | None) -> list[str]:
     why = list(r.reasons)
     broken = r.profile_origin == BROKEN
     if r.spec is None and not broken:
-        why.insert(0, "no profile (no material profile set and no Body extrusion found)")
+        body = (f"the Body is an {r.body_kind}, from which no section is read" if r.body_kind
+                else "no Body extrusion found")
+        why.insert(0, f"no profile (no material profile set and {body})")
     elif resolution_reason and not broken:
         why.insert(0, resolution_reason)
     return why

@@ -8,6 +8,14 @@ IfcBooleanResult / IfcBooleanClippingResult and the tree root of IfcCsgSolid.
 Axis: the representation identified ``Axis``; its curve length (IfcPolyline, IfcIndexedPolyCurve
 through its points, IfcTrimmedCurve of an IfcLine) is the member length.
 
+Bodies that are not extrusions (faceted or advanced Brep, triangulated or polygonal face sets,
+shell- and face-based surface models, through mapped items with their full transformation and
+the first operand of booleans) give no profile, but their vertices give the body's extent along
+the element's local z axis -- the column axis of a column placed the usual way (IFC4
+IfcColumnStandardCase: "the extrusion direction ... along the positive z axis of the object
+coordinate system"); :attr:`ShapeInfo.body_extent`.  It is computed only for a body without an
+extrusion.
+
 Results are cached per representation, so occurrences sharing a mapped representation are
 read once.
 """
@@ -15,8 +23,10 @@ read once.
 from __future__ import annotations
 
 import math
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
 from dataclasses import dataclass
+
+import numpy as np
 
 from stanchion.ifc_bridge.access import Entity, get
 
@@ -55,6 +65,8 @@ class ShapeInfo:
     extrusions: tuple[Extrusion, ...] = ()
     axis_length: float | None = None
     notes: tuple[str, ...] = ()
+    body_extent: float | None = None
+    body_kind: str | None = None
 
     @property
     def main(self) -> Extrusion | None:
@@ -100,6 +112,7 @@ class ShapeReader:
     def __init__(self) -> None:
         self._body: dict[int, tuple[tuple[Extrusion, ...], tuple[str, ...]]] = {}
         self._axis: dict[int, float | None] = {}
+        self._extent: dict[int, tuple[float | None, str | None]] = {}
 
     # ------------------------------------------------------------------ public
 
@@ -125,7 +138,8 @@ class ShapeReader:
                 axis_length = self._axis_of(rep)
                 if axis_length:
                     break
-        return ShapeInfo(extrusions, axis_length, notes)
+        extent, kind = (None, None) if extrusions else self._extent_of(body_reps)
+        return ShapeInfo(extrusions, axis_length, notes, extent, kind)
 
     def read_type(self, etype: Entity | None) -> ShapeInfo:
         """Extrusions of an element type's Body representation maps.
@@ -139,15 +153,16 @@ class ShapeReader:
             The shape facts (empty when the type has no usable Body map).
         """
         maps = getattr(etype, "RepresentationMaps", None) if etype is not None else None
-        for rmap in maps or ():
-            rep = rmap.MappedRepresentation
-            if rep is None or rep.RepresentationIdentifier not in ("Body", None):
-                continue
+        bodies = [rmap.MappedRepresentation for rmap in maps or ()
+                   if rmap.MappedRepresentation is not None
+                   and rmap.MappedRepresentation.RepresentationIdentifier in ("Body", None)]
+        for rep in bodies:
             extrusions, notes = self._body_of(rep)
             if extrusions:
                 return ShapeInfo(extrusions, None, notes + ("shape taken from the element "
                                                             "type's representation map",))
-        return ShapeInfo()
+        extent, kind = self._extent_of(bodies)
+        return ShapeInfo(body_extent=extent, body_kind=kind)
 
     # ------------------------------------------------------------------ body
 
@@ -189,6 +204,19 @@ class ShapeReader:
         elif item.is_a("IfcCsgSolid"):
             self._walk(item.TreeRootExpression, scale, found, notes, level + 1)
 
+    # ------------------------------------------------------------------ body extent
+
+    def _extent_of(self, reps: list[Entity]) -> tuple[float | None, str | None]:
+        """Extent along local z of the first body representation with vertices, and its kind."""
+        for rep in reps:
+            key = rep.id()
+            if key not in self._extent:
+                self._extent[key] = _vertex_extent(rep)
+            if self._extent[key][0] is not None:
+                return self._extent[key]
+        kinds = [k for k in (self._extent.get(r.id(), (None, None))[1] for r in reps) if k]
+        return None, (kinds[0] if kinds else None)
+
     # ------------------------------------------------------------------ axis
 
     def _axis_of(self, rep: Entity) -> float | None:
@@ -226,3 +254,93 @@ class ShapeReader:
             return sum(self._curve_length(sub, scale * s, level + 1) or 0.0
                        for sub in mapped.Items or ()) or None
         return None
+
+
+# ---------------------------------------------------------------------- vertex extent
+
+def _face_points(faces: Sequence[Entity]) -> Iterator[Sequence[float]]:
+    for face in faces or ():
+        for bound in get(face, "Bounds") or ():
+            loop = get(bound, "Bound")
+            if loop is None:
+                continue
+            if loop.is_a("IfcPolyLoop"):
+                for p in loop.Polygon or ():
+                    yield p.Coordinates
+            elif loop.is_a("IfcEdgeLoop"):
+                for edge in loop.EdgeList or ():
+                    element = get(edge, "EdgeElement") or edge
+                    for v in (get(element, "EdgeStart"), get(element, "EdgeEnd")):
+                        geometry = get(v, "VertexGeometry") if v is not None else None
+                        if geometry is not None and geometry.is_a("IfcCartesianPoint"):
+                            yield geometry.Coordinates
+
+
+def _item_points(item: Entity, level: int) -> tuple[list[Sequence[float]], str | None]:
+    """Vertices of one body item in its representation's coordinates, and the item kind."""
+    if item is None or level > _MAX_DEPTH:
+        return [], None
+    if item.is_a("IfcTriangulatedFaceSet") or item.is_a("IfcPolygonalFaceSet"):
+        coords = get(item, "Coordinates")
+        return list(get(coords, "CoordList") or ()), item.is_a()
+    if item.is_a("IfcManifoldSolidBrep"):  # faceted and advanced Brep (voids lie inside)
+        kind = "IfcFacetedBrep" if item.is_a("IfcFacetedBrep") else item.is_a()
+        return list(_face_points(get(get(item, "Outer"), "CfsFaces"))), kind
+    if item.is_a("IfcShellBasedSurfaceModel") or item.is_a("IfcFaceBasedSurfaceModel"):
+        shells = getattr(item, "SbsmBoundary", None) or getattr(item, "FbsmFaces", None) or ()
+        return [p for shell in shells for p in _face_points(get(shell, "CfsFaces"))], item.is_a()
+    if item.is_a("IfcBooleanResult"):
+        return _item_points(item.FirstOperand, level + 1)
+    if item.is_a("IfcMappedItem"):
+        import ifcopenshell.util.placement
+
+        source = item.MappingSource
+        mapped = source.MappedRepresentation if source is not None else None
+        points: list[Sequence[float]] = []
+        kind = None
+        for sub in (mapped.Items if mapped is not None else ()) or ():
+            sub_points, sub_kind = _item_points(sub, level + 1)
+            points += sub_points
+            kind = kind or sub_kind
+        if not points:
+            return [], kind
+        matrix = np.asarray(ifcopenshell.util.placement.get_mappeditem_transformation(item),
+                            dtype=float)
+        xyz = _as_xyz(points)
+        moved = xyz @ matrix[:3, :3].T + matrix[:3, 3]
+        return [tuple(p) for p in moved.tolist()], kind
+    return [], None
+
+
+def _as_xyz(points: Sequence[Sequence[float]]) -> np.ndarray:
+    xyz = np.zeros((len(points), 3))
+    for i, p in enumerate(points):
+        c = [float(v) for v in p][:3]
+        xyz[i, : len(c)] = c
+    return xyz
+
+
+def _vertex_extent(rep: Entity) -> tuple[float | None, str | None]:
+    """Extent along z of every vertex of ``rep`` (model length units) and the first item kind.
+
+    Args:
+        rep: a body shape representation.
+
+    Returns:
+        (max z - min z, or None when there are fewer than two vertices or no extent; the
+        item kind such as ``IfcFacetedBrep``, or None when no item has vertices).
+    """
+    points: list[Sequence[float]] = []
+    kind = None
+    try:
+        for item in get(rep, "Items") or ():
+            item_points, item_kind = _item_points(item, 0)
+            points += item_points
+            kind = kind or item_kind
+    except (AttributeError, RuntimeError, TypeError, ValueError):
+        return None, kind
+    if len(points) < 2:
+        return None, kind
+    z = _as_xyz(points)[:, 2]
+    extent = float(z.max() - z.min())
+    return (extent if math.isfinite(extent) and extent > 0 else None), kind
