@@ -20,12 +20,12 @@ from stanchion.engine.compression import (
     compressive_strength,
 )
 from stanchion.engine.masks import all_set, any_set, finite_positive, is_none
-from stanchion.engine.materials import E_DEFAULT, G_DEFAULT
+from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, composite_reason, skip_reason
 from stanchion.engine.members import MemberTable
 from stanchion.engine.plausibility import implausible_reasons
 from stanchion.engine.sections import Kind
 
-PASS, FAIL, NOT_CHECKED = "pass", "fail", "not_checked"
+PASS, FAIL, NOT_CHECKED, SKIPPED = "pass", "fail", "not_checked", "skipped"
 GIVEN_REQUIRED = "required strength as given"
 _STATUS = np.array([FAIL, PASS], dtype=object)  # indexed by (utilization <= 1)
 _UNSUPPORTED = int(Kind.UNSUPPORTED)
@@ -37,7 +37,8 @@ class CheckResults:
     """Per-member results (kip, ksi), aligned with the member table rows.
 
     Attributes:
-        status: "pass" / "fail" / "not_checked".
+        status: "pass" / "fail" / "not_checked" / "skipped" (not a steel member: no
+            capacity, no verdict; docs/design.md §3).
         required_strength: governing factored (LRFD) or service (ASD) compression, kip.
         available_strength: φc·Pn or Pn/Ωc, kip.
         utilization: required / available.
@@ -45,7 +46,7 @@ class CheckResults:
         combination: governing combination name (or "required strength as given").
         slenderness: max(Lcx/rx, Lcy/ry).
         Fcr, Ae: governing critical stress (ksi) and effective area (in²).
-        reason: why a member was not checked (None otherwise).
+        reason: why a member was not checked or skipped (None otherwise).
         messages: per-member messages (warnings, notes).
         max_tension: largest net tension of any combination, kip (0 where none).
         combination_names / combination_values: every combination's net axial value
@@ -136,6 +137,38 @@ def _not_checked_reasons(m: MemberTable) -> ObjectArray:
     return reason
 
 
+def _material_reasons(m: MemberTable, reason: ObjectArray) -> BoolArray | None:
+    """Apply the material class (:mod:`stanchion.engine.materials`) to ``reason``.
+
+    A member whose materials all name another material than steel is skipped: its reason
+    becomes "not steel: <class>" whatever else it lacks.  A member whose materials name
+    steel and another material (composite or ambiguous) is not checked, that reason first.
+    Steel and unknown members are left alone.  Loops only over the distinct classes.
+
+    Args:
+        m: the members (``m.material`` None: nothing to do).
+        reason: the members' reasons, changed in place.
+
+    Returns:
+        The skipped members, or None when there are none.
+    """
+    if m.material is None:
+        return None
+    skipped = None
+    for label in set(m.material.tolist()):
+        rows = m.material == label
+        skip = skip_reason(str(label))
+        if skip is not None:
+            reason[rows] = skip
+            skipped = rows if skipped is None else skipped | rows
+            continue
+        mixed = composite_reason(str(label))
+        if mixed is not None:
+            for i in rows.nonzero()[0].tolist():
+                reason[i] = mixed if reason[i] is None else f"{mixed}; {reason[i]}"
+    return skipped
+
+
 def check_members(
     m: MemberTable,
     method: str = "LRFD",
@@ -159,6 +192,7 @@ def check_members(
     method = method.upper()
     n = len(m)
     reason = _not_checked_reasons(m)
+    skipped = _material_reasons(m, reason)
     ok = is_none(reason)
 
     # Compute on every row with harmless stand-ins where data are unusable, then blank them
@@ -221,6 +255,9 @@ def check_members(
         required[bad & ((gov.no_loads & ~given) | unknown_demand)] = np.nan
         limit_state = np.where(ok, limit_state, "").astype(object)
         combination[bad] = ""
+    if skipped is not None:  # not steel: no verdict and no numbers at all
+        status[skipped] = SKIPPED
+        required[skipped] = np.nan
 
     max_tension = (gov.max_tension if every and not any_given
                    else np.where(ok & ~given, gov.max_tension, 0.0))

@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 import re
+import unicodedata
 from collections.abc import Iterable
 from dataclasses import dataclass
 from functools import lru_cache
@@ -270,3 +271,147 @@ def match_grade(
         notes.append(f"material name '{text}' names several grades ({names}); "
                      f"the lowest Fy is used")
     return best, notes
+
+
+# ---------------------------------------------------------------------------- material class
+#
+# Which material a column is made of, from the words of its material names and IFC4
+# categories (docs/design.md §5).  Only steel columns are checked; a column whose materials
+# all name another material is skipped ("not steel: concrete"); one whose materials name
+# steel and another material (a composite column, e.g. "steel reinforced concrete", the
+# usual name of an encased composite column, or an ambiguous name) is not checked, never
+# taken for bare steel nor skipped; one whose materials name nothing known (or that has no
+# material) goes the usual way: a yield stress must come from somewhere, or it is not
+# checked.  The words are common practice, no source: the material names authoring
+# programs and their users write in English, German, French, Spanish, Italian, the
+# Scandinavian languages, Dutch and Russian.
+
+STEEL, UNKNOWN = "steel", "unknown"
+CONCRETE, TIMBER, ALUMINIUM, MASONRY = "concrete", "timber", "aluminium", "masonry"
+#: The classes other than steel, in the order a reason names them.
+NOT_STEEL: tuple[str, ...] = (CONCRETE, TIMBER, ALUMINIUM, MASONRY)
+
+#: Whole words (accents removed, lower case; an English plural "s" is also accepted).
+_WORDS: dict[str, tuple[str, ...]] = {
+    STEEL: ("steel", "stahl", "acier", "acero", "acciaio", "staal", "stal", "stål", "сталь",
+            "stainless", "inox"),
+    CONCRETE: ("concrete", "beton", "béton", "betong", "бетон", "hormigón", "calcestruzzo",
+               "cement", "shotcrete", "precast"),
+    TIMBER: ("timber", "wood", "lumber", "holz", "glulam", "bois", "madera", "legno", "clt",
+             "lvl", "glt", "trä", "tre", "hout", "drewno", "дерево", "древесина", "softwood",
+             "hardwood", "plywood"),
+    ALUMINIUM: ("aluminium", "aluminum", "alu", "alluminio", "aluminio", "алюминий"),
+    MASONRY: ("masonry", "brick", "brickwork", "block", "blockwork", "cmu", "stone",
+              "mauerwerk", "ziegel", "maçonnerie", "brique", "mampostería", "ladrillo",
+              "muratura", "mattone", "tegel", "кирпич", "кладка"),
+}
+#: Heads of German and Scandinavian compounds: a word ending in one takes its class
+#: ("Stahlbeton" is concrete, "Baustahl" steel, "Brettschichtholz" timber, the head of a
+#: compound being its last part).
+_HEADS: dict[str, tuple[str, ...]] = {
+    STEEL: ("stahl",),
+    CONCRETE: ("beton", "betong"),
+    TIMBER: ("holz",),
+    MASONRY: ("mauerwerk", "ziegel"),
+}
+#: Reinforcement is part of a concrete member: a material naming it counts as concrete
+#: whatever steel word it also holds ("reinforcing steel", "Betonstahl B500").
+_REINFORCEMENT = ("rebar", "reinforcing", "reinforcement", "bewehrung", "betonstahl",
+                  "armature", "armadura", "armatura", "арматура")
+#: Glued-laminated timber strength classes of EN 14080 (GL24h, GL28c ...).
+_GLULAM_CLASS = re.compile(r"\bGL\s?\d{2}[HC]\b")
+
+
+def _fold(text: str) -> str:
+    """Lower case without accents ("Béton" -> "beton", "Алюминий" -> "алюминии")."""
+    decomposed = unicodedata.normalize("NFKD", text.casefold())
+    return "".join(c for c in decomposed if not unicodedata.combining(c))
+
+
+_WORD_CLASS = {_fold(w): cls for cls, words in _WORDS.items() for w in words}
+_HEAD_CLASS = sorted(((_fold(h), cls) for cls, heads in _HEADS.items() for h in heads),
+                     key=lambda hc: -len(hc[0]))
+_REINFORCEMENT_FOLDED = tuple(_fold(w) for w in _REINFORCEMENT)
+_LETTERS = re.compile(r"[^\W\d_]+")  # runs of letters: digits, "_", "-", "/" separate words
+
+
+def _word_class(word: str) -> str | None:
+    """The class one word names, or None."""
+    found = _WORD_CLASS.get(word)
+    if found is None and len(word) > 3 and word.endswith("s"):
+        found = _WORD_CLASS.get(word[:-1])
+    if found is None:
+        found = next((cls for head, cls in _HEAD_CLASS if word.endswith(head)), None)
+    return found
+
+
+@lru_cache(maxsize=1024)
+def text_classes(text: str | None) -> frozenset[str]:
+    """The material classes one name (or IFC4 Category) names.
+
+    Words are runs of letters (so ``"_Beton_C30-37_wg"`` holds ``Beton``), compared whole
+    or, for compound heads, as the end of a word; a steel grade or product standard of the
+    grade table (S235, A992, EN 10025 ...) names steel; a reinforcement word makes the
+    text concrete alone.
+
+    Args:
+        text: a material's Name or Category (None or empty: nothing).
+
+    Returns:
+        The classes named: empty, one, or several (an ambiguous or composite name).
+    """
+    if not text:
+        return frozenset()
+    words = _LETTERS.findall(_fold(text))
+    if any(w.startswith(_REINFORCEMENT_FOLDED) for w in words):
+        return frozenset({CONCRETE})
+    found = {cls for cls in map(_word_class, words) if cls is not None}
+    upper = _upper(text)
+    if _GLULAM_CLASS.search(upper):
+        found.add(TIMBER)
+    if any(rx.search(upper) for _, rx in _COMPILED) or product_standards(text):
+        found.add(STEEL)
+    return frozenset(found)
+
+
+def material_class(texts: Iterable[str | None]) -> str:
+    """One member's material class from the names and categories of all its materials.
+
+    Args:
+        texts: every material's Name and IFC4 Category (None where absent).
+
+    Returns:
+        ``"steel"``, ``"unknown"`` (nothing recognised, or no material), one class of
+        :data:`NOT_STEEL`, or several classes joined with ", " in :data:`NOT_STEEL` order,
+        steel first (``"steel, concrete"``: composite or ambiguous).
+    """
+    found: set[str] = set()
+    for text in texts:
+        found |= text_classes(text)
+    if not found:
+        return UNKNOWN
+    return ", ".join(c for c in (STEEL, *NOT_STEEL) if c in found)
+
+
+def skip_reason(label: str) -> str | None:
+    """The skip reason of a member of material class ``label`` ("not steel: concrete").
+
+    None for steel, unknown and composite (steel with another class) members.
+    """
+    if label in (STEEL, UNKNOWN) or STEEL in label.split(", "):
+        return None
+    return f"not steel: {label}"
+
+
+def composite_reason(label: str) -> str | None:
+    """Why a member whose materials name steel and another class is not checked, or None.
+
+    Such a member is a composite column (AISC 360-22 Chapter I, not implemented) or its
+    material is named ambiguously; it is neither taken for a bare steel column nor skipped.
+    """
+    classes = label.split(", ")
+    if STEEL not in classes or len(classes) < 2:
+        return None
+    others = ", ".join(c for c in classes if c != STEEL)
+    return (f"material names steel and {others}: a composite or ambiguously named member "
+            "(composite members, AISC 360-22 Chapter I, are not checked)")

@@ -42,6 +42,9 @@ class MemberTable:
         reason: None, or why the member cannot be checked.
         messages: per-member notes carried into the report.
         extra: further per-member columns (storey, x, y, candidates ...) for writers.
+        material: material class of each member (:func:`engine.materials.material_class`:
+            ``"steel"``, ``"unknown"``, ``"concrete"`` ...); None when the reader knows
+            none (members files: every member is taken as steel by its grade).
     """
 
     id: ObjectArray
@@ -63,6 +66,7 @@ class MemberTable:
     reason: ObjectArray
     messages: list[list[str]]
     extra: dict[str, AnyArray] = field(default_factory=dict)
+    material: ObjectArray | None = None
 
     def __len__(self) -> int:
         return len(self.id)
@@ -91,6 +95,7 @@ class MemberTable:
         reason: list[str | None] | None = None,
         messages: list[list[str]] | None = None,
         extra: dict[str, AnyArray] | None = None,
+        material: list[str] | None = None,
     ) -> MemberTable:
         """Convenience constructor: defaults K = 1 and unbraced lengths = member length.
 
@@ -115,6 +120,7 @@ class MemberTable:
             reason: why each member cannot be checked, or None.
             messages: per-member notes (default: none).
             extra: further per-member columns for writers.
+            material: material class of each member (default: none known).
 
         Returns:
             The member table.
@@ -153,4 +159,5 @@ class MemberTable:
             reason=np.array(reason if reason is not None else [None] * n, dtype=object),
             messages=messages if messages is not None else [[] for _ in range(n)],
             extra=extra or {},
+            material=np.array(material, dtype=object) if material is not None else None,
         )

@@ -19,6 +19,12 @@ The product standard named there (ASTM A500, A1085, EN 10219 ...) decides the de
 tubes (:func:`material_standard`, :func:`engine.tubes.design_wall`).
 
 None of these -> the member is not checked, reason "no yield strength".
+
+Material class (:func:`element_class`): the names and IFC4 Categories of every material of
+the element (the profiles' and layers' materials of a set included) go to the engine's
+classifier (:func:`engine.materials.material_class`); a column whose materials all name
+another material than steel (concrete, timber, aluminium, masonry) is skipped by the
+engine, one with no material is "unknown" and goes the usual way (docs/design.md §5).
 """
 
 from __future__ import annotations
@@ -29,7 +35,12 @@ from dataclasses import dataclass, field, replace
 import ifcopenshell
 import ifcopenshell.util.element
 
-from stanchion.engine.materials import GradeMatch, match_grade, product_standard
+from stanchion.engine.materials import (
+    GradeMatch,
+    match_grade,
+    material_class,
+    product_standard,
+)
 from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.properties import PropertyValue, to_internal
 from stanchion.ifc_bridge.relations import RelationIndex
@@ -229,3 +240,20 @@ def material_standard(materials: tuple[Entity, ...]) -> str | None:
     """The product standard the materials' names give (engine table), or None."""
     std = product_standard(" ".join(material_text(m) for m in materials))
     return std.name if std is not None else None
+
+
+def element_class(info: MaterialInfo) -> str:
+    """The material class of an element's materials (engine classifier).
+
+    Args:
+        info: the element's material facts (:func:`element_material`).
+
+    Returns:
+        ``"steel"``, ``"unknown"`` (no material, or none recognised), ``"concrete"`` ...
+        (see :func:`engine.materials.material_class`).
+    """
+    texts: list[str | None] = []
+    for mat in info.materials:
+        texts.append(mat.Name)
+        texts.append(getattr(mat, "Category", None))  # IFC4 and later
+    return material_class(texts)

@@ -43,6 +43,7 @@ from stanchion.ifc_bridge.materials import (
     MaterialCache,
     MaterialInfo,
     YieldReader,
+    element_class,
     element_material,
     grade_yield,
     material_standard,
@@ -431,6 +432,18 @@ def _repeated_global_ids(rows: list[_Row], reasons: list[str | None]) -> list[st
     return messages
 
 
+def _material_classes(rows: list[_Row]) -> list[str]:
+    """Each row's material class (steel, concrete ...), once per shared material info."""
+    known: dict[int, str] = {}
+    out = []
+    for r in rows:
+        key = id(r.material)
+        if key not in known:
+            known[key] = element_class(r.material)
+        out.append(known[key])
+    return out
+
+
 def read_columns(
     model: ifcopenshell.file,
     *,
@@ -536,7 +549,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
             lx=cols.unbraced["X"], ly=cols.unbraced["Y"], lz=cols.unbraced["Z"],
             kx=cols.k["X"], ky=cols.k["Y"], kz=cols.k["Z"],
             loads=cols.loads, reason=cols.reasons, messages=cols.messages,
-            extra=cols.extra_arrays(),
+            extra=cols.extra_arrays(), material=_material_classes(rows),
         )
     return ReadResult(
         members=members, messages=messages, force_unit_factor=units.force,

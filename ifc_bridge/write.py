@@ -55,14 +55,14 @@ import numpy as np
 
 from stanchion import __version__
 from stanchion.engine.arrays import FloatArray
-from stanchion.engine.check import FAIL, NOT_CHECKED, PASS, CheckResults
+from stanchion.engine.check import FAIL, NOT_CHECKED, PASS, SKIPPED, CheckResults
 from stanchion.engine.members import MemberTable
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.units import si_scale
 
 PSET_NAME = "Stanchion_ColumnCheck"
-STATUS_LABELS = {PASS: "PASS", FAIL: "FAIL", NOT_CHECKED: "NOT CHECKED"}
+STATUS_LABELS = {PASS: "PASS", FAIL: "FAIL", NOT_CHECKED: "NOT CHECKED", SKIPPED: "SKIPPED"}
 APPLICATION_ID = "stanchion"
 APPLICATION_NAME = "stanchion column checks"
 APPLICATION_VERSION = __version__
@@ -371,6 +371,7 @@ def _value_columns(
     n = len(members)
     status: list[_Value] = [STATUS_LABELS[str(s)] for s in results.status]
     not_checked = STATUS_LABELS[NOT_CHECKED]
+    with_reason = (not_checked, STATUS_LABELS[SKIPPED])  # skipped: "not steel: concrete"
     cols: _Columns = {
         "Status": status,
         "Section": [_label(str(s)) if s else None for s in members.section_label],
@@ -380,7 +381,7 @@ def _value_columns(
         "GoverningCombination": [_label(str(c)) if c else None for c in results.combination],
         "GoverningLimitState": [_label(str(c)) if c else None for c in results.limit_state],
         "Slenderness": _finite(results.slenderness),
-        "Reason": [str(r) if s == not_checked and r is not None and str(r) else None
+        "Reason": [str(r) if s in with_reason and r is not None and str(r) else None
                    for s, r in zip(status, results.reason, strict=True)],
         "Notes": _joined(results.messages),
     }

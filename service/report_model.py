@@ -26,7 +26,7 @@ from pydantic import BaseModel, ConfigDict, Field
 
 from stanchion.service.request import ForceUnit, LengthUnit, StressUnit
 
-Status = Literal["pass", "fail", "not_checked"]
+Status = Literal["pass", "fail", "not_checked", "skipped"]
 JobState = Literal["queued", "running", "done", "failed"]
 DesignMethod = Literal["LRFD", "ASD"]
 
@@ -71,6 +71,8 @@ class Summary(_Contract):
     pass_: Count = Field(alias="pass", description="members that pass")
     fail: Count = Field(description="members that fail")
     not_checked: Count = Field(description="members not checked (missing or unusable data)")
+    skipped: Count = Field(description="members skipped: not steel (concrete, timber, "
+                           "aluminium, masonry by their material); no verdict, not a failure")
     max_utilization: NonNegative | None = Field(
         description="highest utilization of the checked members (dimensionless); null when "
         "no member was checked")
@@ -162,8 +164,17 @@ class NotCheckedMember(_MemberResult):
     reason: str = Field(min_length=1, description="why the member was not checked")
 
 
-#: One report row: checked (pass / fail) or not checked, told apart by ``status``.
-MemberResult = Annotated[CheckedMember | NotCheckedMember, Field(discriminator="status")]
+class SkippedMember(_MemberResult):
+    """A member that is not steel by its material: no capacity, no verdict, not a failure."""
+
+    status: Literal["skipped"] = Field(description="skipped: not a steel member; see reason")
+    reason: str = Field(min_length=1, description="why the member was skipped, e.g. 'not "
+                        "steel: concrete'")
+
+
+#: One report row: checked (pass / fail), not checked or skipped, told apart by ``status``.
+MemberResult = Annotated[CheckedMember | NotCheckedMember | SkippedMember,
+                         Field(discriminator="status")]
 
 
 class Source(_Contract):

@@ -2,7 +2,9 @@
 
 Exit codes (docs/design.md §4): 0 every member passes; 1 any member fails or is not checked
 (``--allow-not-checked``: not-checked members are warnings; ``--fail-on new-failures``: only
-regressions against ``--baseline`` count), and always 1 when no member got a verdict; 2
+regressions against ``--baseline`` count), and always 1 when no member got a verdict (a
+model of concrete columns only, every one skipped, included); skipped members (not steel)
+never count, whatever the options; 2
 unusable input (a model with no column included), one line on stderr, nothing written.
 """
 
@@ -35,7 +37,8 @@ def exit_code(report: dict[str, Any], allow_not_checked: bool = False, fail_on: 
 
     A run in which no member got a verdict (none passed, none failed) is 1 whatever the
     options: nothing checked is never a green run.  Otherwise ``fail_on="any"``: 1 when any
-    member fails or is not checked (not-checked members allowed on request), else 0.
+    member fails or is not checked (not-checked members allowed on request), else 0;
+    skipped members (not steel) never count.
     ``fail_on="new-failures"``: 1 only for regressions against the baseline
     (``report["changes"]``): new failures, and newly not-checked members unless allowed.
     """
@@ -103,8 +106,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     c = sub.add_parser(
         "check", help="check the members of a members JSON file or IFC model",
         description="Check the columns of an IFC model (.ifc, .ifczip, .ifcxml) or a members "
-        "JSON file. Exit 0: every member passes; 1: a member fails or is not checked, or "
-        "nothing was checked; 2: unusable input (a model with no column included).")
+        "JSON file. Columns whose material is not steel (concrete, timber, aluminium, "
+        "masonry) are skipped, which is not a failure. Exit 0: every member passes; 1: a "
+        "member fails or is not checked, or nothing was checked; 2: unusable input (a model "
+        "with no column included).")
     c.add_argument("input", help="members .json file or IFC model")
     c.add_argument("--method", type=str.upper, choices=["LRFD", "ASD"],
                    help="design method (overrides the file; default LRFD)")
@@ -144,7 +149,8 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                       help="any (default): exit 1 on any failing or not-checked member; "
                       "new-failures: exit 1 only on regressions against --baseline")
     gate.add_argument("--allow-not-checked", action="store_true",
-                      help="not-checked members are warnings, not failures")
+                      help="not-checked members are warnings, not failures (skipped, "
+                      "non-steel members never are failures)")
     sug = c.add_argument_group("section suggestions (IFC input)")
     sug.add_argument("--suggest", action="store_true",
                      help="suggest the lightest adequate catalog section for failing columns "

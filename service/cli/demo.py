@@ -84,6 +84,9 @@ def run_demo(args: argparse.Namespace) -> int:
     if s["fail"] or s["not_checked"]:
         print(f"demo: the {s['fail']} failing and {s['not_checked']} not-checked columns are "
               "part of the sample; `stanchion check` on this model exits 1, the demo exits 0")
+    if s.get("skipped"):
+        print(f"demo: {s['skipped']} columns are skipped: their material is not steel "
+              "(not a failure)")
     return EXIT_OK
 
 

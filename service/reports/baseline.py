@@ -6,6 +6,8 @@ report as ``changes``:
 - ``new_failures``: ``fail`` now and not ``fail`` before (an added member that fails counts);
 - ``fixed``: ``fail`` before, ``pass`` now;
 - ``new_not_checked``: ``not_checked`` now and not before (added members included);
+- ``skipped`` members (not steel) are never a regression: they enter no list but
+  ``added`` and ``removed`` (a member failing before and skipped now is not ``fixed``);
 - ``added`` / ``removed``: ids present on one side only;
 - ``utilization_changes``: members checked on both sides whose utilization moved by more than
   the threshold (an absolute difference: 0.05 is five percentage points).
@@ -23,7 +25,7 @@ from pathlib import Path
 
 from stanchion.service.errors import InputError
 
-STATUSES = ("pass", "fail", "not_checked")
+STATUSES = ("pass", "fail", "not_checked", "skipped")
 DEFAULT_THRESHOLD = 0.05
 
 

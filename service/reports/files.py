@@ -12,15 +12,20 @@ import os
 import tempfile
 import xml.etree.ElementTree as ET
 import zipfile
+from collections import Counter
 from collections.abc import Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
+
+from stanchion.service.reports.terminal import nothing_checked_line
 
 if TYPE_CHECKING:
     import pandas as pd
 
 
-NOT_CHECKED = "not_checked"
+NOT_CHECKED, SKIPPED = "not_checked", "skipped"
+#: Suite and test case of the run itself: failed when no member got a verdict.
+RUN_SUITE, RUN_CASE = "stanchion run", "members checked"
 #: Suite name for members that carry no storey.
 NO_STOREY = "(no storey)"
 
@@ -112,9 +117,11 @@ def _fmt(x: float | None, digits: int = 4) -> str:
 
 
 def failure_message(member: dict, force_unit: str) -> str:
-    """One line: why a member failed or was not checked, with its numbers."""
+    """One line: why a member failed, was not checked or was skipped, with its numbers."""
     if member["status"] == NOT_CHECKED:
         return f"not checked: {member.get('reason') or 'no reason given'}"
+    if member["status"] == SKIPPED:
+        return f"skipped: {member.get('reason') or 'no reason given'}"
     text = (
         f"utilization {_fmt(member['utilization'])} > 1.0: required "
         f"{_fmt(member['required_strength'])} {force_unit}, available "
@@ -153,8 +160,11 @@ def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
     """JUnit XML: one testsuite per storey, one testcase per member.
 
     FAIL members are failures; NOT CHECKED members are failures too, or skipped (with the
-    reason) when ``allow_not_checked``.  Members of reports without storeys (members files)
-    form one suite named "members".
+    reason) when ``allow_not_checked``; SKIPPED members (not steel) are skipped test cases.
+    Members of reports without storeys (members files) form one suite named "members".  A
+    run in which no member got a verdict (none passed, none failed) adds the failing test
+    case :data:`RUN_CASE` in the suite :data:`RUN_SUITE`, whatever ``allow_not_checked``
+    says: a CI reading only the JUnit file never goes green on it (docs/design.md §4).
     """
     force = report.get("units", {}).get("force", "")
     rows = report.get("members", [])
@@ -181,7 +191,7 @@ def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
                 el = ET.SubElement(case, "failure", message=failure_message(m, force),
                                    type="FAIL" if m["status"] == "fail" else "NOT CHECKED")
                 el.text = detail
-            elif m["status"] == NOT_CHECKED:
+            elif m["status"] in (NOT_CHECKED, SKIPPED):
                 counts["skipped"] += 1
                 ET.SubElement(case, "skipped", message=failure_message(m, force))
             else:
@@ -191,11 +201,33 @@ def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
             totals[k] += v
         suite.set("errors", "0")
         suite.set("time", "0")
+    by_status = Counter(m["status"] for m in rows)
+    if not (by_status["pass"] or by_status["fail"]):
+        _run_failure(root, by_status, totals)
     for k, v in totals.items():
         root.set(k, str(v))
     root.set("errors", "0")
     ET.indent(root)
     return ET.ElementTree(root)
+
+
+def _run_failure(root: ET.Element, by_status: Counter[str], totals: dict[str, int]) -> None:
+    """The failing test case of a run in which no member got a verdict.
+
+    Args:
+        root: the ``testsuites`` element.
+        by_status: the members counted by status.
+        totals: the run's counts, updated.
+    """
+    line = nothing_checked_line({"summary": {"not_checked": by_status[NOT_CHECKED],
+                                             "skipped": by_status[SKIPPED]}})
+    suite = ET.SubElement(root, "testsuite", name=RUN_SUITE, tests="1", failures="1",
+                          skipped="0", errors="0", time="0")
+    case = ET.SubElement(suite, "testcase", name=RUN_CASE, classname="stanchion.run",
+                         time="0")
+    ET.SubElement(case, "failure", message=line, type="NOTHING CHECKED").text = line
+    totals["tests"] += 1
+    totals["failures"] += 1
 
 
 def write_junit(path: Path, report: dict, allow_not_checked: bool = False) -> None:

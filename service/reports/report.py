@@ -4,12 +4,13 @@ from __future__ import annotations
 
 import json
 import math
+from collections import Counter
 from functools import cache
 from importlib import resources
 
 import numpy as np
 
-from stanchion.engine.check import NOT_CHECKED, CheckResults
+from stanchion.engine.check import NOT_CHECKED, SKIPPED, CheckResults
 from stanchion.engine.masks import all_set
 from stanchion.engine.members import MemberTable
 from stanchion.engine.units import factor, force_factor, length_factor, stress_factor
@@ -127,7 +128,7 @@ def build_report(
     if storey_l is not None:
         for row, storey_i in zip(rows, storey_l, strict=True):
             row["storey"] = None if storey_i is None else str(storey_i)
-    for i in (i for i, st in enumerate(statuses) if st == NOT_CHECKED):
+    for i in (i for i, st in enumerate(statuses) if st in (NOT_CHECKED, SKIPPED)):
         rows[i]["reason"] = str(results.reason[i])
     for i, found in (suggestions or {}).items():
         rows[i]["suggestions"] = [
@@ -149,7 +150,7 @@ def build_report(
                 rows[i].setdefault("combinations", {})[name] = v
 
     status = results.status
-    util = results.utilization[status != NOT_CHECKED]
+    util = results.utilization[(status != NOT_CHECKED) & (status != SKIPPED)]
     util = util[np.isfinite(util)]
     return {
         "schema_version": SCHEMA_VERSION,
@@ -161,6 +162,7 @@ def build_report(
             "pass": statuses.count("pass"),
             "fail": statuses.count("fail"),
             "not_checked": statuses.count(NOT_CHECKED),
+            "skipped": statuses.count(SKIPPED),
             "max_utilization": _sig(float(util.max()), 4) if util.size else None,
         },
         "messages": list(messages or []),
@@ -181,7 +183,8 @@ def format_summary(report: dict, worst: int = 5) -> str:
     lines = [
         f"{report['design_basis']}",
         f"members {s['members']}: {s['pass']} pass, {s['fail']} fail, "
-        f"{s['not_checked']} not checked",
+        f"{s['not_checked']} not checked"
+        + (f", {s['skipped']} skipped (not steel)" if s.get("skipped") else ""),
     ]
     ranked = sorted(
         (m for m in report["members"] if m["utilization"] is not None),
@@ -198,5 +201,8 @@ def format_summary(report: dict, worst: int = 5) -> str:
     nc = [m for m in report["members"] if m["status"] == NOT_CHECKED][:worst]
     for m in nc:
         lines.append(f"  not checked: {m['name']}: {m.get('reason', '')}")
+    skipped = Counter(m.get("reason", "") for m in report["members"] if m["status"] == SKIPPED)
+    for why, n in skipped.most_common():
+        lines.append(f"  skipped: {n} x {why}")
     lines.append("Results are an aid; they must be reviewed by a licensed engineer.")
     return "\n".join(lines)

@@ -46,12 +46,12 @@ def storey_table(report: dict) -> list[str]:
         keys = sorted(keys, key=lambda k: (-table[k]["fail"], -table[k]["not_checked"],
                                            -worst.get(k, 0.0)))[:WORST_STOREYS]
     lines = [f"  {'storey':<24} {'members':>7} {'pass':>6} {'fail':>6} {'n/c':>6} "
-             f"{'max util':>8}"]
+             f"{'skip':>6} {'max util':>8}"]
     for key in keys:
         c = table[key]
         u = f"{worst[key]:.3f}" if key in worst else "-"
         lines.append(f"  {key[:24]:<24} {sum(c.values()):>7} {c['pass']:>6} {c['fail']:>6} "
-                     f"{c['not_checked']:>6} {u:>8}")
+                     f"{c['not_checked']:>6} {c['skipped']:>6} {u:>8}")
     if len(table) > len(keys):
         lines.append(f"  (the {len(keys)} worst of {len(table)} storeys)")
     return lines
@@ -68,11 +68,20 @@ def nothing_checked(report: dict) -> bool:
 
 
 def nothing_checked_line(report: dict) -> str:
-    """The line saying that nothing was checked (stderr and the closing line)."""
-    n = report["summary"]["not_checked"]
-    if n == 1:
-        return "nothing was checked: the only member is not checked"
-    return (f"nothing was checked: all {n} members are not checked" if n
+    """The line saying that nothing was checked (stderr and the closing line).
+
+    Skipped members (not steel) are named apart: a model of concrete columns only has
+    nothing to check, and that is never a green run either (docs/design.md §4).
+    """
+    s = report["summary"]
+    n, skipped = s["not_checked"], s.get("skipped", 0)
+    if n and skipped:
+        return (f"nothing was checked: of {n + skipped} members, {n} not checked and "
+                f"{skipped} skipped (not steel)")
+    what = "not checked" if n or not skipped else "skipped (not steel)"
+    if n + skipped == 1:
+        return f"nothing was checked: the only member is {what}"
+    return (f"nothing was checked: all {n + skipped} members are {what}" if n + skipped
             else "nothing was checked: no members")
 
 
@@ -86,11 +95,13 @@ def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False)
         return (f"result: FAIL ({n} regressions against the baseline)" if n
                 else "result: PASS (no regressions against the baseline)")
     nc = 0 if allow_not_checked else s["not_checked"]
+    skipped = s.get("skipped", 0)
+    aside = f"; {skipped} skipped, not steel" if skipped else ""
     if s["fail"] or nc:
         parts = ([f"{s['fail']} failing"] if s["fail"] else []) + (
             [f"{nc} not checked"] if nc else [])
-        return f"result: FAIL ({', '.join(parts)})"
-    return "result: PASS"
+        return f"result: FAIL ({', '.join(parts)}{aside})"
+    return f"result: PASS ({skipped} skipped, not steel)" if skipped else "result: PASS"
 
 
 def format_run(report: dict, fail_on: str = "any", allow_not_checked: bool = False) -> str:

@@ -42,7 +42,7 @@ def test_design_card_example_passes_and_writes_a_valid_report(tmp_path, capsys) 
     assert m["limit_state"] == "flexural buckling about y"
     assert "1.6L" in m["combination"]
     assert report["summary"] == {"members": 1, "pass": 1, "fail": 0, "not_checked": 0,
-                                 "max_utilization": m["utilization"]}
+                                 "skipped": 0, "max_utilization": m["utilization"]}
     printed = capsys.readouterr().out
     assert "1 pass" in printed and "C-12" in printed
 

@@ -54,7 +54,7 @@ def stand_in_check(path: Path, options: CheckOptions, outputs: OutputPaths) -> d
     report = {
         "schema_version": "1",
         "summary": {"members": 1, "pass": 1, "fail": 0, "not_checked": 0,
-                    "max_utilization": 0.5},
+                    "skipped": 0, "max_utilization": 0.5},
         "members": [],
         "stand_in": {"method": method, "size": len(data), "pid": os.getpid(),
                      "cpu_limit": resource.getrlimit(resource.RLIMIT_CPU)[0],

@@ -26,8 +26,8 @@ def _report(rows: list[tuple[str, str, float | None]]) -> dict:
 def test_storey_table_counts_per_storey_in_model_order() -> None:
     lines = storey_table(_report([("L1", "pass", 0.5), ("L2", "fail", 1.2),
                                   ("L2", "not_checked", None), ("L1", "pass", 0.7)]))
-    assert lines[1].split() == ["L1", "2", "2", "0", "0", "0.700"]
-    assert lines[2].split() == ["L2", "2", "0", "1", "1", "1.200"]
+    assert lines[1].split() == ["L1", "2", "2", "0", "0", "0", "0.700"]
+    assert lines[2].split() == ["L2", "2", "0", "1", "1", "0", "1.200"]
 
 
 def test_many_storeys_show_the_worst_first() -> None:
