@@ -140,7 +140,7 @@ class AnalysisLoads:
         found = _Found()
         notes: list[str] = []
         skipped_global = ungrouped = 0
-        for item in [column, *members]:
+        for item in dict.fromkeys([column, *members]):  # a member read as a column
             for activity in self.index.activities.get(item.id(), ()):
                 if not activity.is_a("IfcStructuralReaction"):
                     continue

@@ -34,7 +34,12 @@ from stanchion.engine.loads import LoadTable
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.access import Entity, get
-from stanchion.ifc_bridge.elements import PlanPositions, select_elements
+from stanchion.ifc_bridge.elements import (
+    PlanPositions,
+    analysis_columns,
+    select_elements,
+    skipped_members,
+)
 from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
@@ -202,8 +207,9 @@ class _Reader:
         quantity, qnote = quantity_length(occ_defs, self.units)
         if quantity is None and type_defs:
             quantity, qnote = quantity_length(type_defs, self.units)
-        linked = [o for o in self.index.linked.get(eid, ())
-                  if o.is_a("IfcStructuralCurveMember")]
+        linked = ([element] if element.is_a("IfcStructuralCurveMember") else
+                  [o for o in self.index.linked.get(eid, ())
+                   if o.is_a("IfcStructuralCurveMember")])
         length, length_source, lnotes = choose_length(
             shape, quantity, analytical_length(linked), self.units.length)
         notes.extend(lnotes)
@@ -223,7 +229,7 @@ class _Reader:
         reasons.extend(pproblems)
         gid, name = get(element, "GlobalId"), get(element, "Name")
         return _Row(
-            element=element, gid=gid, name=name or gid, tag=get(element, "Tag") or "",
+            element=element, gid=gid, name=name or gid, tag=getattr(element, "Tag", None) or "",
             storey=(get(storey, "Name") or "") if storey else "",
             x=x, y=y, spec=spec, profile_origin=origin, material=material, length=length,
             length_source=length_source, design=design, analysis=analysis, pset=pset,
@@ -449,6 +455,7 @@ def read_columns(
     *,
     include_members: bool = False,
     loads_table: LoadTable | None = None,
+    analysis_members: bool = False,
 ) -> ReadResult:
     """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
 
@@ -456,6 +463,8 @@ def read_columns(
         model: an opened model (:func:`ifc_bridge.model.open_model`); not modified.
         include_members: also read IfcMember elements whose predefined type (own or of
             their type) is STRUT or POST.
+        analysis_members: also read the vertical IfcStructuralCurveMembers tied to no
+            column (they are read anyway when the model has no column to read).
         loads_table: optional load table, already parsed by the front end
             (``service.load_table.read_load_table``); its rows are matched to the columns
             (:func:`ifc_bridge.loads.match_table`).
@@ -476,10 +485,19 @@ def read_columns(
     was_enabled = gc.isenabled()
     gc.disable()
     try:
-        return _read(model, include_members, loads_table)
+        return _read(model, include_members, loads_table, analysis_members)
     finally:
         if was_enabled:
             gc.enable()
+
+
+def _analysis_message(n: int, beside_columns: bool) -> str:
+    """The run message of analysis members read as columns (docs/design.md §5)."""
+    what = f"{n} vertical IfcStructuralCurveMember"
+    if beside_columns:
+        return f"{what} tied to no column are checked as columns (--analysis-members)"
+    return (f"the model has no column to read: its {what} (analysis members) are checked as "
+            "columns, with their own analysis results as loads")
 
 
 def _unitless_table_message(table: LoadTable) -> str:
@@ -498,13 +516,18 @@ def _unitless_table_message(table: LoadTable) -> str:
 
 
 def _read(model: ifcopenshell.file, include_members: bool,
-          table: LoadTable | None) -> ReadResult:
+          table: LoadTable | None, analysis_members: bool = False) -> ReadResult:
     units = read_units(model)
     if table is not None and table.uses_model_unit and not units.declared["force"]:
         raise ModelReadError(_unitless_table_message(table))
     reader = _Reader(model, units)
     elements = select_elements(model, reader.index, include_members)
-    messages: list[str] = []
+    messages = [m for m in [skipped_members(model, reader.index)] if m] if include_members else []
+    if analysis_members or not elements:
+        analysis = analysis_columns(model, reader.index, elements)
+        if analysis:
+            messages.append(_analysis_message(len(analysis), bool(elements)))
+            elements = elements + analysis
     if not elements:
         what = "IfcColumn or STRUT / POST IfcMember" if include_members else "IfcColumn"
         messages.append(f"model has no {what}")
