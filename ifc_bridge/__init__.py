@@ -15,6 +15,7 @@ Reading (ifcopenshell 0.9, no geometry tessellation)::
 Where each rule lives:
 
 * :mod:`ifc_bridge.model` -- accepted files and schemas;
+* :mod:`ifc_bridge.damage` -- what a lenient read let through and the elements it touches;
 * :mod:`ifc_bridge.units` -- project units, undeclared-unit assumption and warnings;
 * :mod:`ifc_bridge.elements` -- which elements are read, plan positions;
 * :mod:`ifc_bridge.relations` -- one-pass relationship maps;

@@ -19,6 +19,7 @@ from pathlib import Path
 import ifcopenshell
 import ifcopenshell.ifcopenshell_wrapper as wrapper
 
+from stanchion.ifc_bridge.damage import MAX_LOCATED, Damage, statement_at
 from stanchion.ifc_bridge.errors import ModelReadError
 
 #: Schema identifiers accepted by :func:`open_model` (prefix match on ``file.schema``).
@@ -133,7 +134,7 @@ def _extract(path: Path, label: str, folder: Path, limit: int) -> Path:
         raise ModelReadError(f"cannot read {label}: {exc.strerror or exc}") from None
 
 
-def _open_zipped(path: Path, label: str, limit: int, problems: list[str] | None
+def _open_zipped(path: Path, label: str, limit: int, problems: list[Damage] | None
                  ) -> ifcopenshell.file:
     """Open an ``.ifczip``: extract its IFC file into a temporary folder, open it, remove it.
 
@@ -231,7 +232,29 @@ def _first_error(p: Path, errors: list[tuple[int | None, str]]) -> str | None:
     return f"line {_line_of(p, offset)}: {message}"
 
 
-def _open_file(p: Path, label: str, problems: list[str] | None = None
+def _damage(p: Path, errors: list[tuple[int | None, str]]) -> list[Damage]:
+    """The parser's errors as :class:`Damage`, earliest in the file first.
+
+    Each located error names its line and the instance written there (and what that
+    statement refers to); beyond :data:`MAX_LOCATED` errors the rest are not looked up
+    and count as touching every element.
+    """
+    out: list[Damage] = []
+    for offset, message in sorted(errors, key=lambda e: (e[0] is None, e[0] or 0)):
+        if offset is None:
+            out.append(Damage(message, everywhere=True))
+            continue
+        line = _line_of(p, offset)
+        text = f"line {line}: {message}"
+        if len(out) >= MAX_LOCATED:
+            out.append(Damage(text, line, everywhere=True))
+            continue
+        step_id, refs = statement_at(p, offset)
+        out.append(Damage(text, line, step_id, refs, everywhere=step_id is None))
+    return out
+
+
+def _open_file(p: Path, label: str, problems: list[Damage] | None = None
                ) -> ifcopenshell.file:
     """``ifcopenshell.open`` with its errors as one ModelReadError line; then the trailer.
 
@@ -239,7 +262,8 @@ def _open_file(p: Path, label: str, problems: list[str] | None = None
     skipped (a damaged line, an entity foreign to the schema, an invalid enumeration) or a
     reference to an instance that is not in the file.  Warnings are not refused.  With
     ``problems`` (lenient reading) the missing trailer and the parser's errors are appended
-    there instead (each ``"line N: what"``); a file the parser cannot open is still refused.
+    there instead (each a :class:`Damage`, ``"line N: what"``); a file the parser cannot
+    open is still refused.
     """
     _set_log_format_json()
     _parser_errors()  # drop what earlier reads left in the (process-wide) log
@@ -257,14 +281,17 @@ def _open_file(p: Path, label: str, problems: list[str] | None = None
             raise ModelReadError(f"cannot read {label}: {_unsupported(name)}") from None
         raise ModelReadError(f"cannot read {label}: not an IFC file ({detail})") from None
     errors = _parser_errors()
-    damage: list[str] = []
+    damage: list[Damage] = []
     if p.suffix.lower() == ".ifc":
         try:
             check_trailer(p, label)
         except ModelReadError as exc:
-            damage.append(str(exc).removeprefix(f"cannot read {label}: "))
-    damage.extend(_first_error(p, [e]) or e[1] for e in
-                 sorted(errors, key=lambda e: (e[0] is None, e[0] or 0)))
+            cut = str(exc).removeprefix(f"cannot read {label}: ")
+            damage.append(Damage(cut, everywhere=True))  # whatever followed is missing
+    if errors and problems is None:
+        damage.append(Damage(_first_error(p, errors) or ""))
+    elif errors:
+        damage.extend(_damage(p, errors))
     if damage and problems is None:
         raise ModelReadError(f"cannot read {label}: {damage[0]}")
     if problems is not None:
@@ -273,7 +300,7 @@ def _open_file(p: Path, label: str, problems: list[str] | None = None
 
 
 def open_model(path: str | Path, *, max_expanded_bytes: int | None = None,
-               problems: list[str] | None = None) -> ifcopenshell.file:
+               problems: list[Damage] | None = None) -> ifcopenshell.file:
     """Open an IFC model for reading.
 
     An ``.ifczip`` must hold exactly one ``.ifc`` or ``.ifcxml`` file (other files in it are
@@ -285,9 +312,11 @@ def open_model(path: str | Path, *, max_expanded_bytes: int | None = None,
         max_expanded_bytes: largest size an ``.ifczip`` may expand to (default
             :func:`max_model_bytes`: ``STANCHION_MAX_MODEL_MB`` or 1000 MiB).
         problems: lenient reading (``--lenient``): the damage that is refused by default
-            (a missing trailer, the parser's errors) is appended here as ``"line N: what"``
-            lines and the model is returned as the parser read it.  None (the default):
-            refused.
+            (a missing trailer, the parser's errors) is appended here, earliest first, as
+            :class:`~stanchion.ifc_bridge.damage.Damage` (``str()`` gives ``"line N:
+            what"``; :func:`~stanchion.ifc_bridge.damage.touched_global_ids` finds the
+            elements it touches) and the model is returned as the parser read it.  None
+            (the default): refused.
 
     Returns:
         The opened :class:`ifcopenshell.file`.  It is only read, never modified.

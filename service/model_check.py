@@ -20,12 +20,14 @@ from stanchion.engine.check import CheckResults, check_members
 from stanchion.engine.members import MemberTable
 from stanchion.engine.selection import suggestion_family
 from stanchion.engine.units import UNIT_SYSTEMS, length_factor
+from stanchion.ifc_bridge.damage import Damage
 from stanchion.ifc_bridge.elements import found_instead
 from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import ReadResult, read_columns
 from stanchion.ifc_bridge.write import checked_now, write_results
 from stanchion.service.errors import InputError
+from stanchion.service.lenient import add_lenient_warnings
 from stanchion.service.load_table import read_load_table
 from stanchion.service.reports.files import write_model_checked
 from stanchion.service.reports.report import DISCLAIMER, build_report
@@ -66,7 +68,7 @@ class ModelCheck:
 
 
 def _read(path: Path, include_members: bool, loads_table: Path | None,
-          force_unit: str | None = None, problems: list[str] | None = None
+          force_unit: str | None = None, problems: list[Damage] | None = None
           ) -> tuple[ifcopenshell.file, ReadResult]:
     """Open the model and read its columns (the load table first: it is smaller).
 
@@ -120,18 +122,6 @@ def no_columns_message(name: str, model: ifcopenshell.file, include_members: boo
     return f"no columns found in {name}: the model has no {wanted}; {instead}"
 
 
-def lenient_warning(problems: list[str]) -> str:
-    """The model-level warning of a damaged model checked with ``--lenient``.
-
-    Args:
-        problems: the damage :func:`open_model` listed (``"line N: what"``), earliest first.
-    """
-    shown = "; ".join(problems[:3]) + (f"; and {len(problems) - 3} more"
-                                       if len(problems) > 3 else "")
-    return (f"damaged model read with --lenient: {shown}; what the parser skipped is "
-            "missing, so any column's results may be wrong")
-
-
 def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelCheck:
     """Read every column of an IFC model, check it, suggest sections, build the report.
 
@@ -150,14 +140,12 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     except OSError:
         pass  # open_model names the problem
     with progress.phase(f"reading {path.name}"):
-        problems: list[str] | None = [] if options.lenient else None
+        problems: list[Damage] | None = [] if options.lenient else None
         model, read = _read(path, options.include_members, options.loads_table,
                             options.force_unit, problems)
     members = read.members
     if problems:
-        warning = lenient_warning(problems)
-        read.messages.insert(0, warning)
-        members.messages[:] = [[warning, *m] for m in members.messages]
+        add_lenient_warnings(model, members, problems, read.messages)
     if not len(members):
         raise InputError(no_columns_message(options.source_name or path.name, model,
                                             options.include_members))

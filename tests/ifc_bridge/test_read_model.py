@@ -163,14 +163,17 @@ def test_lenient_reading_lists_the_damage_instead_of_refusing(tmp_path):
     ref = next(i for i, x in enumerate(lines) if x.startswith("#900=")) + 1
     path = tmp_path / "damaged.ifc"
     path.write_text(data)
-    problems: list[str] = []
+    problems: list = []
     model = open_model(path, problems=problems)
     assert model.by_id(900).is_a("IfcRelAggregates")
-    assert problems == [
+    assert [str(p) for p in problems] == [
         f"line {len(data.rstrip().splitlines())}: the file ends without END-ISO-10303-21; "
         "(cut short?)",
         f"line {ref}: Instance reference #77777 used by instance #900 at attribute index 5 "
         "not found"]
+    # the cut touches any element (what followed is missing); the reference names #900
+    assert problems[0].everywhere
+    assert (problems[1].step_id, problems[1].refs) == (900, (1, 77777))
     with pytest.raises(ModelReadError, match="cut short"):
         open_model(path)  # the default stays strict
 
@@ -178,6 +181,6 @@ def test_lenient_reading_lists_the_damage_instead_of_refusing(tmp_path):
 def test_lenient_reading_of_a_sound_file_lists_nothing(tmp_path):
     path = tmp_path / "good.ifc"
     path.write_text(_project_file(tmp_path, "IFC4X3"))
-    problems: list[str] = []
+    problems: list = []
     open_model(path, problems=problems)
     assert problems == []
