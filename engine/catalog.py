@@ -426,7 +426,9 @@ def unknown_section_reason(text: str) -> str:
     """Why ``text`` cannot be checked from the catalog ("" when it can).
 
     Returns e.g. ``"unknown section 'W14X47'; nearest: W14X48, W14X43, W14X53"``, or, for a
-    known angle, that angles are outside the scope of the checks.
+    known angle, that angles are outside the scope of the checks. A designation of another
+    standard (``engine.designations``) is named as such, with no nearest AISC shape:
+    ``"section 'IPE300' is EN 10365 IPE 300, not an AISC catalog shape"``.
     """
     if not isinstance(text, str) or not text.strip():
         return "no section designation given"
@@ -439,6 +441,11 @@ def unknown_section_reason(text: str) -> str:
             return ""
         what = _DESCRIPTION.get(table.family[i], f"a {table.family[i]} shape")
         return f"section '{name}' is {what}; angles (L, 2L) are outside the scope of these checks"
+    from stanchion.engine.designations import designation_of  # it imports the builders
+
+    other = designation_of(given)
+    if other is not None:  # a designation of another standard: no nearest AISC shape
+        return f"section '{given}' is {other.label}, not an AISC catalog shape"
     plain = re.sub(r"\s+", "", given.upper())
     read_as = f" (read as {name})" if name != plain else ""
     nearest = nearest_designations(given, 3)

@@ -62,6 +62,29 @@ def design_wall(t_nominal: T, standard: str | Standard | None, kind: str = "HSS"
             "A500, A1085, EN 10219) to apply its rule")
 
 
+def tube_standard(material: str | None, designation_standard: str | None = None
+                  ) -> Standard | None:
+    """The product standard a tube's wall follows: the material's, else the profile name's.
+
+    A material naming a tube standard (``"A500 Gr C"``, ``"S355J2H"``, ``"EN 10219"``)
+    decides; one naming none (``"Steel"``, ``"S355JR"``, ``"A992"``) leaves it to the
+    standard the profile name gives (``engine.designations``: ``"EN 10210"``,
+    ``"EN 10219"``, ``"EN 10210 or EN 10219"``).
+
+    Args:
+        material: the material's name (and description), or None.
+        designation_standard: the standard of the profile's designation, or None.
+
+    Returns:
+        The standard for :func:`design_wall`, or None when neither names a tube standard.
+    """
+    own = product_standard(material)
+    if own is not None and own.tube:
+        return own
+    named = product_standard(designation_standard)
+    return named if named is not None and named.tube else own
+
+
 def catalog_wall_note(standard: str | Standard | None) -> str | None:
     """Message for a catalog tube whose standard would permit the nominal wall, else None.
 

@@ -7,7 +7,7 @@ import pytest
 
 from stanchion.engine import catalog, section_properties
 from stanchion.engine.compression import available_strength, compressive_strength
-from stanchion.engine.tubes import catalog_wall_note, design_wall
+from stanchion.engine.tubes import catalog_wall_note, design_wall, tube_standard
 
 FT = 12.0
 
@@ -89,3 +89,20 @@ def test_parametric_round_tube_with_nominal_wall_matches_the_catalog():
     par = section_properties.circ_hollow(8.625, design_wall(0.25, "A500")[0])
     # same tube, same rule (0.93 tnom, AISC 360-22 §B4.2): within 1 % of the tabulated row
     assert _phi_pn(par) == pytest.approx(_phi_pn(cat), rel=0.01)
+
+
+@pytest.mark.parametrize(("material", "named", "expected"), [
+    ("Steel", "EN 10210 or EN 10219", "EN 10210 or EN 10219"),  # the name decides
+    ("S355JR", "EN 10219", "EN 10219"),  # EN 10025 grade: not a tube standard
+    ("A992", "EN 10210", "EN 10210"),
+    ("ASTM A500 Gr C", "EN 10219", "ASTM A500"),  # the material decides (ERW, 0.93 tnom)
+    ("S355J2H", None, "EN 10210 or EN 10219"),  # a hollow-section grade
+    ("Steel", None, None),
+    ("EN 10025-2 S355", None, "EN 10025"),  # not a tube standard: design_wall says so
+])
+def test_tube_standard_material_first(material, named, expected):
+    # Rule of engine.tubes.tube_standard (design decision, common practice, no source)
+    std = tube_standard(material, named)
+    assert (std.name if std else None) == expected
+    t, _ = design_wall(0.25, std)
+    assert t == pytest.approx(0.25 if expected and expected.startswith("EN 1021") else 0.2325)
