@@ -122,8 +122,8 @@ def test_unknown_name_from_dimensions(builder):
                                                 tf=0.394))
     assert row["kind"] == Kind.I_SHAPE
     assert m.section_label[0] == "HEA200"
-    assert any("unknown section 'HEA200'" in s and "modeled dimensions" in s
-               for s in m.messages[0])
+    assert any("section 'HEA200' is EN 10365 HE 200 A, not an AISC catalog shape" in s
+               and "modeled dimensions" in s and "nearest" not in s for s in m.messages[0])
     assert m.reason[0] is None
 
 
