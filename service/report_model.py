@@ -170,6 +170,11 @@ class SkippedMember(_MemberResult):
     status: Literal["skipped"] = Field(description="skipped: not a steel member; see reason")
     reason: str = Field(min_length=1, description="why the member was skipped, e.g. 'not "
                         "steel: concrete'")
+    required_strength: None = Field(description="null: a skipped member has no numbers")
+    available_strength: None = Field(description="null: not computed")
+    utilization: None = Field(description="null: not computed")
+    slenderness: None = Field(description="null: not computed")
+    critical_stress: None = Field(description="null: not computed")
 
 
 #: One report row: checked (pass / fail), not checked or skipped, told apart by ``status``.

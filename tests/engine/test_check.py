@@ -6,7 +6,7 @@ import numpy as np
 import pytest
 
 from stanchion.engine import catalog
-from stanchion.engine.check import _REASONS, FAIL, NOT_CHECKED, PASS, check_members
+from stanchion.engine.check import _REASONS, FAIL, NOT_CHECKED, PASS, SKIPPED, check_members
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 
 FT = 12.0  # in per ft
@@ -114,3 +114,35 @@ def test_given_required_strength_replaces_the_combinations() -> None:
     r = check_members(_members(2, required_strength=np.array([250.0, np.nan])))
     assert r.required_strength.tolist() == pytest.approx([250.0, 210.0])
     assert r.combination.tolist() == ["required strength as given", "1.2D+1.6L+0.5Lr"]
+
+
+def test_non_steel_members_are_skipped_with_no_numbers() -> None:
+    # Five usable W14X48 members (the passing member of the first test: phi_c Pn = 303 kip,
+    # AISC Manual Table 4-1a, read-off); only the material class differs.  Skipped: status
+    # 'skipped', reason 'not steel: <class>', no capacity, no demand (docs/design.md §3/§5).
+    m = _members(5, material=["steel", "concrete", "timber", "unknown", "steel, concrete"])
+    r = check_members(m)
+    assert r.status.tolist() == [PASS, SKIPPED, SKIPPED, PASS, NOT_CHECKED]
+    assert r.reason[1] == "not steel: concrete"
+    assert r.reason[2] == "not steel: timber"
+    assert r.reason[4].startswith("material names steel and concrete")
+    for i in (1, 2, 4):
+        assert np.isnan([r.available_strength[i], r.utilization[i], r.slenderness[i],
+                         r.Fcr[i]]).all()
+        assert r.limit_state[i] == "" and r.combination[i] == ""
+    # A not-checked member keeps its known demand (for suggestions); a skipped one has none.
+    assert np.isnan(r.required_strength[[1, 2]]).all()
+    assert r.required_strength[4] == pytest.approx(210.0)  # 1.2*95 + 1.6*60, by hand
+    assert r.available_strength[0] == pytest.approx(303.0, abs=1.0)
+    assert r.available_strength[3] == pytest.approx(303.0, abs=1.0)
+
+
+def test_skipped_wins_over_missing_data() -> None:
+    # A concrete column has no steel yield stress and no catalog section: it is skipped for
+    # its material, not "not checked" for what a steel check would need.
+    m = _members(2, Fy=np.full(2, np.nan), section_index=np.array([-1, -1]),
+                 material=["concrete", "unknown"])
+    r = check_members(m)
+    assert r.status.tolist() == [SKIPPED, NOT_CHECKED]
+    assert r.reason[0] == "not steel: concrete"
+    assert r.reason[1] == "no usable section"

@@ -1,4 +1,4 @@
-"""Materials: moduli, the grade table (minimum yield stress) and product standards."""
+"""Materials: moduli, the grade table (minimum yield stress), product standards, classes."""
 
 from __future__ import annotations
 
@@ -10,8 +10,11 @@ from stanchion.engine.materials import (
     GRADES,
     STANDARDS,
     band_thickness,
+    composite_reason,
     match_grade,
+    material_class,
     product_standard,
+    skip_reason,
 )
 from stanchion.engine.units import factor
 
@@ -158,3 +161,72 @@ def test_band_thickness_is_the_products_nominal_thickness(form, dims, expected) 
     # thickness of a flat or plate, the diameter of a round; common practice for a section:
     # its thickest element)
     assert band_thickness(form, dims) == expected
+
+
+# ---------------------------------------------------------------------------- material class
+# Expected classes: common practice, no source (the words authoring programs and their users
+# write for these materials; docs/design.md §5 "Material class").
+
+CLASS_TABLE = [
+    # steel: words and grades
+    ("Steel", "steel"), ("STAHL", "steel"), ("Acier S355", "steel"), ("acero", "steel"),
+    ("acciaio", "steel"), ("Сталь", "steel"), ("Baustahl", "steel"), ("S235JR", "steel"),
+    ("ASTM A992", "steel"), ("A572 Gr. 50", "steel"), ("STEEL/S275J0", "steel"),
+    ("Metal - structural steel S235", "steel"), ("EN 10025-2", "steel"),
+    # concrete
+    ("Concrete", "concrete"), ("Structural concrete C30/37", "concrete"),
+    ("Beton", "concrete"), ("béton armé", "concrete"), ("Бетон", "concrete"),
+    ("Hormigón HA-30", "concrete"), ("calcestruzzo", "concrete"), ("Betong B35", "concrete"),
+    ("Stahlbeton", "concrete"), ("_Beton_C25-30_x", "concrete"),
+    ("Reinforcing steel B500B", "concrete"), ("Betonstahl", "concrete"),
+    ("Precast", "concrete"),
+    # timber
+    ("Timber", "timber"), ("Wood", "timber"), ("Holz", "timber"), ("glulam", "timber"),
+    ("Brettschichtholz", "timber"), ("Bois", "timber"), ("madera", "timber"),
+    ("Legno lamellare", "timber"), ("CLT panel", "timber"), ("LVL", "timber"),
+    ("GL24h", "timber"), ("Softwood C24", "timber"), ("x_Holz_y", "timber"),
+    # aluminium
+    ("Aluminium", "aluminium"), ("Aluminum 6061-T6", "aluminium"), ("Alu", "aluminium"),
+    ("alluminio", "aluminium"), ("Алюминий", "aluminium"),
+    # masonry
+    ("Masonry", "masonry"), ("Brick", "masonry"), ("Bricks", "masonry"),
+    ("Concrete block", "concrete, masonry"), ("Mauerwerk", "masonry"),
+    ("Kalksandstein-Mauerwerk", "masonry"), ("maçonnerie", "masonry"),
+    ("Ziegel", "masonry"), ("Кирпич", "masonry"),
+    # composite or ambiguous: steel and another class
+    ("Steel - reinforced concrete column", "steel, concrete"),
+    ("Steel/timber", "steel, timber"),
+    # nothing recognised
+    ("Metal", "unknown"), ("Default", "unknown"), ("Material 1", "unknown"), ("", "unknown"),
+    ("Steelwork-free zone", "unknown"),  # not a whole word: "Steelwork" is none of them
+    ("Glass", "unknown"), ("Alumina", "unknown"), ("Woodward", "unknown"),
+]
+
+
+@pytest.mark.parametrize(("name", "expected"), CLASS_TABLE)
+def test_material_class_of_names(name: str, expected: str) -> None:
+    assert material_class([name]) == expected
+
+
+def test_material_class_reads_categories_and_every_material() -> None:
+    # IFC4 Category values (IfcMaterial.Category, e.g. 'concrete', 'wood', 'steel'):
+    assert material_class(["Material 1", "wood"]) == "timber"
+    assert material_class(["C30/37", "concrete"]) == "concrete"
+    assert material_class(["Profile", "Metal"]) == "unknown"
+    assert material_class([None, None]) == "unknown"
+    assert material_class([]) == "unknown"  # no material at all: never assumed steel
+    # several materials of one element: the union
+    assert material_class(["Concrete", None, "Brick", None]) == "concrete, masonry"
+    assert material_class(["Concrete", None, "Reinforcement", None]) == "concrete"
+    assert material_class(["Concrete", None, "S355", None]) == "steel, concrete"
+
+
+def test_skip_and_composite_reasons() -> None:
+    assert skip_reason("concrete") == "not steel: concrete"
+    assert skip_reason("concrete, masonry") == "not steel: concrete, masonry"
+    for label in ("steel", "unknown", "steel, concrete"):
+        assert skip_reason(label) is None
+    assert composite_reason("steel, timber") is not None
+    assert "steel and timber" in composite_reason("steel, timber")
+    for label in ("steel", "unknown", "concrete"):
+        assert composite_reason(label) is None

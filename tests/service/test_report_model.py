@@ -223,11 +223,25 @@ BROKEN = {
     "unknown row field": _set(("members", 0, "colour"), "red"),
     "unknown top-level field": _set(("extra",), {}),
     "null suggestions": _set(("members", 0, "suggestions"), None),
+    "no skipped count": _delete(("summary", "skipped")),
+    "skipped without reason": lambda r: (r["members"][1].update(status="skipped"),
+                                         r["members"][1].pop("reason")),
+    "skipped with utilization": lambda r: r["members"][0].update(status="skipped",
+                                                                  reason="not steel: wood"),
 }
 
 
 def test_a_real_report_is_accepted(good_report: dict) -> None:
     _validate(good_report)  # the control for the refusals below
+
+
+def test_a_skipped_row_is_accepted(good_report: dict) -> None:
+    report = copy.deepcopy(good_report)
+    # The not-checked row of the fixture, now skipped: a reason and no numbers (its demand,
+    # known for a not-checked member, is null for a skipped one).
+    report["members"][1].update(status="skipped", reason="not steel: concrete",
+                                required_strength=None)
+    _validate(report)
 
 
 @pytest.mark.parametrize("change", BROKEN.values(), ids=BROKEN.keys())

@@ -118,3 +118,18 @@ def test_repeated_ids_are_refused_not_matched(side: str) -> None:
     with pytest.raises(InputError, match=r"repeats the member id\(s\) A \(") as exc:
         compare(old, new)
     assert "\n" not in str(exc.value)
+
+
+def test_skipped_members_are_never_regressions(tmp_path) -> None:
+    # A member skipped now (not steel) that failed, passed or was absent before: no new
+    # failure, not newly not checked, not fixed (docs/design.md §3).
+    old = _report(("A", "fail", 1.20), ("B", "pass", 0.50), ("C", "skipped", None))
+    new = _report(("A", "skipped", None), ("B", "skipped", None), ("C", "skipped", None),
+                  ("D", "skipped", None))
+    ch = compare(old, new)
+    assert ch["new_failures"] == ch["new_not_checked"] == ch["fixed"] == []
+    assert _ids(ch["added"]) == ["D"]
+    assert regressions(ch) == 0
+    path = tmp_path / "old.json"
+    path.write_text(json.dumps(old))
+    assert [m["status"] for m in load_baseline(path)["members"]][2] == "skipped"

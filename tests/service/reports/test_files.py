@@ -136,3 +136,45 @@ def test_written_files_get_ordinary_permissions(tmp_path) -> None:
     mask = os.umask(0)
     os.umask(mask)
     assert path.stat().st_mode & 0o777 == 0o666 & ~mask  # like open(path, "w")
+
+
+def _junit(tmp_path, report: dict, allow: bool = False) -> ET.Element:
+    path = tmp_path / "j.xml"
+    write_junit(path, report, allow_not_checked=allow)
+    return ET.parse(path).getroot()
+
+
+def test_junit_skipped_members_are_skipped_cases_not_failures(tmp_path) -> None:
+    report = {**REPORT, "members": [
+        _member("1", "pass", 0.5),
+        _member("2", "skipped", None, reason="not steel: concrete")]}
+    root = _junit(tmp_path, report)
+    assert (root.get("tests"), root.get("failures"), root.get("skipped")) == ("2", "0", "1")
+    case = [c for c in root.iter("testcase") if c.find("skipped") is not None]
+    assert [c.get("name") for c in case] == ["C-2 [2]"]
+    assert case[0].find("skipped").get("message") == "skipped: not steel: concrete"
+    assert failure_message(report["members"][1], "kip") == "skipped: not steel: concrete"
+
+
+@pytest.mark.parametrize(("members", "line"), [
+    ([_member("1", "not_checked", None)],
+     "nothing was checked: the only member is not checked"),
+    ([_member("1", "skipped", None, reason="not steel: timber"),
+      _member("2", "not_checked", None)],
+     "nothing was checked: of 2 members, 1 not checked and 1 skipped (not steel)"),
+    ([], "nothing was checked: no members"),
+])
+@pytest.mark.parametrize("allow", [False, True])
+def test_junit_with_no_verdict_has_a_failing_run_case(tmp_path, members, line, allow) -> None:
+    # docs/design.md §3/§4: a run with no verdict is never green, in the JUnit file either.
+    root = _junit(tmp_path, {**REPORT, "members": members}, allow)
+    assert int(root.get("failures")) >= 1
+    run = next(s for s in root.iter("testsuite") if s.get("name") == "stanchion run")
+    assert (run.get("tests"), run.get("failures")) == ("1", "1")
+    failure = run.find("testcase").find("failure")
+    assert (failure.get("type"), failure.get("message")) == ("NOTHING CHECKED", line)
+
+
+def test_junit_with_a_verdict_has_no_run_case(tmp_path) -> None:
+    root = _junit(tmp_path, REPORT, allow=True)
+    assert all(s.get("name") != "stanchion run" for s in root.iter("testsuite"))
