@@ -244,7 +244,6 @@ def _rolled(text: str, key: str, m: re.Match[str]) -> Designation | None:
                        _KIND[family], (("size_h", h), ("size_b", b), ("mass", mass)))
 
 
-@functools.lru_cache(maxsize=4096)
 def designation_of(name: object) -> Designation | None:
     """The designation ``name`` spells, or None when it is none of those recognised here.
 
@@ -257,6 +256,12 @@ def designation_of(name: object) -> Designation | None:
     """
     if not isinstance(name, str) or not name.strip():
         return None
+    return _parse(name)
+
+
+@functools.lru_cache(maxsize=4096)
+def _parse(name: str) -> Designation | None:
+    """:func:`designation_of` of a non-empty text (cached: a model repeats its names)."""
     s = _clean(name)
     for key, pattern in _PATTERNS.items():
         m = pattern.fullmatch(s)

@@ -101,6 +101,11 @@ def test_non_matches(text):
     assert designation_of(text) is None
 
 
+@pytest.mark.parametrize("value", [None, 300, 3.0, ["IPE300"], {"IPE": 300}])
+def test_non_text_is_no_designation(value):
+    assert designation_of(value) is None
+
+
 def test_aisc_names_stay_aisc():
     assert designation_of("W12X40") is None and lookup(["W12X40"])[0] >= 0
     assert designation_of("HSS8X8X1/4") is None and lookup(["HSS8X8X1/4"])[0] >= 0
