@@ -3,6 +3,12 @@
 Inverse attributes (``IsDefinedBy``, ``HasAssociations`` ...) would do the same job per
 element; building the maps once keeps a 20,000-column model linear and makes the reader's
 traversal explicit.  Every map is keyed by ``entity.id()``.
+
+A relationship whose attribute holds something other than the instance its schema declares
+(a text, a number, an instance of another class: a damaged line the parser read without
+complaint, e.g. an entity name changed to another of the schema) is refused with
+:class:`ModelReadError`: reading past it would drop a link -- a column, a property set, an
+analysis result -- without a word (issue 13 item 6, found by the fuzz test).
 """
 
 from __future__ import annotations
@@ -13,6 +19,7 @@ from dataclasses import dataclass, field
 import ifcopenshell
 
 from stanchion.ifc_bridge.access import Entity, get
+from stanchion.ifc_bridge.errors import ModelReadError
 
 
 def _as_list(value: Entity | list[Entity] | tuple[Entity, ...] | None) -> list[Entity]:
@@ -22,6 +29,21 @@ def _as_list(value: Entity | list[Entity] | tuple[Entity, ...] | None) -> list[E
     if isinstance(value, list | tuple):
         return list(value)
     return [value]
+
+
+#: IfcMaterialSelect's members (IFC2X3 and IFC4 / IFC4X3; a name foreign to the schema is
+#: simply never matched): ``is_a`` does not resolve select types.
+MATERIAL_SELECT = ("IfcMaterialDefinition", "IfcMaterialList", "IfcMaterialUsageDefinition",
+                   "IfcMaterial", "IfcMaterialLayerSetUsage", "IfcMaterialLayerSet",
+                   "IfcMaterialLayer")
+
+
+def _refuse(rel: Entity, attr: str, value: object, classes: tuple[str, ...]) -> ModelReadError:
+    """The error for ``rel.attr`` holding ``value`` where one of ``classes`` belongs."""
+    what = (f"#{value.id()}, an {value.is_a()}," if isinstance(value, ifcopenshell.entity_instance)
+            else f"{str(value)[:40]!r}")
+    return ModelReadError(f"damaged model: #{rel.id()} {rel.is_a()}.{attr} holds {what} where "
+                          f"{' or '.join(f'an {c}' for c in classes[:3])} belongs")
 
 
 @dataclass
@@ -53,6 +75,8 @@ class RelationIndex:
     result_groups: dict[int, list[Entity]] = field(default_factory=lambda: defaultdict(list))
     steel_properties: dict[int, Entity] = field(default_factory=dict)
     _storey_cache: dict[int, Entity | None] = field(default_factory=dict, repr=False)
+    _allowed: dict[tuple[str | None, tuple[str, ...]], bool] = field(default_factory=dict,
+                                                                      repr=False)
     _type_defs: dict[int, list[Entity]] = field(default_factory=dict, repr=False)
 
     @classmethod
@@ -78,11 +102,36 @@ class RelationIndex:
             index._add_steel_properties(model)
         return index
 
+    def _require(self, rel: Entity, attr: str, value: object, classes: tuple[str, ...]
+                 ) -> Entity:
+        """``value`` when it is an instance of one of ``classes``; else ModelReadError.
+
+        Decided once per (class name, classes): the check costs a dictionary look-up.
+        """
+        key = (value.is_a() if isinstance(value, ifcopenshell.entity_instance) else None,
+               classes)
+        ok = self._allowed.get(key)
+        if ok is None:
+            ok = self._allowed[key] = key[0] is not None and any(
+                value.is_a(c) for c in classes)  # type: ignore[attr-defined]
+        if not ok:
+            raise _refuse(rel, attr, value, classes)
+        return value
+
+    def _one(self, rel: Entity, attr: str, *classes: str) -> Entity | None:
+        """The instance in ``rel.attr`` (None when unset), required to be of ``classes``."""
+        value = get(rel, attr)
+        return None if value is None else self._require(rel, attr, value, classes)
+
+    def _many(self, rel: Entity, attr: str, *classes: str) -> list[Entity]:
+        """The instances in ``rel.attr`` (a list or one), each required to be of ``classes``."""
+        return [self._require(rel, attr, v, classes) for v in _as_list(get(rel, attr))]
+
     def _add_containment(self, model: ifcopenshell.file) -> None:
         """``container`` from IfcRelContainedInSpatialStructure (the first one wins)."""
         for rel in model.by_type("IfcRelContainedInSpatialStructure"):
-            structure = get(rel, "RelatingStructure")
-            for obj in get(rel, "RelatedElements") or ():
+            structure = self._one(rel, "RelatingStructure", "IfcProduct")
+            for obj in self._many(rel, "RelatedElements", "IfcProduct"):
                 self.container.setdefault(obj.id(), structure)
 
     def _add_decomposition(self, model: ifcopenshell.file) -> None:
@@ -92,62 +141,64 @@ class RelationIndex:
             ("IfcRelNests", "RelatingObject", "RelatedObjects"),
         ):
             for rel in model.by_type(rel_class):
-                whole = getattr(rel, whole_attr)
-                for part in getattr(rel, parts_attr) or ():
+                whole = self._one(rel, whole_attr, "IfcObjectDefinition")
+                for part in self._many(rel, parts_attr, "IfcObjectDefinition"):
                     self.parent.setdefault(part.id(), whole)
 
     def _add_property_definitions(self, model: ifcopenshell.file) -> None:
         """``definitions`` from IfcRelDefinesByProperties (definition sets flattened)."""
         for rel in model.by_type("IfcRelDefinesByProperties"):
-            defs = _as_list(get(rel, "RelatingPropertyDefinition"))
-            for obj in _as_list(get(rel, "RelatedObjects")):
+            defs = self._many(rel, "RelatingPropertyDefinition", "IfcPropertySetDefinition")
+            for obj in self._many(rel, "RelatedObjects", "IfcObjectDefinition"):
                 self.definitions[obj.id()].extend(defs)
 
     def _add_types(self, model: ifcopenshell.file) -> None:
         """``type_of`` from IfcRelDefinesByType (the last one wins)."""
         for rel in model.by_type("IfcRelDefinesByType"):
-            rtype = rel.RelatingType
-            for obj in rel.RelatedObjects or ():
+            rtype = self._one(rel, "RelatingType", "IfcTypeObject")
+            for obj in self._many(rel, "RelatedObjects", "IfcObject"):
                 self.type_of[obj.id()] = rtype
 
     def _add_materials(self, model: ifcopenshell.file) -> None:
         """``material`` from IfcRelAssociatesMaterial (the first one wins)."""
         for rel in model.by_type("IfcRelAssociatesMaterial"):
-            mat = get(rel, "RelatingMaterial")
-            for obj in get(rel, "RelatedObjects") or ():
+            mat = self._one(rel, "RelatingMaterial", *MATERIAL_SELECT)
+            for obj in self._many(rel, "RelatedObjects", "IfcRoot"):
                 self.material.setdefault(obj.id(), mat)
 
     def _add_product_links(self, model: ifcopenshell.file) -> None:
         """``linked`` from IfcRelAssignsToProduct, in both directions."""
         for rel in model.by_type("IfcRelAssignsToProduct"):
-            product = rel.RelatingProduct
+            product = self._one(rel, "RelatingProduct", "IfcObjectDefinition")
             if product is None:
                 continue
-            for obj in rel.RelatedObjects or ():
+            for obj in self._many(rel, "RelatedObjects", "IfcObjectDefinition"):
                 self.linked[product.id()].append(obj)
                 self.linked[obj.id()].append(product)
 
     def _add_structural_activities(self, model: ifcopenshell.file) -> None:
         """``activities`` from IfcRelConnectsStructuralActivity."""
         for rel in model.by_type("IfcRelConnectsStructuralActivity"):
-            element, activity = rel.RelatingElement, rel.RelatedStructuralActivity
+            element = self._one(rel, "RelatingElement", "IfcProduct")
+            activity = self._one(rel, "RelatedStructuralActivity", "IfcStructuralActivity")
             if element is not None and activity is not None:
                 self.activities[element.id()].append(activity)
 
     def _add_result_groups(self, model: ifcopenshell.file) -> None:
         """``result_groups`` from IfcRelAssignsToGroup with an IfcStructuralResultGroup."""
         for rel in model.by_type("IfcRelAssignsToGroup"):
-            group = rel.RelatingGroup
+            group = self._one(rel, "RelatingGroup", "IfcGroup")
             if group is None or not group.is_a("IfcStructuralResultGroup"):
                 continue
-            for obj in rel.RelatedObjects or ():
+            for obj in self._many(rel, "RelatedObjects", "IfcObjectDefinition"):
                 self.result_groups[obj.id()].append(group)
 
     def _add_steel_properties(self, model: ifcopenshell.file) -> None:
         """``steel_properties`` from IfcMechanicalSteelMaterialProperties (IFC2X3 only)."""
         for props in model.by_type("IfcMechanicalSteelMaterialProperties"):
-            if props.Material is not None:
-                self.steel_properties.setdefault(props.Material.id(), props)
+            material = self._one(props, "Material", "IfcMaterial")
+            if material is not None:
+                self.steel_properties.setdefault(material.id(), props)
 
     def storey_of(self, element: Entity) -> Entity | None:
         """Nearest IfcBuildingStorey above ``element`` (containment, then aggregation)."""

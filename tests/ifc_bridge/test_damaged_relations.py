@@ -1,0 +1,74 @@
+"""Relationships holding the wrong kind of value are refused (issue 13 item 6, fuzz findings).
+
+An entity name changed to another name of the schema parses without an error (at most a
+warning about the attribute count); a relationship pointing at it then holds an instance of
+the wrong class, or a text where instances belong.  Before ``ifc_bridge/relations.py``
+checked them, such a model either lost the link silently (a damaged analysis result: the
+column was checked with its dead load only) or stopped with a traceback.  The models are built
+with ifcopenshell.api and damaged in their STEP text, as the fuzz test's mutants are.
+"""
+
+from __future__ import annotations
+
+import re
+from pathlib import Path
+
+import pytest
+
+from stanchion.ifc_bridge.errors import ModelReadError
+from stanchion.ifc_bridge.model import open_model
+from stanchion.ifc_bridge.read import read_columns
+
+W14X48 = {"d": 13.8, "bf": 8.03, "tw": 0.340, "tf": 0.595}  # AISC Shapes Database v16.0
+
+
+def _model_with_results(builder, path: Path) -> tuple[str, int, int]:
+    """A column with dead and live analysis results; (text, live reaction id, its rel id)."""
+    col = builder.column("C1", profile=builder.profile("I", "W14X48", **W14X48),
+                         material=builder.material("A992"))
+    member = builder.analysis_member(col)
+    builder.reaction(member, builder.load_case("Dead", "DEAD_LOAD_G", "PERMANENT_G"), -120.0)
+    live = builder.reaction(member, builder.load_case("Live", "LIVE_LOAD_Q", "VARIABLE_Q"),
+                            -80.0)
+    rel = next(r for r in builder.model.by_type("IfcRelConnectsStructuralActivity")
+               if r.RelatedStructuralActivity == live)
+    builder.write(path)
+    return path.read_text(), live.id(), rel.id()
+
+
+def _retype(text: str, entity: int, new: str) -> str:
+    """``text`` with entity ``#entity``'s class name replaced by ``new``."""
+    changed, count = re.subn(rf"^#{entity}=IFC\w+\(", f"#{entity}={new}(", text,
+                             flags=re.MULTILINE)
+    assert count == 1
+    return changed
+
+
+def test_intact_model_reads_both_loads(builder, tmp_path: Path) -> None:
+    text, _, _ = _model_with_results(builder, tmp_path / "m.ifc")
+    members = read_columns(open_model(tmp_path / "m.ifc")).members
+    # the two results as built (-ForceX, tension positive): D 120 kip, L 80 kip
+    assert members.loads[0][0] == pytest.approx(120.0, rel=1e-6)
+    assert members.loads[0][1] == pytest.approx(80.0, rel=1e-6)
+
+
+def test_result_link_to_an_instance_of_another_class_is_refused(builder, tmp_path: Path) -> None:
+    text, live, rel = _model_with_results(builder, tmp_path / "m.ifc")
+    damaged = tmp_path / "damaged.ifc"
+    damaged.write_text(_retype(text, live, "IFCCARTESIANPOINT"))
+    # before: the live load vanished and the column was checked with D = 120 kip alone
+    with pytest.raises(ModelReadError) as err:
+        read_columns(open_model(damaged))
+    assert str(err.value) == (
+        f"damaged model: #{rel} IfcRelConnectsStructuralActivity.RelatedStructuralActivity "
+        f"holds #{live}, an IfcCartesianPoint, where an IfcStructuralActivity belongs")
+
+
+def test_relationship_retyped_into_another_is_refused_without_traceback(
+        builder, tmp_path: Path) -> None:
+    text, _, rel = _model_with_results(builder, tmp_path / "m.ifc")
+    damaged = tmp_path / "damaged.ifc"
+    # the fuzz test's case: before, AttributeError 'str' object has no attribute 'id'
+    damaged.write_text(_retype(text, rel, "IFCRELDEFINESBYTYPE"))
+    with pytest.raises(ModelReadError, match=rf"^damaged model: #{rel} IfcRelDefinesByType\."):
+        read_columns(open_model(damaged))
