@@ -27,7 +27,8 @@ from dataclasses import dataclass, field
 
 from stanchion.engine.loads import CaseForce, case_load_type, combine_cases
 from stanchion.ifc_bridge.access import Entity
-from stanchion.ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.errors import ModelReadError
+from stanchion.ifc_bridge.relations import RelationIndex, describe, instance_of
 from stanchion.ifc_bridge.units import ModelUnits
 
 
@@ -45,16 +46,24 @@ def load_type(group: Entity) -> tuple[str | None, str]:
                           combination=combination)
 
 
-def _axial_forces(load: Entity | None) -> list[float]:
-    """ForceX values of a single force or of a load configuration's single forces."""
+def _axial_forces(load: Entity | None, holder: Entity) -> list[float]:
+    """ForceX values of a single force or of a load configuration's single forces.
+
+    Raises:
+        ModelReadError: ``load`` is not an IfcStructuralLoad (a damaged line: reading past it
+            would drop the result without a word); the column becomes not checked.
+    """
     if load is None:
         return []
+    if not instance_of(load, "IfcStructuralLoad"):
+        raise ModelReadError(f"damaged model: #{holder.id()} {holder.is_a()} holds "
+                             f"{describe(load)} where an IfcStructuralLoad belongs")
     if load.is_a("IfcStructuralLoadSingleForce"):
         return [float(load.ForceX)] if load.ForceX is not None else []
     if load.is_a("IfcStructuralLoadConfiguration"):
         out: list[float] = []
         for value in load.Values or ():
-            out.extend(_axial_forces(value))
+            out.extend(_axial_forces(value, load))
         return out
     return []
 
@@ -147,7 +156,7 @@ class AnalysisLoads:
                 if activity.GlobalOrLocal == "GLOBAL_COORDS":
                     skipped_global += 1
                     continue
-                forces = _axial_forces(activity.AppliedLoad)
+                forces = _axial_forces(activity.AppliedLoad, activity)
                 if not forces:
                     continue
                 groups = self.index.result_groups.get(activity.id(), ())

@@ -38,10 +38,25 @@ MATERIAL_SELECT = ("IfcMaterialDefinition", "IfcMaterialList", "IfcMaterialUsage
                    "IfcMaterialLayer")
 
 
+def instance_of(value: object, *classes: str) -> bool:
+    """True when ``value`` is an IFC instance of one of ``classes`` (subtypes included)."""
+    if not isinstance(value, ifcopenshell.entity_instance):
+        return False
+    entity: Entity = value
+    return any(entity.is_a(c) for c in classes)
+
+
+def describe(value: object) -> str:
+    """``#N, an IfcX,`` for an instance, else the value's text (40 characters) quoted."""
+    if isinstance(value, ifcopenshell.entity_instance):
+        entity: Entity = value
+        return f"#{entity.id()}, an {entity.is_a()},"
+    return repr(str(value)[:40])
+
+
 def _refuse(rel: Entity, attr: str, value: object, classes: tuple[str, ...]) -> ModelReadError:
     """The error for ``rel.attr`` holding ``value`` where one of ``classes`` belongs."""
-    what = (f"#{value.id()}, an {value.is_a()}," if isinstance(value, ifcopenshell.entity_instance)
-            else f"{str(value)[:40]!r}")
+    what = describe(value)
     return ModelReadError(f"damaged model: #{rel.id()} {rel.is_a()}.{attr} holds {what} where "
                           f"{' or '.join(f'an {c}' for c in classes[:3])} belongs")
 
@@ -108,12 +123,12 @@ class RelationIndex:
 
         Decided once per (class name, classes): the check costs a dictionary look-up.
         """
-        key = (value.is_a() if isinstance(value, ifcopenshell.entity_instance) else None,
-               classes)
+        entity: Entity = value if isinstance(value, ifcopenshell.entity_instance) else None
+        key = (None if entity is None else entity.is_a(), classes)
         ok = self._allowed.get(key)
         if ok is None:
-            ok = self._allowed[key] = key[0] is not None and any(
-                value.is_a(c) for c in classes)  # type: ignore[attr-defined]
+            ok = self._allowed[key] = entity is not None and any(
+                entity.is_a(c) for c in classes)
         if not ok:
             raise _refuse(rel, attr, value, classes)
         return value

@@ -72,3 +72,17 @@ def test_relationship_retyped_into_another_is_refused_without_traceback(
     damaged.write_text(_retype(text, rel, "IFCRELDEFINESBYTYPE"))
     with pytest.raises(ModelReadError, match=rf"^damaged model: #{rel} IfcRelDefinesByType\."):
         read_columns(open_model(damaged))
+
+
+def test_result_whose_load_is_another_class_leaves_the_column_not_checked(
+        builder, tmp_path: Path) -> None:
+    text, live, _ = _model_with_results(builder, tmp_path / "m.ifc")
+    force = builder.model.by_id(live).AppliedLoad.id()
+    damaged = tmp_path / "damaged.ifc"
+    damaged.write_text(_retype(text, force, "IFCCARTESIANPOINT"))
+    # before: the live load vanished and the column was checked with D = 120 kip alone
+    members = read_columns(open_model(damaged)).members
+    cls = builder.model.by_id(live).is_a()
+    assert members.reason[0] == (
+        f"element could not be read (ModelReadError: damaged model: #{live} {cls} holds "
+        f"#{force}, an IfcCartesianPoint, where an IfcStructuralLoad belongs)")
