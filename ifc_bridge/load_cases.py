@@ -91,6 +91,16 @@ class AnalysisLoads:
     _case_types: dict[int, tuple[str | None, str]] = field(default_factory=dict)
     _told: set[str] = field(default_factory=set)
 
+    def __post_init__(self) -> None:
+        """Tell the model about results in a result group that are connected to nothing."""
+        connected = {a.id() for acts in self.index.activities.values() for a in acts}
+        loose = sorted(k for k in self.index.result_groups if k not in connected)
+        if loose:
+            shown = ", ".join(f"#{k}" for k in loose[:5]) + (" ..." if len(loose) > 5 else "")
+            self._tell(f"{len(loose)} analysis result(s) in result groups ({shown}) are "
+                       "connected to no member or element, so no column uses their forces "
+                       "(an IfcRelConnectsStructuralActivity missing or damaged?)")
+
     def _tell(self, text: str) -> None:
         if text not in self._told:
             self._told.add(text)

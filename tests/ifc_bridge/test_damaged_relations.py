@@ -86,3 +86,16 @@ def test_result_whose_load_is_another_class_leaves_the_column_not_checked(
     assert members.reason[0] == (
         f"element could not be read (ModelReadError: damaged model: #{live} {cls} holds "
         f"#{force}, an IfcCartesianPoint, where an IfcStructuralLoad belongs)")
+
+
+def test_result_connected_to_nothing_is_a_run_message(builder, tmp_path: Path) -> None:
+    text, live, rel = _model_with_results(builder, tmp_path / "m.ifc")
+    damaged = tmp_path / "damaged.ifc"
+    # the fuzz test's case: the connecting line deleted; nothing refers to it, so the parser
+    # cannot tell; before, the column was checked with D = 120 kip alone and no word
+    damaged.write_text(re.sub(rf"^#{rel}=.*\n", "", text, flags=re.MULTILINE))
+    read = read_columns(open_model(damaged))
+    assert read.members.loads[0][1] != read.members.loads[0][1]  # L: NaN, not read
+    assert (f"1 analysis result(s) in result groups (#{live}) are connected to no member or "
+            "element, so no column uses their forces (an IfcRelConnectsStructuralActivity "
+            "missing or damaged?)") in read.messages
