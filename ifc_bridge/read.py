@@ -70,7 +70,7 @@ from stanchion.ifc_bridge.properties import (
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.representation import ShapeInfo, ShapeReader
 from stanchion.ifc_bridge.sections import Resolution, SectionRequest, resolve_sections
-from stanchion.ifc_bridge.units import ModelUnits, read_units
+from stanchion.ifc_bridge.units import GivenUnit, ModelUnits, read_units
 
 NO_YIELD = "no yield strength"
 BROKEN = "error"  # profile_origin of an element the reader could not walk
@@ -89,6 +89,8 @@ class ReadResult:
         pressure_unit_factor: model pressure unit -> ksi.
         schema: the model's schema identifier.
         unit_names: human names of the model units (or the assumed SI unit).
+        unit_given: quantity -> the unit given apart (``--force-unit``) that quantity was
+            read in, for a model that declares none.
     """
 
     members: MemberTable
@@ -98,6 +100,7 @@ class ReadResult:
     pressure_unit_factor: float = 1.0
     schema: str = ""
     unit_names: dict[str, str] = field(default_factory=dict)
+    unit_given: dict[str, str] = field(default_factory=dict)
 
 
 @dataclass
@@ -456,6 +459,7 @@ def read_columns(
     include_members: bool = False,
     loads_table: LoadTable | None = None,
     analysis_members: bool = False,
+    force_unit: GivenUnit | None = None,
 ) -> ReadResult:
     """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
 
@@ -468,6 +472,8 @@ def read_columns(
         loads_table: optional load table, already parsed by the front end
             (``service.load_table.read_load_table``); its rows are matched to the columns
             (:func:`ifc_bridge.loads.match_table`).
+        force_unit: the unit the model's forces are read in when it declares none
+            (``--force-unit``; :func:`ifc_bridge.units.read_units`).
 
     Returns:
         :class:`ReadResult`.
@@ -485,7 +491,7 @@ def read_columns(
     was_enabled = gc.isenabled()
     gc.disable()
     try:
-        return _read(model, include_members, loads_table, analysis_members)
+        return _read(model, include_members, loads_table, analysis_members, force_unit)
     finally:
         if was_enabled:
             gc.enable()
@@ -516,8 +522,9 @@ def _unitless_table_message(table: LoadTable) -> str:
 
 
 def _read(model: ifcopenshell.file, include_members: bool,
-          table: LoadTable | None, analysis_members: bool = False) -> ReadResult:
-    units = read_units(model)
+          table: LoadTable | None, analysis_members: bool = False,
+          force_unit: GivenUnit | None = None) -> ReadResult:
+    units = read_units(model, force_unit)
     if table is not None and table.uses_model_unit and not units.declared["force"]:
         raise ModelReadError(_unitless_table_message(table))
     reader = _Reader(model, units)
@@ -555,7 +562,9 @@ def _read(model: ifcopenshell.file, include_members: bool,
     if "force" in units.undeclared_used:
         raise ModelReadError("model declares no force unit but carries forces (analysis "
                              "results or Stanchion_Loads); units are never guessed: declare "
-                             "its force unit (IfcUnitAssignment) in the authoring program")
+                             "its force unit (IfcUnitAssignment) in the authoring program or "
+                             "give it with --force-unit (e.g. --force-unit kN; an HTTP job's "
+                             "force_unit field)")
     messages.extend(_repeated_global_ids(rows, cols.reasons))
     if matched is not None:
         messages.extend(matched.messages)
@@ -578,5 +587,5 @@ def _read(model: ifcopenshell.file, include_members: bool,
         members=members, messages=messages, force_unit_factor=units.force,
         length_unit_factor=units.length, pressure_unit_factor=units.pressure,
         schema=model.schema_identifier if hasattr(model, "schema_identifier") else model.schema,
-        unit_names=dict(units.names),
+        unit_names=dict(units.names), unit_given=dict(units.given),
     )

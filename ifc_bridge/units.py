@@ -15,6 +15,11 @@ member that used such a value).  Forces are the exception: :func:`ifc_bridge.rea
 refuses a model that declares no force unit once a force was read
 (:attr:`ModelUnits.undeclared_used`; issue 13: units are never guessed).
 
+A force unit given apart.  A model that declares no force unit may be read with one given on
+the command line (``--force-unit``, an HTTP job's ``force_unit``): :class:`GivenUnit`.  Its
+forces are then read in that unit, and the first use records a model-level warning (and a
+per-member note) saying the unit came from the command line, not the model.
+
 Per-property units.  An IfcPropertySingleValue or IfcPhysicalSimpleQuantity may carry its own
 ``Unit``; :meth:`ModelUnits.value_factor` uses it instead of the project unit.
 """
@@ -22,6 +27,7 @@ Per-property units.  An IfcPropertySingleValue or IfcPhysicalSimpleQuantity may 
 from __future__ import annotations
 
 from dataclasses import dataclass, field
+from typing import NamedTuple
 
 import ifcopenshell
 import ifcopenshell.util.unit
@@ -38,6 +44,18 @@ QUANTITIES: dict[str, tuple[str, str, str]] = {
 
 #: What an undeclared unit is read as (the SI base unit of the IFC measure type).
 ASSUMED_SI = {"length": "metre", "force": "newton", "pressure": "pascal"}
+
+
+class GivenUnit(NamedTuple):
+    """A force unit given apart from the model (``--force-unit``).
+
+    Attributes:
+        name: as the user wrote it (``kN``, ``kip``).
+        to_kip: multiplier, that unit -> kip.
+    """
+
+    name: str
+    to_kip: float
 
 
 def _unit_name(unit: Entity) -> str:
@@ -80,6 +98,8 @@ class ModelUnits:
         names: human names of the project units (``"MILLI METRE"``), or the assumed SI unit.
         declared: whether the model's IfcUnitAssignment declares each quantity's unit.
         warnings: model-level warnings recorded by :meth:`note_use` (each once).
+        given: quantity -> the unit given apart (``--force-unit``) it is read in, for a
+            quantity the model does not declare.
     """
 
     length: float
@@ -88,7 +108,9 @@ class ModelUnits:
     names: dict[str, str]
     declared: dict[str, bool]
     warnings: list[str] = field(default_factory=list)
+    given: dict[str, str] = field(default_factory=dict)
     _warned: set[str] = field(default_factory=set, repr=False)
+    _told: set[str] = field(default_factory=set, repr=False)
 
     @property
     def undeclared_used(self) -> frozenset[str]:
@@ -104,6 +126,14 @@ class ModelUnits:
         """
         if self.declared[quantity]:
             return None
+        if quantity in self.given:
+            unit = self.given[quantity]
+            if quantity not in self._told:
+                self._told.add(quantity)
+                self.warnings.append(
+                    f"model declares no {quantity} unit; its {quantity}s are read in {unit}, "
+                    "the unit given on the command line (--force-unit)")
+            return f"{quantity} read in {unit}, given on the command line (--force-unit)"
         if quantity not in self._warned:
             self._warned.add(quantity)
             self.warnings.append(
@@ -136,14 +166,17 @@ class ModelUnits:
         return si_scale(unit) * factor(si_name, internal), None
 
 
-def read_units(model: ifcopenshell.file) -> ModelUnits:
+def read_units(model: ifcopenshell.file, force: GivenUnit | None = None) -> ModelUnits:
     """The model's project length, force and pressure units.
 
     Args:
         model: an opened IFC model.
+        force: the force unit given apart (``--force-unit``): used when the model declares
+            none; a model that declares one is read in its own (a warning says so).
 
     Returns:
-        :class:`ModelUnits`; undeclared quantities use the SI base unit (see module notes).
+        :class:`ModelUnits`; undeclared quantities use the SI base unit (see module notes),
+        or for forces the given unit.
     """
     factors: dict[str, float] = {}
     names: dict[str, str] = {}
@@ -164,10 +197,19 @@ def read_units(model: ifcopenshell.file) -> ModelUnits:
         factors[quantity] = scale * to_internal
         names[quantity] = _unit_name(unit)
         declared[quantity] = True
-    return ModelUnits(
+    units = ModelUnits(
         length=factors["length"],
         force=factors["force"],
         pressure=factors["pressure"],
         names=names,
         declared=declared,
     )
+    if force is not None and declared["force"]:
+        units.warnings.append(
+            f"the model declares its force unit ({names['force']}): its forces are read in "
+            f"it, not in {force.name} (--force-unit)")
+    elif force is not None:
+        units.force = force.to_kip
+        units.names["force"] = f"{force.name} (--force-unit)"
+        units.given["force"] = force.name
+    return units

@@ -155,11 +155,36 @@ def _unit_label(unit: Entity) -> str:
     return str(getattr(unit, "Name", None) or unit.is_a())
 
 
-def ensure_force_unit(model: ifcopenshell.file) -> tuple[float, str, bool]:
-    """The model's force unit, adding SI newton to its unit assignment when none is declared.
+def _given_force_unit(model: ifcopenshell.file, name: str, to_kip: float) -> Entity:
+    """An IFC force unit for a unit given on the command line (``--force-unit``).
+
+    N, kN and MN become an IfcSIUnit (with its prefix); any other unit an
+    IfcConversionBasedUnit named as given, defined by its size in newtons.
+    """
+    newtons = to_kip / factor("newton", "kip")
+    for prefix, size in ((None, 1.0), ("KILO", 1e3), ("MEGA", 1e6)):
+        if math.isclose(newtons, size, rel_tol=1e-12):
+            return model.create_entity("IfcSIUnit", UnitType="FORCEUNIT", Prefix=prefix,
+                                       Name="NEWTON")
+    newton = model.create_entity("IfcSIUnit", UnitType="FORCEUNIT", Name="NEWTON")
+    size_in_n = model.create_entity("IfcMeasureWithUnit", model.create_entity(
+        "IfcForceMeasure", newtons), newton)
+    dims = model.create_entity("IfcDimensionalExponents", 1, 1, -2, 0, 0, 0, 0)
+    return model.create_entity("IfcConversionBasedUnit", Dimensions=dims,
+                               UnitType="FORCEUNIT", Name=name, ConversionFactor=size_in_n)
+
+
+def ensure_force_unit(model: ifcopenshell.file, given: tuple[str, float] | None = None
+                      ) -> tuple[float, str, bool]:
+    """The model's force unit, adding one to its unit assignment when none is declared.
 
     An undeclared force unit is read as newton (the SI unit of IfcForceMeasure, as the reader
-    does), so adding NEWTON keeps every existing force value's meaning.
+    does), so adding NEWTON keeps every existing force value's meaning.  A model read with a
+    force unit given on the command line gets that unit instead (its forces were read in it).
+
+    Args:
+        model: the model.
+        given: (name, kip per unit) of the unit given with ``--force-unit``, or None.
 
     Returns:
         (multiplier model force unit -> kip, unit label, whether a unit was added).
@@ -170,8 +195,11 @@ def ensure_force_unit(model: ifcopenshell.file) -> tuple[float, str, bool]:
     if unit is not None:
         return si_scale(unit) * to_kip, _unit_label(unit), False
     if not projects:  # nowhere to declare it; values stay in the IFC default, newton
-        return to_kip, "NEWTON", False
-    newton = model.create_entity("IfcSIUnit", UnitType="FORCEUNIT", Name="NEWTON")
+        return (to_kip, "NEWTON", False) if given is None else (given[1], given[0], False)
+    newton = (model.create_entity("IfcSIUnit", UnitType="FORCEUNIT", Name="NEWTON")
+              if given is None else _given_force_unit(model, *given))
+    if given is not None:
+        to_kip = given[1]
     assignment = projects[0].UnitsInContext
     if assignment is None:
         projects[0].UnitsInContext = model.create_entity("IfcUnitAssignment", Units=[newton])
@@ -179,7 +207,7 @@ def ensure_force_unit(model: ifcopenshell.file) -> tuple[float, str, bool]:
         assignment.Units = tuple(assignment.Units or ()) + (newton,)
     if getattr(model, "units", None):
         ifcopenshell.util.unit.clear_unit_cache(model)
-    return to_kip, "NEWTON", True
+    return to_kip, _unit_label(newton), True
 
 
 # ---------------------------------------------------------------------------- ownership
@@ -749,6 +777,7 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
     design_basis: str,
     disclaimer: str,
     force_unit_factor: float | None = None,
+    force_unit_given: str | None = None,
     checked_at: datetime | str | None = None,
     mark_unlisted_columns: bool = True,
     progress: Callable[[int, int], None] | None = None,
@@ -764,6 +793,9 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
         disclaimer: the report's disclaimer text.
         force_unit_factor: multiplier model force unit -> kip as the reader used it; checked
             against the model's own unit (ValueError on disagreement).  None: the model's.
+        force_unit_given: the unit a model without a force unit was read in
+            (``--force-unit``; its kip factor is ``force_unit_factor``): added to the model's
+            units instead of NEWTON.
         checked_at: when given, written as CheckedAt (IfcDateTime; IfcLabel in IFC2X3).
         mark_unlisted_columns: also write NOT CHECKED on IfcColumns missing from ``members``.
         progress: called as ``progress(done, total)`` every 2,000 elements.
@@ -779,7 +811,9 @@ def write_results(  # noqa: PLR0913 -- keyword-only options of the public API
     """
     if len(members) != len(results):
         raise ValueError(f"{len(members)} members but {len(results)} results")
-    to_kip, unit_name, added = ensure_force_unit(model)
+    given = (None if force_unit_given is None or force_unit_factor is None
+             else (force_unit_given, force_unit_factor))
+    to_kip, unit_name, added = ensure_force_unit(model, given)
     if force_unit_factor is not None and not math.isclose(force_unit_factor, to_kip,
                                                           rel_tol=1e-9):
         raise ValueError(

@@ -51,14 +51,37 @@ def _force_factor(unit: str, label: str) -> float:
         raise LoadTableError(f"load table {label}: '{unit}' is not a force unit") from None
 
 
-def _given_unit(force_unit: str | None) -> float | None:
-    """The ``--force-unit`` option in kip per unit (None when not given)."""
+def given_force_unit(force_unit: str | None, option: str = "--force-unit"
+                     ) -> tuple[str, float] | None:
+    """The ``--force-unit`` option (an HTTP job's ``force_unit``), None when not given.
+
+    Returns:
+        (the unit as written, kip per unit), or None.
+
+    Args:
+        force_unit: kip, kN, N, lbf, MN or any force unit pint knows (no scaling factor).
+        option: how the message names the option.
+
+    Raises:
+        LoadTableError: not a force unit (one line naming ``option``).
+    """
     if force_unit is None:
         return None
+    name = force_unit.strip()
     try:
-        return factor(FORCE_UNITS.get(force_unit, force_unit), "kip")
+        to_kip = factor(FORCE_UNITS.get(name, name), "kip") if 0 < len(name) <= 40 else 0.0
     except ValueError:
-        raise LoadTableError(f"--force-unit: '{force_unit}' is not a force unit") from None
+        to_kip = 0.0
+    if not (0 < to_kip < math.inf):
+        raise LoadTableError(f"{option}: {force_unit[:40]!r} is not a force unit (kip, kN, "
+                             "N, lbf, MN or another force unit)")
+    return name, to_kip
+
+
+def _given_unit(force_unit: str | None) -> float | None:
+    """The ``--force-unit`` option in kip per unit (None when not given)."""
+    given = given_force_unit(force_unit)
+    return None if given is None else given[1]
 
 
 def _frame(path: str | Path, label: str) -> pd.DataFrame:

@@ -25,10 +25,11 @@ from stanchion.ifc_bridge.elements import found_instead
 from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import ReadResult, read_columns
+from stanchion.ifc_bridge.units import GivenUnit
 from stanchion.ifc_bridge.write import checked_now, write_results
 from stanchion.service.errors import InputError
 from stanchion.service.lenient import add_lenient_warnings
-from stanchion.service.load_table import read_load_table
+from stanchion.service.load_table import given_force_unit, read_load_table
 from stanchion.service.reports.files import write_model_checked
 from stanchion.service.reports.report import DISCLAIMER, build_report
 from stanchion.service.suggestions import suggest
@@ -76,9 +77,11 @@ def _read(path: Path, include_members: bool, loads_table: Path | None,
     """
     table = (read_load_table(loads_table, force_unit)  # InputError
              if loads_table is not None else None)
+    given = given_force_unit(force_unit)
     try:
         model = open_model(path, problems=problems)
-        return model, read_columns(model, include_members=include_members, loads_table=table)
+        return model, read_columns(model, include_members=include_members, loads_table=table,
+                                   force_unit=GivenUnit(*given) if given else None)
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
 
@@ -187,13 +190,16 @@ def write_checked_model(run: ModelCheck, out: Path,
         summary = write_results(
             run.model, members, run.results, design_basis=report["design_basis"],
             disclaimer=DISCLAIMER, force_unit_factor=run.read.force_unit_factor,
+            force_unit_given=run.read.unit_given.get("force"),
             checked_at=stamp, progress=progress.count,
             suggested={i: (s[0]["section"], s[0]["utilization"])
                        for i, s in run.suggestions.items() if s})
     if summary.added_force_unit:
+        given = (" (the unit given on the command line, --force-unit)"
+                 if run.read.unit_given.get("force") else "")
         report["messages"].append(
-            f"the model declared no force unit; {summary.force_unit} was added to its "
-            "units and the strengths are written in it")
+            f"the model declared no force unit; {summary.force_unit}{given} was added to "
+            "its units and the strengths are written in it")
     if summary.missing:
         report["messages"].append(
             f"{len(summary.missing)} members have no element in the model; nothing "

@@ -24,6 +24,7 @@ from pydantic import BaseModel, ConfigDict, Field, ValidationError
 from stanchion.engine.check import CheckResults
 from stanchion.engine.members import MemberTable
 from stanchion.service.errors import InputError, validation_message
+from stanchion.service.load_table import given_force_unit
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
 from stanchion.service.reports.files import write_outputs
 from stanchion.service.request import MembersRequest
@@ -82,8 +83,9 @@ class CheckOptions(BaseModel):
         "si (kN, m, MPa)")
     loads_table: Path | None = Field(None, description="CSV load table for a model")
     force_unit: str | None = Field(
-        None, description="force unit of the load table's columns whose header names none "
-        "(kip, kN, N, lbf, MN or any force unit pint knows)")
+        None, description="force unit of a model that declares none and of the load "
+        "table's columns whose header names none (kip, kN, N, lbf, MN or any force unit "
+        "pint knows)")
     lenient: bool = Field(
         False, description="check a damaged model anyway, with a model-level warning")
     include_members: bool = Field(False, description="also check IfcMember STRUT / POST")
@@ -202,9 +204,7 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
                                  "its own loads, units and candidates")
-    if options.force_unit is not None and options.loads_table is None:
-        raise InputError("--force-unit goes with --loads (the unit of the load table's "
-                         "columns whose header names none)")
+    given_force_unit(options.force_unit)  # InputError: not a force unit
     if (options.utilization_limit is not None or options.oversized is not None
             or options.families) and not options.suggest:
         raise InputError("--utilization-limit, --oversized and --families go with --suggest")

@@ -129,13 +129,14 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      help="CSV load table: element,D [kN],L [kN],... (element = GlobalId, "
                      "Tag or Name)")
     inp.add_argument("--force-unit", metavar="UNIT",
-                     help="unit of the load table's columns whose header names none (kip, "
-                     "kN, N, lbf, MN); without it they take the model's declared force unit, "
-                     "and a model that declares none is refused")
+                     help="force unit (kip, kN, N, lbf, MN) of a model that declares none "
+                     "and of the load table's columns whose header names none; without it "
+                     "they take the model's declared force unit, and a model that declares "
+                     "none but carries forces is refused")
     inp.add_argument("--lenient", action="store_true",
                      help="check a damaged model anyway (cut short, lines the parser "
-                     "skipped, references to missing instances) with a warning in every "
-                     "member's notes; refused by default")
+                     "skipped, references to missing instances) with a warning naming the "
+                     "columns it touches; refused by default")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
     gate = c.add_argument_group("pass / fail")

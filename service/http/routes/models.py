@@ -11,6 +11,7 @@ from fastapi import APIRouter, Request
 from fastapi.responses import JSONResponse
 from starlette.exceptions import HTTPException
 
+from stanchion.service.errors import InputError
 from stanchion.service.http.dependencies import AUTH, RunnerDep, SettingsDep, StoreDep
 from stanchion.service.http.errors import FieldError
 from stanchion.service.http.responses import errors
@@ -18,6 +19,7 @@ from stanchion.service.http.settings import Settings
 from stanchion.service.http.upload import UploadError, UploadTooLarge, boundary_of, receive_form
 from stanchion.service.jobs.runner import JobRunner
 from stanchion.service.jobs.store import PARAMS_FILE, JobStore
+from stanchion.service.load_table import given_force_unit
 from stanchion.service.report_model import JobAccepted
 
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
@@ -36,6 +38,10 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
             "loads": {"type": "string", "format": "binary",
                       "description": "optional CSV load table (docs/design.md §5)"},
             "design_method": {"type": "string", "enum": ["LRFD", "ASD"], "default": "LRFD"},
+            "force_unit": {"type": "string", "maxLength": 40, "description":
+                           "optional: the force unit of a model that declares none and of "
+                           "the load table's columns whose header names none (kip, kN, N, "
+                           "lbf, MN or another force unit; the command line's --force-unit)"},
         }}}}}},
 )
 async def upload_model(request: Request, settings: SettingsDep, store: StoreDep,
@@ -63,7 +69,7 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
         try:
             parts = await receive_form(
                 request.stream(), boundary, incoming, max_bytes=settings.max_upload_bytes,
-                file_fields={"file", "loads"}, text_fields={"design_method"},
+                file_fields={"file", "loads"}, text_fields={"design_method", "force_unit"},
             )
         except UploadTooLarge:
             raise HTTPException(413, f"the upload is larger than {settings.max_upload_mb:g} "
@@ -101,6 +107,12 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     method = (given or "LRFD").upper()
     if method not in ("LRFD", "ASD"):
         raise FieldError(422, f"expected LRFD or ASD, got {given!r}", "design_method")
+    unit_part = parts.get("force_unit")
+    force_unit = (unit_part.value or "").strip() or None if unit_part is not None else None
+    try:
+        given_force_unit(force_unit, "force_unit")
+    except InputError as exc:
+        raise FieldError(422, str(exc).removeprefix("force_unit: "), "force_unit") from None
     model.path.rename(folder / f"model{suffix}")
     loads = parts.get("loads")
     loads_name = None
@@ -112,5 +124,5 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     elif loads is not None:  # an empty, unnamed part: a form field left blank
         loads.path.unlink(missing_ok=True)
     return {"model": f"model{suffix}", "filename": filename, "design_method": method,
-            "loads": loads_name,
+            "force_unit": force_unit, "loads": loads_name,
             "loads_filename": loads.filename if loads is not None and loads_name else None}

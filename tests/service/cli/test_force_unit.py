@@ -55,14 +55,6 @@ def test_a_force_unit_that_is_not_a_force_is_refused(tmp_path, capsys) -> None:
     assert len(err.splitlines()) == 1 and "--force-unit: 'm' is not a force unit" in err, err
 
 
-def test_a_force_unit_without_a_load_table_is_refused(tmp_path, capsys) -> None:
-    # it would be used nowhere: the model's own forces need their declared unit
-    model, _ = _files(tmp_path)
-    assert main(["check", str(model), "--force-unit", "kN"]) == 2
-    err = capsys.readouterr().err.strip()
-    assert len(err.splitlines()) == 1 and "--force-unit goes with --loads" in err, err
-
-
 def test_a_members_file_refuses_force_unit(tmp_path, capsys) -> None:
     members = tmp_path / "m.json"
     members.write_text(json.dumps({"members": [
@@ -80,4 +72,79 @@ def test_a_model_with_forces_and_no_force_unit_is_refused(tmp_path, capsys) -> N
     err = capsys.readouterr().err.strip()
     assert len(err.splitlines()) == 1
     assert "model declares no force unit but carries forces" in err
+    assert "--force-unit" in err  # the fix on the command line
     assert not report.exists()
+
+
+#: Newtons per kip: 1000 lbf of 4.4482216152605 N (NIST SP 811, exact by definition).
+N_PER_KIP = 4448.2216152605
+
+
+def test_a_model_without_a_force_unit_is_read_in_the_given_unit(tmp_path, capsys) -> None:
+    # Stanchion_Loads D = 100 in a millimetre model without a force unit, meaning kN
+    import ifcopenshell
+    import ifcopenshell.util.element
+    import ifcopenshell.util.unit
+
+    model = write_model(tmp_path / "model.ifc", units="mm_only",
+                        loads={"C1": {"D": 100 / N_PER_KIP}, "C2": {"D": 100 / N_PER_KIP}})
+    report, csv, out = tmp_path / "r.json", tmp_path / "r.csv", tmp_path / "checked.ifc"
+    assert main(["check", str(model), "--force-unit", "kN", "--report", str(report),
+                 "--csv", str(csv), "--out", str(out)]) == 0
+    terminal = capsys.readouterr().out
+    body = json.loads(report.read_text())
+    # 1.4D = 1.4 x 100 kN / 4.4482216 kN per kip = 31.47 kip (ASCE 7-22 §2.3.1 comb. 1);
+    # φcPn = 303 kip (W14X48, Fy 50 ksi, Lc 16 ft: AISC Manual Table 4-1a, read-off)
+    assert [m["utilization"] for m in body["members"]] == pytest.approx([31.47 / 303] * 2,
+                                                                         rel=0.01)
+    said = "read in kN, the unit given on the command line (--force-unit)"
+    assert any(said in m for m in body["messages"]) and said in terminal
+    note = "force read in kN, given on the command line (--force-unit)"
+    assert all(note in m["messages"] for m in body["members"])
+    assert csv.read_text().count(note) == 2
+    assert any("KILO NEWTON (the unit given on the command line, --force-unit) was added"
+               in m for m in body["messages"])
+    checked = ifcopenshell.open(str(out))
+    unit = ifcopenshell.util.unit.get_project_unit(checked, "FORCEUNIT")
+    assert (unit.Prefix, unit.Name) == ("KILO", "NEWTON")
+    col = next(c for c in checked.by_type("IfcColumn") if c.Name == "C1")
+    props = ifcopenshell.util.element.get_psets(col)["Stanchion_ColumnCheck"]
+    # the required strength written in the added unit: 1.4 x 100 kN = 140 kN
+    assert props["RequiredStrength"] == pytest.approx(140.0, rel=1e-6)
+    assert note in props["Notes"]
+    # the model's own forces keep the meaning they were read with
+    loads = ifcopenshell.util.element.get_psets(col)["Stanchion_Loads"]
+    assert loads["D"] == pytest.approx(100.0, rel=1e-9)
+
+
+def test_a_given_unit_beyond_n_kn_mn_is_added_as_a_conversion_unit(tmp_path) -> None:
+    import ifcopenshell
+    import ifcopenshell.util.unit
+
+    model = write_model(tmp_path / "model.ifc", units="mm_only",
+                        loads={"C1": {"D": 100 / N_PER_KIP}, "C2": None})
+    out = tmp_path / "checked.ifc"
+    assert main(["check", str(model), "--force-unit", "kip", "--out", str(out),
+                 "--quiet"]) == 1  # C2 has no loads: not checked
+    unit = ifcopenshell.util.unit.get_project_unit(ifcopenshell.open(str(out)), "FORCEUNIT")
+    assert unit.is_a("IfcConversionBasedUnit") and unit.Name == "kip"
+    # 1 kip = 4448.2216152605 N (NIST SP 811)
+    assert unit.ConversionFactor.ValueComponent.wrappedValue == pytest.approx(N_PER_KIP)
+    assert ifcopenshell.util.unit.get_unit_scale(unit) == pytest.approx(N_PER_KIP)
+
+
+def test_a_model_that_declares_its_force_unit_is_read_in_it(tmp_path) -> None:
+    # --force-unit never overrides a declared unit: the run says the option was not used
+    model = write_model(tmp_path / "model.ifc", units="mm_N")
+    report = tmp_path / "r.json"
+    plain = tmp_path / "plain.json"
+    main(["check", str(model), "--force-unit", "kip", "--report", str(report), "--quiet"])
+    main(["check", str(model), "--report", str(plain), "--quiet"])
+    body = json.loads(report.read_text())
+    assert ("the model declares its force unit (NEWTON): its forces are read in it, not in "
+            "kip (--force-unit)") in body["messages"]
+    # the same strengths as without the option (the loads were read in newtons both times)
+    without = json.loads(plain.read_text())["members"]
+    assert [m["required_strength"] for m in body["members"]] == [
+        m["required_strength"] for m in without]
+    assert body["members"][0]["required_strength"] > 100  # kip: newtons read as kip are not
