@@ -165,3 +165,15 @@ def test_job_summary_counts_skipped(tmp_path) -> None:
     assert result["summary"]["skipped"] == 3 and result["summary"]["pass"] == 1
     report = json.loads((job / jobs.REPORT_FILE).read_text())
     assert [m["status"] for m in report["members"]].count("skipped") == 3
+
+
+def test_skipped_members_get_no_suggestion(tmp_path, capsys) -> None:
+    # --oversized 10 asks a suggestion for every passing column: the steel one gets one, the
+    # skipped ones none (they have no capacity and no demand).
+    src = _model(tmp_path / "model.ifc")
+    report_path = tmp_path / "r.json"
+    assert main(["check", str(src), "--quiet", "--suggest", "--oversized", "10",
+                 "--report", str(report_path)]) == 0
+    rows = {m["name"]: m for m in json.loads(report_path.read_text())["members"]}
+    assert rows["S1"].get("suggestions")
+    assert all("suggestions" not in rows[k] for k in NON_STEEL)
