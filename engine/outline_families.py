@@ -188,9 +188,10 @@ def _i_template(d: float, bf: float, tw: float, t_root: float, t_toe: float) -> 
     ])
 
 
-def _open_dims(d: float, bf: float, tw: float, tf: float, slope: float, r: float
-               ) -> dict[str, float]:
-    return {"d": d, "bf": bf, "tw": tw, "tf": tf, "r": r, "k": tf + r, "slope": slope}
+def _open_dims(d: float, bf: float, tw: float, tf: float, slope: float, r: float,
+               t_root: float) -> dict[str, float]:
+    """Dimensions of I, U, T: k = flange thickness at the web (tf if parallel) + r."""
+    return {"d": d, "bf": bf, "tw": tw, "tf": tf, "r": r, "k": t_root + r, "slope": slope}
 
 
 def _fit_i(p: Polygon) -> Fit | None:
@@ -211,7 +212,8 @@ def _fit_i(p: Polygon) -> Fit | None:
     if not sharp.is_valid or tf - half <= 0:
         return None
     r = _fillet_radius(p.area, sharp, 4)
-    fit = Fit("I", p, _open_dims(d, bf, tw, tf, slope, r), _misfit(p, _closing(sharp, r)))
+    dims = _open_dims(d, bf, tw, tf, slope, r, tf + half)
+    fit = Fit("I", p, dims, _misfit(p, _closing(sharp, r)))
     return fit if fit.misfit <= FIT_TOL else None
 
 
@@ -236,7 +238,8 @@ def _fit_channel(p: Polygon) -> Fit | None:
     sharp = Polygon([(x1, b), (x1, d / 2), (x0, d / 2), (x0, -d / 2), (x1, -d / 2), (x1, -b),
                      (x0 + tw, -a), (x0 + tw, a)])
     r = _fillet_radius(p.area, sharp, 2)
-    fit = Fit("U", p, _open_dims(d, bf, tw, tf, slope, r), _misfit(p, _closing(sharp, r)))
+    dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
+    fit = Fit("U", p, dims, _misfit(p, _closing(sharp, r)))
     return fit if fit.misfit <= FIT_TOL else None
 
 
@@ -263,7 +266,8 @@ def _fit_tee(p: Polygon) -> Fit | None:
     sharp = Polygon([(x1, y1 - t_toe), (x1, y1), (x0, y1), (x0, y1 - t_toe),
                      (-tw / 2, y1 - t_root), (-tw / 2, y0), (tw / 2, y0), (tw / 2, y1 - t_root)])
     r = _fillet_radius(p.area, sharp, 2)
-    fit = Fit("T", p, _open_dims(d, bf, tw, tf, slope, r), _misfit(p, _closing(sharp, r)))
+    dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
+    fit = Fit("T", p, dims, _misfit(p, _closing(sharp, r)))
     return fit if fit.misfit <= FIT_TOL else None
 
 
