@@ -320,6 +320,9 @@ _REINFORCEMENT = ("rebar", "reinforcing", "reinforcement", "bewehrung", "betonst
                   "armature", "armadura", "armatura", "арматура")
 #: Glued-laminated timber strength classes of EN 14080 (GL24h, GL28c ...).
 _GLULAM_CLASS = re.compile(r"\bGL\s?\d{2}[HC]\b")
+#: Concrete strength classes of EN 206 / EN 1992-1-1 Table 3.1 written with their slash
+#: (C30/37, LC25/28): what some programs name a concrete material by, and nothing else.
+_CONCRETE_CLASS = re.compile(r"\bL?C\s?\d{1,3}\s?/\s?\d{1,3}\b")
 
 
 def _fold(text: str) -> str:
@@ -351,7 +354,8 @@ def text_classes(text: str | None) -> frozenset[str]:
 
     Words are runs of letters (so ``"_Beton_C30-37_wg"`` holds ``Beton``), compared whole
     or, for compound heads, as the end of a word; a steel grade or product standard of the
-    grade table (S235, A992, EN 10025 ...) names steel; a reinforcement word makes the
+    grade table (S235, A992, EN 10025 ...) names steel, a concrete strength class with its
+    slash (C30/37) concrete, a glulam class (GL24h) timber; a reinforcement word makes the
     text concrete alone.
 
     Args:
@@ -369,6 +373,8 @@ def text_classes(text: str | None) -> frozenset[str]:
     upper = _upper(text)
     if _GLULAM_CLASS.search(upper):
         found.add(TIMBER)
+    if _CONCRETE_CLASS.search(upper):
+        found.add(CONCRETE)
     if any(rx.search(upper) for _, rx in _COMPILED) or product_standards(text):
         found.add(STEEL)
     return frozenset(found)

@@ -179,7 +179,8 @@ CLASS_TABLE = [
     ("Hormigón HA-30", "concrete"), ("calcestruzzo", "concrete"), ("Betong B35", "concrete"),
     ("Stahlbeton", "concrete"), ("_Beton_C25-30_x", "concrete"),
     ("Reinforcing steel B500B", "concrete"), ("Betonstahl", "concrete"),
-    ("Precast", "concrete"),
+    ("Precast", "concrete"), ("C30/37", "concrete"), ("LC25/28", "concrete"),
+    ("C 35/45", "concrete"),
     # timber
     ("Timber", "timber"), ("Wood", "timber"), ("Holz", "timber"), ("glulam", "timber"),
     ("Brettschichtholz", "timber"), ("Bois", "timber"), ("madera", "timber"),
@@ -200,6 +201,7 @@ CLASS_TABLE = [
     ("Metal", "unknown"), ("Default", "unknown"), ("Material 1", "unknown"), ("", "unknown"),
     ("Steelwork-free zone", "unknown"),  # not a whole word: "Steelwork" is none of them
     ("Glass", "unknown"), ("Alumina", "unknown"), ("Woodward", "unknown"),
+    ("C30", "unknown"),  # a strength class without its slash: concrete or timber, unknown
 ]
 
 
