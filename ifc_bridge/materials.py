@@ -211,8 +211,13 @@ class YieldReader:
 
 
 def material_text(material: Entity) -> str:
-    """A material's Name and Description (what grades and standards are matched on)."""
-    return " ".join(t for t in (material.Name, getattr(material, "Description", None)) if t)
+    """A material's Name and Description (what grades and standards are matched on).
+
+    Only texts: in a damaged model (an entity name changed into IfcMaterial) Name may hold
+    an instance; that is no name (the fuzz test found a traceback here).
+    """
+    return " ".join(t for t in (material.Name, getattr(material, "Description", None))
+                    if isinstance(t, str) and t)
 
 
 def grade_yield(materials: tuple[Entity, ...], family: str | None, thickness: float | None
@@ -253,7 +258,7 @@ def element_class(info: MaterialInfo) -> str:
         (see :func:`engine.materials.material_class`).
     """
     texts: list[str | None] = []
-    for mat in info.materials:
-        texts.append(mat.Name)
-        texts.append(getattr(mat, "Category", None))  # IFC4 and later
+    for mat in info.materials:  # only texts: a damaged Name may hold an instance
+        texts.extend(t if isinstance(t, str) else None
+                     for t in (mat.Name, getattr(mat, "Category", None)))  # Category: IFC4+
     return material_class(texts)

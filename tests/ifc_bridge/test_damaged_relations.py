@@ -99,3 +99,18 @@ def test_result_connected_to_nothing_is_a_run_message(builder, tmp_path: Path) -
     assert (f"1 analysis result(s) in result groups (#{live}) are connected to no member or "
             "element, so no column uses their forces (an IfcRelConnectsStructuralActivity "
             "missing or damaged?)") in read.messages
+
+
+def test_material_name_holding_an_instance_is_no_name(builder, tmp_path: Path) -> None:
+    if builder.schema == "IFC2X3":
+        pytest.skip("IfcMaterialProfileSetUsage is IFC4 and later")
+    builder.column("C1", profile=builder.profile("I", "W14X48", **W14X48),
+                   material=builder.material("A992"))
+    text = builder.write(tmp_path / "m.ifc").read_text()
+    usage = builder.model.by_type("IfcMaterialProfileSetUsage")[0].id()
+    damaged = tmp_path / "damaged.ifc"
+    # the fuzz test's case: the usage line renamed IFCMATERIAL, whose Name is then #set;
+    # before, TypeError from material_text stopped the whole read
+    damaged.write_text(_retype(text, usage, "IFCMATERIAL"))
+    members = read_columns(open_model(damaged)).members
+    assert members.reason[0] is not None and "no yield strength" in members.reason[0]
