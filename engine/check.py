@@ -96,6 +96,7 @@ _REASONS = (
     "required strength must be compression (zero or positive)",
 )
 _REASON_TEXTS = np.array(_REASONS, dtype=object)
+NO_LOADS = "no loads"
 
 
 def _infinite_demand(m: MemberTable) -> BoolArray:
@@ -103,11 +104,29 @@ def _infinite_demand(m: MemberTable) -> BoolArray:
     return np.isinf(m.loads).any(axis=1) | np.isinf(m.required_strength)
 
 
-def _not_checked_reasons(m: MemberTable) -> ObjectArray:
-    """The first reason each member cannot be checked, or None.
+#: The masks of :data:`_REASONS` that concern the capacity (section, Fy, lengths, K, E, G);
+#: the rest concern the demand.
+_CAPACITY_REASONS = _REASONS.index("no loads")
+
+
+def _load_only(reason: ObjectArray, rows: BoolArray) -> BoolArray:
+    """Rows whose given reason names missing loads and nothing else ("no loads (...)")."""
+    out = np.zeros(len(reason), dtype=bool)
+    for i in rows.nonzero()[0].tolist():
+        text = str(reason[i])
+        out[i] = text.startswith(NO_LOADS) and "; " not in text
+    return out
+
+
+def _not_checked_reasons(m: MemberTable) -> tuple[ObjectArray, BoolArray]:
+    """The first reason each member cannot be checked, or None; and the load-only members.
 
     One boolean row per entry of :data:`_REASONS`, filled by a few passes over stacked
-    columns (as cheap for a small request as for a large one).
+    columns (as cheap for a small request as for a large one).  A member whose only
+    reason is that it has no loads (the engine's "no loads", or a reader's reason that
+    begins with it and names nothing else) and whose capacity inputs are usable and
+    plausible is *load-only*: it is not checked, but its available strength is computed
+    (an engineer without loads yet still learns what each column carries).
     """
     reason = m.reason.copy()
     idx = m.section_index
@@ -128,13 +147,21 @@ def _not_checked_reasons(m: MemberTable) -> ObjectArray:
         np.less(m.required_strength, 0, out=masks[16])
     free = is_none(reason)
     hit = masks.any(axis=0) & free
+    capacity_ok = ~masks[:_CAPACITY_REASONS].any(axis=0)
+    load_only = capacity_ok & ((free & masks[_CAPACITY_REASONS]
+                                & ~masks[_CAPACITY_REASONS + 1:].any(axis=0))
+                               | _load_only(reason, ~free & capacity_ok))
     if any_set(hit):
         reason[hit] = _REASON_TEXTS[masks.argmax(axis=0)[hit]]
-    implausible = implausible_reasons(m, free & ~hit)
+    implausible = implausible_reasons(m, (free & ~hit) | load_only)
     flagged = ~is_none(implausible)
     if any_set(flagged):
-        reason[flagged] = implausible[flagged]
-    return reason
+        for i in (flagged & load_only).nonzero()[0].tolist():  # both reasons, capacity first
+            reason[i] = f"{implausible[i]}; {reason[i]}"
+        plain = flagged & ~load_only
+        reason[plain] = implausible[plain]
+        load_only &= ~flagged
+    return reason, load_only
 
 
 def _material_reasons(m: MemberTable, reason: ObjectArray) -> BoolArray | None:
@@ -191,16 +218,20 @@ def check_members(
     """
     method = method.upper()
     n = len(m)
-    reason = _not_checked_reasons(m)
+    reason, load_only = _not_checked_reasons(m)
+    before = reason.copy()
     skipped = _material_reasons(m, reason)
     ok = is_none(reason)
+    if any_set(load_only):  # a material reason (not steel, composite) outranks the capacity
+        load_only &= np.asarray(reason == before, dtype=bool)
+    capable = ok | load_only  # the available strength is computed for these
 
     # Compute on every row with harmless stand-ins where data are unusable, then blank them
     # (when every member is usable, the usual case, the inputs are used as they are).
     every = all_set(ok)
 
     def usable(a: NDArray[_N], stand_in: float) -> NDArray[_N]:
-        return a if every else np.where(ok, a, stand_in)
+        return a if every else np.where(capable, a, stand_in)
 
     idx = (usable(m.section_index, 0) if len(m.sections)
            else np.zeros(n, dtype=np.int64))
@@ -209,12 +240,13 @@ def check_members(
                      for k, length in ((m.kx, m.lx), (m.ky, m.ly), (m.kz, m.lz)))
 
     messages = list(m.messages)  # rows that gain a message get a new list (_advisories)
-    if len(m.sections) and (every or any_set(ok)):
+    if len(m.sections) and (every or any_set(capable)):
         comp = compressive_strength(m.sections, Fy, Lcx, Lcy, Lcz, E, G, index=idx)
         if not all_set(comp.in_scope):
-            out_of_scope = ok & ~comp.in_scope
+            out_of_scope = capable & ~comp.in_scope
             reason[out_of_scope] = "round HSS with D/t >= 0.45 E/Fy is outside AISC 360-22 E7"
             ok &= comp.in_scope
+            capable &= comp.in_scope
             every = False
         available = available_strength(comp.Pn, method)
         limit_state = comp.limit_state_names()
@@ -249,11 +281,13 @@ def check_members(
         bad = ~ok
         status[bad] = NOT_CHECKED
         # The demand stays known where it can be computed (selection uses it even for a
-        # member whose own section is unusable); everything capacity-related is blanked.
-        for arr in (available, utilization, slenderness, Fcr_, Ae):
-            arr[bad] = np.nan
+        # member whose own section is unusable); everything capacity-related is blanked,
+        # except the capacity of load-only members.
+        utilization[bad] = np.nan
+        for arr in (available, slenderness, Fcr_, Ae):
+            arr[~capable] = np.nan
         required[bad & ((gov.no_loads & ~given) | unknown_demand)] = np.nan
-        limit_state = np.where(ok, limit_state, "").astype(object)
+        limit_state = np.where(capable, limit_state, "").astype(object)
         combination[bad] = ""
     if skipped is not None:  # not steel: no verdict and no numbers at all
         status[skipped] = SKIPPED
@@ -261,7 +295,7 @@ def check_members(
 
     max_tension = (gov.max_tension if every and not any_given
                    else np.where(ok & ~given, gov.max_tension, 0.0))
-    _advisories(messages, ok, slenderness, given, gov.index)
+    _advisories(messages, ok, capable, slenderness, given, gov.index)
     return CheckResults(
         method=method,
         status=status,
@@ -284,6 +318,7 @@ def check_members(
 def _advisories(
     messages: list[list[str]],
     ok: BoolArray,
+    capable: BoolArray,
     slenderness: FloatArray,
     given: BoolArray,
     gov_index: IntArray,
@@ -293,11 +328,12 @@ def _advisories(
     Args:
         messages: per-member messages; a row that gains a message gets a new list.
         ok: members that were checked.
+        capable: members whose available strength was computed (checked or load-only).
         slenderness: max(Lcx/rx, Lcy/ry).
         given: members whose required strength was given.
         gov_index: governing combination of each member, -1 where none compresses.
     """
-    for i in (ok & (slenderness > SLENDERNESS_ADVISORY)).nonzero()[0].tolist():
+    for i in (capable & (slenderness > SLENDERNESS_ADVISORY)).nonzero()[0].tolist():
         messages[i] = [*messages[i],
                        f"Lc/r = {slenderness[i]:.0f} exceeds {SLENDERNESS_ADVISORY:.0f} "
                        "(AISC 360-22 E2 user note); review the member"]

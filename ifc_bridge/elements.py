@@ -211,8 +211,9 @@ def found_instead(model: ifcopenshell.file, include_members: bool) -> list[str]:
         found.append(f"{len(members)} IfcMember ({parts}{hint})")
     analysis = model.by_type("IfcStructuralCurveMember")
     if analysis:
-        found.append(f"{len(analysis)} IfcStructuralCurveMember (none of them within "
-                     f"{VERTICAL_DEGREES:g} degrees of vertical, so none is read as a column)")
+        found.append(f"{len(analysis)} IfcStructuralCurveMember (analysis members; none has "
+                     f"an edge within {VERTICAL_DEGREES:g} degrees of vertical, so none is "
+                     "read as a column)")
     beams = len(model.by_type("IfcBeam"))
     if beams:
         found.append(f"{beams} IfcBeam")

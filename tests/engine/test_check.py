@@ -83,7 +83,11 @@ def test_each_reason_makes_only_its_member_not_checked(columns: dict, reason: st
     assert r.status.tolist() == [PASS, NOT_CHECKED, PASS]
     assert r.reason.tolist() == [None, reason, None]
     assert reason in _REASONS
-    assert np.isnan(r.available_strength[1]) and np.isnan(r.utilization[1])
+    assert np.isnan(r.utilization[1])
+    if reason == "no loads":  # the capacity is still computed: same member as its neighbours
+        assert r.available_strength[1] == r.available_strength[0]
+    else:
+        assert np.isnan(r.available_strength[1])
     if "finite numbers" in reason and "E and G" not in reason:
         assert np.isnan(r.required_strength[1])  # no partial demand for suggestions
 
@@ -146,3 +150,39 @@ def test_skipped_wins_over_missing_data() -> None:
     assert r.status.tolist() == [SKIPPED, NOT_CHECKED]
     assert r.reason[0] == "not steel: concrete"
     assert r.reason[1] == "no usable section"
+
+
+def _no_loads(n: int) -> np.ndarray:
+    return np.full((n, len(LOAD_TYPES)), np.nan)
+
+
+def test_members_without_loads_get_their_available_strength() -> None:
+    # W14X48, Fy = 50 ksi, Lc = 16 ft: φcPn = 303 kip (AISC Manual Table 4-1a, read-off).
+    # A member with usable capacity inputs and no loads is not checked, but an engineer
+    # without loads yet still learns what it carries (common practice, no source).
+    m = _members(4, loads=_no_loads(4),
+                 reason=[None, "no loads (no analysis results, load table row or "
+                         "Stanchion_Loads)", "no loads (none); no yield strength (none)",
+                         "GlobalId X is used by 2 elements"])
+    r = check_members(m)
+    assert r.status.tolist() == [NOT_CHECKED] * 4
+    assert r.reason[0] == "no loads"
+    assert r.available_strength[:2] == pytest.approx([303.0, 303.0], abs=1.0)
+    assert r.limit_state[0] == r.limit_state[1] != ""
+    # another reason beside the missing loads: nothing is computed
+    assert np.isnan(r.available_strength[2:]).all()
+    assert np.isnan(r.utilization).all() and np.isnan(r.required_strength).all()
+
+
+def test_a_member_without_loads_and_an_implausible_input_gets_no_capacity() -> None:
+    # Fy = 500 ksi is outside the plausibility limits (engine/plausibility.py, 20-120 ksi).
+    r = check_members(_members(1, loads=_no_loads(1), Fy=np.array([500.0])))
+    assert r.reason[0].startswith("implausible yield stress")
+    assert r.reason[0].endswith("; no loads")
+    assert np.isnan(r.available_strength[0])
+
+
+def test_a_skipped_member_without_loads_gets_no_capacity() -> None:
+    r = check_members(_members(2, loads=_no_loads(2), material=["concrete", "steel"]))
+    assert r.status.tolist() == [SKIPPED, NOT_CHECKED]
+    assert np.isnan(r.available_strength[0]) and r.available_strength[1] > 0

@@ -82,7 +82,8 @@ def test_model_without_columns_exits_2_naming_what_it_has(tmp_path, capsys, sche
     assert err == (
         "stanchion: no columns found in model.ifc: the model has no IfcColumn; found "
         "instead: 3 IfcMember (2 BRACE, 1 STRUT; --include-members reads STRUT and POST); "
-        "3 IfcStructuralCurveMember (analysis members, not read without a physical element); "
+        "3 IfcStructuralCurveMember (analysis members; none has an edge within 5 degrees of "
+        "vertical, so none is read as a column); "
         "1 IfcBeam; 1 IfcColumnType without occurrences\n")
     assert not any(p.exists() for p in paths)  # nothing written
 

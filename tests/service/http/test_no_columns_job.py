@@ -28,8 +28,9 @@ def test_model_without_columns_fails_its_job_with_the_message(tmp_path: Path) ->
         # The counts are the test model's own (tests/service/test_no_columns.columnless_model).
         assert job["error"] == (
             "no columns found in portal.ifc: the model has no IfcColumn; found instead: "
-            "2 IfcMember (2 BRACE); 3 IfcStructuralCurveMember (analysis members, not read "
-            "without a physical element); 1 IfcBeam; 1 IfcColumnType without occurrences")
+            "2 IfcMember (2 BRACE); 3 IfcStructuralCurveMember (analysis members; none has an "
+            "edge within 5 degrees of vertical, so none is read as a column); 1 IfcBeam; "
+            "1 IfcColumnType without occurrences")
         assert job["summary"] is None
         for what in ("report", "model", "csv"):
             assert c.get(f"/v1/jobs/{job['job_id']}/{what}").status_code == 409
