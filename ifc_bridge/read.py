@@ -31,6 +31,7 @@ import numpy as np
 
 from stanchion.engine.arrays import AnyArray, FloatArray
 from stanchion.engine.loads import LoadTable
+from stanchion.engine.materials import UNKNOWN
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.access import Entity, get
@@ -442,7 +443,11 @@ def _repeated_global_ids(rows: list[_Row], reasons: list[str | None]) -> list[st
 
 
 def _material_classes(rows: list[_Row]) -> list[str]:
-    """Each row's material class (steel, concrete ...), once per shared material info."""
+    """Each row's material class (steel, concrete ...), once per shared material info.
+
+    An element sharing its GlobalId with another is "unknown" whatever its material: it is
+    not checked for the repeated id (docs/design.md §5), never skipped.
+    """
     known: dict[int, str] = {}
     out = []
     for r in rows:
@@ -450,6 +455,9 @@ def _material_classes(rows: list[_Row]) -> list[str]:
         if key not in known:
             known[key] = element_class(r.material)
         out.append(known[key])
+    if len({r.gid for r in rows}) != len(rows):
+        counts = Counter(r.gid for r in rows)
+        out = [UNKNOWN if counts[r.gid] > 1 else c for r, c in zip(rows, out, strict=True)]
     return out
 
 

@@ -104,3 +104,17 @@ def test_reinforced_concrete_constituents_are_concrete(make_builder, schema):
             b.model, constituent_set=cset, material=_material(b, name))
     _column(b, "C1", cset, via="body")
     assert _statuses(b)["C1"] == (SKIPPED, "not steel: concrete")
+
+
+def test_repeated_global_id_outranks_the_material(builder):
+    # docs/design.md §5: elements sharing a GlobalId are all not checked, whatever else.
+    b = builder
+    first = _column(b, "K1", _material(b, "Concrete"))
+    second = _column(b, "K2", _material(b, "Concrete"))
+    second.GlobalId = first.GlobalId
+    _column(b, "K3", _material(b, "Concrete"))
+    got = _statuses(b)
+    for name in ("K1", "K2"):
+        status, why = got[name]
+        assert status == NOT_CHECKED and why.startswith(f"GlobalId {first.GlobalId} is used by 2")
+    assert got["K3"] == (SKIPPED, "not steel: concrete")
