@@ -307,10 +307,11 @@ class _RowConstants:
             H = H_flexural_constant(sec.xo, sec.yo, ro2)
         groups = []
         for b, t, n, c in ((sec.b1, sec.t1, sec.n1, sec.cls1), (sec.b2, sec.t2, sec.n2, sec.cls2)):
-            with np.errstate(divide="ignore", invalid="ignore"):
+            with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
                 lam = np.where(n > 0, b / t, 0.0)
+                lam2 = lam * lam  # a damaged model's 1e300 dimension: inf, not a warning
             k, c1, c2 = class_coefficients(c)
-            groups.append((lam, lam * lam, k * k, k, c1, c2))
+            groups.append((lam, lam2, k * k, k, c1, c2))
         return cls(sec.kind.astype(np.int8), inv_rx, inv_ry, ro2, H, tuple(groups),
                    sec.kind == Kind.ROUND_HSS)
 

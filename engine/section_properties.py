@@ -59,6 +59,10 @@ _FILLET_INERTIA = (1.0 - 5.0 * np.pi / 16.0) - _FILLET_AREA * _FILLET_CENTROID**
 
 Array = FloatArray
 
+#: Every builder runs under this: a damaged model's 1e300 dimension overflows to inf (then
+#: caught by the plausibility limits, engine.plausibility), not a numpy warning on stderr.
+_OVERFLOW_IS_INF = np.errstate(over="ignore", invalid="ignore")
+
 __all__ = ["WEIGHT_PER_AREA", "channel", "circ_hollow", "dimension_problems", "i_section",
            "rect_hollow", "solid_circle", "solid_rect", "tee"]
 
@@ -202,6 +206,7 @@ def _table(n: int, **cols: ArrayLike) -> SectionTable:
 # ---------------------------------------------------------------- builders
 
 
+@_OVERFLOW_IS_INF
 def i_section(
     d: ArrayLike, bf: ArrayLike, tw: ArrayLike, tf: ArrayLike, r: ArrayLike | None = 0.0,
     label: ArrayLike | None = None,
@@ -240,6 +245,7 @@ def i_section(
     )
 
 
+@_OVERFLOW_IS_INF
 def rect_hollow(
     H: ArrayLike, B: ArrayLike, t: ArrayLike, r_out: ArrayLike | None = None,
     label: ArrayLike | None = None,
@@ -283,6 +289,7 @@ def rect_hollow(
     )
 
 
+@_OVERFLOW_IS_INF
 def circ_hollow(D: ArrayLike, t: ArrayLike, label: ArrayLike | None = None) -> SectionTable:
     """Round hollow section (IfcCircleHollowProfileDef): exact A, I; J = 2I; Cw = 0.
 
@@ -305,6 +312,7 @@ def circ_hollow(D: ArrayLike, t: ArrayLike, label: ArrayLike | None = None) -> S
     )
 
 
+@_OVERFLOW_IS_INF
 def tee(
     d: ArrayLike, bf: ArrayLike, tw: ArrayLike, tf: ArrayLike, r: ArrayLike | None = 0.0,
     label: ArrayLike | None = None,
@@ -345,6 +353,7 @@ def tee(
     )
 
 
+@_OVERFLOW_IS_INF
 def channel(
     d: ArrayLike, bf: ArrayLike, tw: ArrayLike, tf: ArrayLike, r: ArrayLike | None = 0.0,
     label: ArrayLike | None = None,
@@ -389,6 +398,7 @@ def channel(
     )
 
 
+@_OVERFLOW_IS_INF
 def solid_rect(H: ArrayLike, B: ArrayLike, label: ArrayLike | None = None) -> SectionTable:
     """Solid rectangle (IfcRectangleProfileDef): exact A, I; J by the Saint-Venant series.
 
@@ -408,6 +418,7 @@ def solid_rect(H: ArrayLike, B: ArrayLike, label: ArrayLike | None = None) -> Se
     )
 
 
+@_OVERFLOW_IS_INF
 def solid_circle(D: ArrayLike, label: ArrayLike | None = None) -> SectionTable:
     """Solid circle (IfcCircleProfileDef): A = πD²/4, I = πD⁴/64, J = πD⁴/32, Cw = 0.
 

@@ -420,3 +420,19 @@ def test_tee_centroid_ybar_matches_the_database() -> None:
     t = tee(6.92, 6.73, 0.27, 0.385, 0.785 - 0.385)
     assert t.ybar[0] == pytest.approx(1.58, rel=0.02)
     assert t.yo[0] == pytest.approx(t.ybar[0] - 0.385 / 2.0)
+
+
+def test_overflowing_dimension_gives_inf_not_a_warning() -> None:
+    """A damaged model's 1e300 in dimension (issue 13 item 6, fuzz finding).
+
+    Before, numpy printed "RuntimeWarning: overflow encountered" lines on stderr; the member
+    is left to the plausibility limits (depth outside 0.42-120 in: not checked).
+    """
+    from stanchion.engine.compression import compressive_strength
+
+    with warnings.catch_warnings():
+        warnings.simplefilter("error")
+        sec = rect_hollow(H=1e300, B=3.0, t=0.1875)
+        assert not np.isfinite(sec.Ix[0])
+        compressive_strength(sec, np.array([50.0]), np.array([120.0]), np.array([120.0]),
+                             np.array([120.0]))
