@@ -67,13 +67,23 @@ def build_parser() -> argparse.ArgumentParser:
     return p
 
 
+def one_line(text: str) -> str:
+    """``text`` with every unprintable character (line breaks, control bytes) escaped.
+
+    An error quotes what it found -- a file name, the parser's words about a damaged line --
+    and a damaged model's bytes (a vertical tab, a form feed) would otherwise break the one
+    line of exit 2 (issue 13 item 6, found by the fuzz test).
+    """
+    return "".join(c if c.isprintable() else repr(c)[1:-1] for c in text)
+
+
 def main(argv: Sequence[str] | None = None) -> int:
     """Run one verb and return its exit code."""
     args = build_parser().parse_args(argv)
     try:
         return _run(args)
     except InputError as exc:
-        print(f"stanchion: {exc}", file=sys.stderr)
+        print(f"stanchion: {one_line(str(exc))}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("stanchion: interrupted", file=sys.stderr)
