@@ -567,12 +567,8 @@ def _read(model: ifcopenshell.file, include_members: bool,
     for i, r in enumerate(rows):
         cols.add(i, r, res, reader, matched.by_member.get(i, {}) if matched is not None else None)
 
-    if "force" in units.undeclared_used:
-        raise ModelReadError("model declares no force unit but carries forces (analysis "
-                             "results or Stanchion_Loads); units are never guessed: declare "
-                             "its force unit (IfcUnitAssignment) in the authoring program or "
-                             "give it with --force-unit (e.g. --force-unit kN; an HTTP job's "
-                             "force_unit field)")
+    if (refusal := units.refusal()) is not None:
+        raise ModelReadError(refusal)  # an undeclared length, pressure or force unit
     messages.extend(_repeated_global_ids(rows, cols.reasons))
     if matched is not None:
         messages.extend(matched.messages)

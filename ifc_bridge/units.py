@@ -6,14 +6,18 @@ IfcConversionBasedUnit and applies SI prefixes); SI -> internal comes from
 :func:`engine.units.factor` (the units' exact SI definitions).  No conversion factor is
 written down here.
 
-Undeclared units.  IFC measure types are defined in SI base units (IfcLengthMeasure in metre,
-IfcForceMeasure in newton, IfcPressureMeasure in pascal), so a model whose IfcUnitAssignment
-lacks a LENGTHUNIT / FORCEUNIT / PRESSUREUNIT is read in those SI base units -- but never
-silently: the first time a value of such a quantity is used, :meth:`ModelUnits.note_use`
-records a model-level warning naming the assumption (and the reader adds a note to every
-member that used such a value).  Forces are the exception: :func:`ifc_bridge.read.read_columns`
-refuses a model that declares no force unit once a force was read
-(:attr:`ModelUnits.undeclared_used`; issue 13: units are never guessed).
+Undeclared units.  The IFC standard leaves the unit of a measure to the project's unit
+assignment ("Units globally assigned to measure types used within the context",
+IfcContext.UnitsInContext, optional since IFC4; the IfcMeasureResource schema: the global
+unit assignment "defines the unit for all the usages of this defined measure type") and
+defines no unit to fall back on when a unit type is missing from it -- its table of measures
+names each measure's SI unit, not a default.  So a value read in a project unit the model
+does not declare would be a guess: :meth:`ModelUnits.note_use` records the quantity
+(:attr:`ModelUnits.undeclared_used`) and :meth:`ModelUnits.refusal` gives the one line
+refusing the model (:func:`ifc_bridge.read.read_columns` raises it; issue 13: units are
+never guessed).  A length is always used (every member has one); a pressure only when a
+yield stress is read from a property without its own ``Unit``; a force when the model
+carries forces.
 
 A force unit given apart.  A model that declares no force unit may be read with one given on
 the command line (``--force-unit``, an HTTP job's ``force_unit``): :class:`GivenUnit`.  Its
@@ -42,7 +46,8 @@ QUANTITIES: dict[str, tuple[str, str, str]] = {
     "pressure": ("PRESSUREUNIT", "pascal", "ksi"),
 }
 
-#: What an undeclared unit is read as (the SI base unit of the IFC measure type).
+#: The SI unit of each measure type (IfcMeasureResource, Table 1), named for an undeclared
+#: unit; a model using one is refused (:meth:`ModelUnits.refusal`), never read in it.
 ASSUMED_SI = {"length": "metre", "force": "newton", "pressure": "pascal"}
 
 
@@ -121,7 +126,8 @@ class ModelUnits:
         """Record that a value of ``quantity`` was read in the project unit.
 
         Returns:
-            A per-member note when the unit is undeclared (None otherwise); the model-level
+            A per-member note when the unit is undeclared or given apart (None otherwise);
+            an undeclared one is recorded for :meth:`refusal`, a given one's model-level
             warning is appended to :attr:`warnings` the first time only.
         """
         if self.declared[quantity]:
@@ -134,13 +140,30 @@ class ModelUnits:
                     f"model declares no {quantity} unit; its {quantity}s are read in {unit}, "
                     "the unit given on the command line (--force-unit)")
             return f"{quantity} read in {unit}, given on the command line (--force-unit)"
-        if quantity not in self._warned:
-            self._warned.add(quantity)
-            self.warnings.append(
-                f"model declares no {quantity} unit; {quantity} values read as "
-                f"{ASSUMED_SI[quantity]} (SI base unit of the IFC measure type) -- check them"
-            )
-        return f"{quantity} read in an undeclared unit, assumed {ASSUMED_SI[quantity]}"
+        self._warned.add(quantity)  # refused: see refusal()
+        return f"{quantity} read in an undeclared unit"
+
+    def refusal(self) -> str | None:
+        """The one line refusing a model that used a unit it does not declare (or None).
+
+        The first such quantity is named, length before pressure before force, with what
+        the model must declare (and for forces ``--force-unit``, the one unit given apart).
+        """
+        if "length" in self._warned:
+            return ("model declares no length unit (no LENGTHUNIT in the project's "
+                    "IfcUnitAssignment) and IFC defines no default; units are never "
+                    "guessed: the model must declare its length unit")
+        if "pressure" in self._warned:
+            return ("model declares no pressure unit (no PRESSUREUNIT in the project's "
+                    "IfcUnitAssignment) but gives a yield stress as a pressure without a "
+                    "unit of its own, and IFC defines no default; units are never guessed: "
+                    "the model must declare its pressure unit (or give the property a Unit)")
+        if "force" in self._warned:
+            return ("model declares no force unit but carries forces (analysis results or "
+                    "Stanchion_Loads); units are never guessed: declare its force unit "
+                    "(IfcUnitAssignment) in the authoring program or give it with "
+                    "--force-unit (e.g. --force-unit kN; an HTTP job's force_unit field)")
+        return None
 
     def value_factor(
         self, quantity: str, unit: Entity | None
@@ -187,7 +210,7 @@ def read_units(model: ifcopenshell.file, force: GivenUnit | None = None) -> Mode
         to_internal = factor(si_name, internal)
         if unit is None:
             factors[quantity] = to_internal
-            names[quantity] = f"{ASSUMED_SI[quantity]} (assumed)"
+            names[quantity] = f"{ASSUMED_SI[quantity]} (not declared)"
             declared[quantity] = False
             continue
         if quantity == "length":

@@ -47,6 +47,7 @@ UNIT_SYSTEMS: dict[str, tuple] = {
     "in_kip": (("conv", "inch", "inch"), ("conv", "kip", "kip"), ("conv", "ksi", "ksi")),
     "ft_kip": (("conv", "foot", "foot"), ("conv", "kip", "kip"), ("conv", "ksi", "ksi")),
     "mm_only": (("si", "MILLI", "millimeter"), None, None),
+    "mm_MPa": (("si", "MILLI", "millimeter"), None, ("si", "MEGA", "megapascal")),
     "none": (None, None, None),
 }
 

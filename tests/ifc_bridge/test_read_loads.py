@@ -215,7 +215,7 @@ def test_table_without_units_for_a_model_without_a_force_unit_is_refused(
         make_builder, schema, tmp_path):
     # issue 13 item 3: such a table was read in newtons (D = 100 meaning kN gave PASS at
     # utilization 0.0001); units are never guessed, the fix is named.
-    b = make_builder("mm_only", schema)
+    b = make_builder("mm_MPa", schema)
     _col(b, "C1")
     table = _table(tmp_path, "element,D,L [kN]\nC1,100,50\n")
     with pytest.raises(ModelReadError, match=r"column\(s\) D name no unit and the model "
@@ -224,7 +224,7 @@ def test_table_without_units_for_a_model_without_a_force_unit_is_refused(
 
 
 def test_a_force_unit_given_apart_reads_a_table_without_units(make_builder, schema, tmp_path):
-    b = make_builder("mm_only", schema)
+    b = make_builder("mm_MPa", schema)
     _col(b, "C1")
     path = tmp_path / "loads.csv"
     path.write_text("element,D,L [kip]\nC1,4.4482216152605,2\n")
@@ -361,7 +361,7 @@ def _with_pset(b):
 def test_forces_in_a_model_without_a_force_unit_are_refused(make_builder, schema, add_forces):
     # issue 13 item 3: with the force unit removed from the sample, its forces were read in
     # newtons and every column passed at utilization <= 0.002; units are never guessed.
-    b = make_builder("mm_only", schema)
+    b = make_builder("mm_MPa", schema)
     add_forces(b)
     with pytest.raises(ModelReadError, match=r"^model declares no force unit but carries "
                        r"forces .*units are never guessed"):
@@ -370,7 +370,7 @@ def test_forces_in_a_model_without_a_force_unit_are_refused(make_builder, schema
 
 def test_a_model_without_a_force_unit_and_without_forces_is_read(make_builder, schema):
     # 14 of 17 real models declare no force unit and carry no forces (issue 13): still read.
-    b = make_builder("mm_only", schema)
+    b = make_builder("mm_MPa", schema)
     _col(b)
     result = read_columns(b.model)
     assert len(result.members) == 1 and "no loads" in result.members.reason[0]

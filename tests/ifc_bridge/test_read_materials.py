@@ -118,17 +118,6 @@ def test_material_on_the_type(builder):
     assert _read(builder).Fy[0] == pytest.approx(50.0)  # ASTM A992
 
 
-def test_undeclared_pressure_unit_is_warned(make_builder, schema):
-    b = make_builder("mm_only", schema)
-    # no loads: a model without a force unit carrying forces is refused (test_read_loads)
-    b.column("C1", profile=b.profile("I", "W14X48", **W14X48),
-             material=b.material("Steel", fy=50.0))
-    result = read_columns(b.model)
-    assert result.members.Fy[0] == pytest.approx(50.0)  # builder stored pascals
-    assert any(s.startswith("model declares no pressure unit") for s in result.messages)
-    assert any("pressure read in an undeclared unit" in s for s in result.members.messages[0])
-
-
 def test_en_band_of_a_flat_bar_is_read_at_its_thickness(builder):
     # A 2 in x 8 in flat (50.8 x 203.2 mm) of S355: its nominal thickness is 50.8 mm, band
     # 40 < t <= 80 mm, fy = 335 MPa (EN 1993-1-1:2005 Table 3.1); read at its 203 mm width it

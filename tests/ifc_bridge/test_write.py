@@ -148,7 +148,7 @@ def test_messages_become_notes(builder) -> None:
 
 
 def test_force_unit_added_once_when_the_model_declares_none(make_builder) -> None:
-    b = make_builder("mm_only")
+    b = make_builder("mm_MPa")
     model = b.model
     assert ifcopenshell.util.unit.get_project_unit(model, "FORCEUNIT") is None
     cols = _columns(b)

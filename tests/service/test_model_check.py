@@ -197,7 +197,7 @@ def test_zipped_output(tmp_path) -> None:
 def test_force_unit_is_added_when_the_model_has_none(tmp_path) -> None:
     # loads from a table with units: a model without a force unit carrying forces of its own
     # is refused (tests/ifc_bridge/test_read_loads.py)
-    src = write_model(tmp_path / "model.ifc", units="mm_only", loads={"C1": None})
+    src = write_model(tmp_path / "model.ifc", units="mm_MPa", loads={"C1": None})
     (tmp_path / "loads.csv").write_text("element,D [kip]\nC1,95\n")
     out = tmp_path / "checked.ifc"
     report = check_model(src, out_model=out, loads_table=tmp_path / "loads.csv")

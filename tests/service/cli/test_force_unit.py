@@ -19,7 +19,7 @@ NO_LOADS = {"C1": None, "C2": None}
 
 
 def _files(tmp_path, header: str = "element,D"):
-    model = write_model(tmp_path / "model.ifc", units="mm_only", loads=NO_LOADS)
+    model = write_model(tmp_path / "model.ifc", units="mm_MPa", loads=NO_LOADS)
     table = tmp_path / "loads.csv"
     table.write_text(f"{header}\nC1,100\nC2,100\n")
     return model, table
@@ -66,7 +66,7 @@ def test_a_members_file_refuses_force_unit(tmp_path, capsys) -> None:
 def test_a_model_with_forces_and_no_force_unit_is_refused(tmp_path, capsys) -> None:
     # issue 13 item 3: its Stanchion_Loads were read in newtons (every column passed at
     # utilization <= 0.002); now exit 2, one line, nothing written.
-    model = write_model(tmp_path / "model.ifc", units="mm_only")
+    model = write_model(tmp_path / "model.ifc", units="mm_MPa")
     report = tmp_path / "r.json"
     assert main(["check", str(model), "--report", str(report)]) == 2
     err = capsys.readouterr().err.strip()
@@ -86,7 +86,7 @@ def test_a_model_without_a_force_unit_is_read_in_the_given_unit(tmp_path, capsys
     import ifcopenshell.util.element
     import ifcopenshell.util.unit
 
-    model = write_model(tmp_path / "model.ifc", units="mm_only",
+    model = write_model(tmp_path / "model.ifc", units="mm_MPa",
                         loads={"C1": {"D": 100 / N_PER_KIP}, "C2": {"D": 100 / N_PER_KIP}})
     report, csv, out = tmp_path / "r.json", tmp_path / "r.csv", tmp_path / "checked.ifc"
     assert main(["check", str(model), "--force-unit", "kN", "--report", str(report),
@@ -121,7 +121,7 @@ def test_a_given_unit_beyond_n_kn_mn_is_added_as_a_conversion_unit(tmp_path) -> 
     import ifcopenshell
     import ifcopenshell.util.unit
 
-    model = write_model(tmp_path / "model.ifc", units="mm_only",
+    model = write_model(tmp_path / "model.ifc", units="mm_MPa",
                         loads={"C1": {"D": 100 / N_PER_KIP}, "C2": None})
     out = tmp_path / "checked.ifc"
     assert main(["check", str(model), "--force-unit", "kip", "--out", str(out),

@@ -23,7 +23,7 @@ from tests.service.test_model_check_files import write_model
 @pytest.fixture
 def model(tmp_path: Path) -> bytes:
     # Stanchion_Loads D = 100 (meaning kN) in a millimetre model without a force unit
-    path = write_model(tmp_path / "model.ifc", units="mm_only",
+    path = write_model(tmp_path / "model.ifc", units="mm_MPa",
                        loads={"C1": {"D": 100 / N_PER_KIP}, "C2": {"D": 100 / N_PER_KIP}})
     return path.read_bytes()
 
