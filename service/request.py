@@ -7,9 +7,10 @@ from typing import Annotated, Literal, get_args
 
 from pydantic import BaseModel, ConfigDict, Field, Strict, field_validator, model_validator
 
+from stanchion.engine import plausibility as limits
 from stanchion.engine.catalog import normalize_designation
 from stanchion.engine.members import LOAD_TYPES
-from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS
+from stanchion.engine.units import FORCE_UNITS, LENGTH_UNITS, STRESS_UNITS, factor
 
 #: The unit names a request and its report may use (the engine's unit tables, spelled out so
 #: that the type checker and the JSON Schema see them alike).
@@ -31,6 +32,35 @@ Count = Annotated[int, Strict()]
 #: depth of one), small enough that one request cannot make suggestions cost seconds of
 #: server time (100,000 entries took 14 s, issue 13).
 MAX_CANDIDATES = 200
+
+
+def _in_smallest(internal_max: float, internal: str, smallest: str) -> float:
+    """A plausibility maximum (engine units) in the request's smallest unit of its kind."""
+    return internal_max * factor(internal, smallest)
+
+
+#: Upper bounds of the request's numbers (docs/design.md §2).  A request's unit is chosen by
+#: the request, so a schema bound must hold in every unit: each is the largest value the
+#: engine's plausibility limits (:mod:`stanchion.engine.plausibility`, the one source) allow,
+#: written in the unit that gives the largest number (Pa, mm, N).  A larger number is
+#: implausible in every unit and refused whole (HTTP 422, exit 2, naming the field); a
+#: smaller one may still be implausible in the request's unit and is then reported not
+#: checked ("implausible ...: check the units").
+MAX_STRESS_FY = _in_smallest(limits.FY_MAX, "ksi", "pascal")  # 120 ksi = 827.4 MPa
+MAX_STRESS_E = _in_smallest(limits.E_MAX, "ksi", "pascal")  # 34,800 ksi = 239.9 GPa
+MAX_LENGTH = _in_smallest(limits.LENGTH_MAX, "inch", "millimeter")  # 200 ft = 60,960 mm
+MAX_DIMENSION = _in_smallest(limits.DEPTH_MAX, "inch", "millimeter")  # 120 in = 3,048 mm
+MAX_FORCE = _in_smallest(limits.LOAD_MAX, "kip", "newton")  # 100,000 kip = 444.8 MN
+#: Bounds the plausibility limits do not cover (our choice, common practice, no source):
+#: an effective length factor (AISC 360-22 Commentary Table C-A-7.1 recommends up to 2.1;
+#: sway frames can need more; beyond 20 the member is no column), a load factor of a custom
+#: combination (ASCE 7-22 §2.3 factors are 0.9 to 1.6), the utilization suggestions must
+#: meet, and the nominal depths of ``selection`` (inches, the catalog's deepest shape is
+#: 44 in; :data:`engine.plausibility.DEPTH_MAX`).
+MAX_K = 20.0
+MAX_FACTOR = 10.0
+MAX_UTILIZATION = 10.0
+MAX_NOMINAL_DEPTH = limits.DEPTH_MAX
 ProfileShape = Literal["I", "RECT_HOLLOW", "CIRC_HOLLOW", "T", "U", "RECT", "CIRCLE"]
 
 
@@ -49,7 +79,7 @@ class Units(_Strict):
 
 LoadType = Literal[LOAD_TYPES]  # type: ignore[valid-type]
 #: Axial service load effects by type (a plain mapping: validated faster than a model).
-Loads = dict[LoadType, Number | None]
+Loads = dict[LoadType, Annotated[Number, Field(ge=-MAX_FORCE, le=MAX_FORCE)] | None]
 
 
 class Profile(_Strict):
@@ -67,15 +97,15 @@ class Profile(_Strict):
 
     shape: ProfileShape
     unit: LengthUnit | None = None
-    d: Number | None = Field(None, gt=0)
-    bf: Number | None = Field(None, gt=0)
-    tw: Number | None = Field(None, gt=0)
-    tf: Number | None = Field(None, gt=0)
-    r: Number | None = Field(None, ge=0)
-    h: Number | None = Field(None, gt=0)
-    b: Number | None = Field(None, gt=0)
-    t: Number | None = Field(None, gt=0)
-    D: Number | None = Field(None, gt=0)
+    d: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    bf: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    tw: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    tf: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    r: Number | None = Field(None, ge=0, le=MAX_DIMENSION)
+    h: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    b: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    t: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
+    D: Number | None = Field(None, gt=0, le=MAX_DIMENSION)
 
     @model_validator(mode="after")
     def _has_dimensions(self) -> Profile:
@@ -103,24 +133,26 @@ class Member(_Strict):
         "(AISC 360-22 §B4.2; without it, 0.93 t with a message) and, when fy is absent, "
         "gives the specified minimum yield stress (stated in the member's messages)")
     fy: Number | None = Field(
-        None, description="yield stress, stress unit; absent: from grade (if it names one)")
-    length: Number | None = None
-    kx: Number = 1.0
-    ky: Number = 1.0
-    kz: Number = 1.0
-    lx: Number | None = None
-    ly: Number | None = None
-    lz: Number | None = None
+        None, le=MAX_STRESS_FY,
+        description="yield stress, stress unit; absent: from grade (if it names one)")
+    length: Number | None = Field(None, le=MAX_LENGTH)
+    kx: Number = Field(1.0, le=MAX_K)
+    ky: Number = Field(1.0, le=MAX_K)
+    kz: Number = Field(1.0, le=MAX_K)
+    lx: Number | None = Field(None, le=MAX_LENGTH)
+    ly: Number | None = Field(None, le=MAX_LENGTH)
+    lz: Number | None = Field(None, le=MAX_LENGTH)
     loads: Loads | None = Field(
         None, description="axial service load effects by type (D, L, Lr, S, R, W, E), force "
         "unit, compression positive; W and E are reversible; absent or null: none")
-    required_strength: Number | None = None
+    required_strength: Number | None = Field(None, ge=-MAX_FORCE, le=MAX_FORCE)
     candidates: list[str] | None = Field(
         None, max_length=MAX_CANDIDATES,
         description=f"families (W12, HSS) or designations to suggest sections from; at most "
         f"{MAX_CANDIDATES}, repeats (as designations compare: case and spaces ignored) dropped")
     max_utilization: Number | None = Field(
-        None, gt=0, description="reserve margin for suggestions (default 1.0)")
+        None, gt=0, le=MAX_UTILIZATION,
+        description="reserve margin for suggestions (default 1.0)")
 
     @field_validator("candidates")
     @classmethod
@@ -139,7 +171,7 @@ class CombinationSpec(_Strict):
     """A custom load combination: factors by load type."""
 
     name: str = Field(min_length=1)
-    factors: dict[str, Number]
+    factors: dict[str, Annotated[Number, Field(ge=-MAX_FACTOR, le=MAX_FACTOR)]]
 
     @field_validator("factors")
     @classmethod
@@ -157,8 +189,10 @@ class CombinationSpec(_Strict):
 class SelectionOptions(_Strict):
     """Limits for section suggestions (members that carry ``candidates``)."""
 
-    min_depth: Number | None = Field(None, ge=0, description="smallest nominal depth, in")
-    max_depth: Number | None = Field(None, gt=0, description="largest nominal depth, in")
+    min_depth: Number | None = Field(None, ge=0, le=MAX_NOMINAL_DEPTH,
+                                     description="smallest nominal depth, in")
+    max_depth: Number | None = Field(None, gt=0, le=MAX_NOMINAL_DEPTH,
+                                     description="largest nominal depth, in")
     max_suggestions: Count = Field(5, ge=1, le=100)
 
 
@@ -176,8 +210,10 @@ class MembersRequest(_Strict):
     )
     detail: bool = Field(False, description="add every combination's value to each member")
     selection: SelectionOptions = Field(default_factory=SelectionOptions)
-    E: Number | None = Field(None, gt=0, description="modulus of elasticity, stress unit")
-    G: Number | None = Field(None, gt=0, description="shear modulus, stress unit")
+    E: Number | None = Field(None, gt=0, le=MAX_STRESS_E,
+                             description="modulus of elasticity, stress unit")
+    G: Number | None = Field(None, gt=0, le=MAX_STRESS_E,
+                             description="shear modulus, stress unit (G < E)")
 
     @field_validator("design_method", mode="before")
     @classmethod

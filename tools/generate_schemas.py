@@ -4,7 +4,10 @@
     .venv/bin/python tools/generate_schemas.py --check   # exit 1 when a shipped file differs
 
 ``service/schemas/report.schema.json`` is :class:`stanchion.service.report_model.Report`'s
-validation schema, with a ``$schema`` (JSON Schema draft 2020-12) and an ``$id`` in front.
+validation schema and ``service/schemas/members-request.schema.json``
+:class:`stanchion.service.request.MembersRequest`'s (the members file and ``POST /v1/checks``
+body, with every number's bounds, docs/design.md §2), each with a ``$schema`` (JSON Schema
+draft 2020-12) and an ``$id`` in front.
 The output is deterministic (keys sorted, two-space indents, ASCII, one final newline), so a
 test can compare the shipped file with :func:`render` byte for byte.
 """
@@ -21,6 +24,7 @@ from typing import Any
 from pydantic import BaseModel
 
 from stanchion.service.report_model import Report
+from stanchion.service.request import MembersRequest
 
 ROOT = Path(__file__).resolve().parents[1]
 SCHEMAS_DIR = ROOT / "service" / "schemas"
@@ -29,6 +33,7 @@ DRAFT = "https://json-schema.org/draft/2020-12/schema"
 #: Shipped schema files: file name -> (model, $id).
 SCHEMAS: dict[str, tuple[type[BaseModel], str]] = {
     "report.schema.json": (Report, "stanchion/report.schema.json"),
+    "members-request.schema.json": (MembersRequest, "stanchion/members-request.schema.json"),
 }
 
 
