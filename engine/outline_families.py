@@ -36,6 +36,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 
 from shapely import affinity
+from shapely.errors import GEOSException
 from shapely.geometry import LineString, Point, Polygon, box
 
 #: Symmetric difference between an outline and its mirror image, as a fraction of its area,
@@ -237,6 +238,8 @@ def _fit_channel(p: Polygon) -> Fit | None:
     a, b = d / 2.0 - t_root, d / 2.0 - t_toe
     sharp = Polygon([(x1, b), (x1, d / 2), (x0, d / 2), (x0, -d / 2), (x1, -d / 2), (x1, -b),
                      (x0 + tw, -a), (x0 + tw, a)])
+    if not sharp.is_valid:
+        return None
     r = _fillet_radius(p.area, sharp, 2)
     dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
     fit = Fit("U", p, dims, _misfit(p, _closing(sharp, r)))
@@ -265,6 +268,8 @@ def _fit_tee(p: Polygon) -> Fit | None:
         return None
     sharp = Polygon([(x1, y1 - t_toe), (x1, y1), (x0, y1), (x0, y1 - t_toe),
                      (-tw / 2, y1 - t_root), (-tw / 2, y0), (tw / 2, y0), (tw / 2, y1 - t_root)])
+    if not sharp.is_valid:
+        return None
     r = _fillet_radius(p.area, sharp, 2)
     dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
     fit = Fit("T", p, dims, _misfit(p, _closing(sharp, r)))
@@ -352,8 +357,16 @@ def _fit_rect(p: Polygon) -> Fit | None:
 
 
 def _first(candidates: list[tuple[Polygon, Callable[[Polygon], Fit | None]]]) -> Fit | None:
+    """The first candidate orientation its family fits.
+
+    A template GEOS cannot handle is no fit: the dimensions measured in a wrong orientation
+    can make a degenerate shape.
+    """
     for polygon, fitter in candidates:
-        fit = fitter(polygon)
+        try:
+            fit = fitter(polygon)
+        except GEOSException:
+            fit = None
         if fit is not None:
             return fit
     return None
@@ -389,6 +402,14 @@ def recognise(polygon: Polygon) -> Fit | str:
     """
     if len(polygon.interiors) > 1:
         return f"{NO_FAMILY} (it has {len(polygon.interiors)} voids)"
+    try:
+        fit = _recognise(polygon)
+    except GEOSException as error:  # never a traceback for an odd outline
+        return f"{NO_FAMILY} (geometry error: {error})"
+    return fit if fit is not None else NO_FAMILY
+
+
+def _recognise(polygon: Polygon) -> Fit | None:
     round_fit = _fit_round(_centred(polygon))
     if round_fit is not None:
         return round_fit
@@ -397,4 +418,4 @@ def recognise(polygon: Polygon) -> Fit | str:
         fit = _fit_rect(_tall(p))
     else:
         fit = _open_family(p, _symmetric(p, "x"), _symmetric(p, "y"))
-    return fit if fit is not None else NO_FAMILY
+    return fit

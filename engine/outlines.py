@@ -32,6 +32,7 @@ from collections.abc import Sequence
 from dataclasses import dataclass, field, replace
 
 import numpy as np
+import shapely
 from numpy.typing import ArrayLike
 from shapely.geometry import Polygon
 from shapely.geometry.polygon import orient
@@ -204,6 +205,9 @@ def polygon_of(outline: Outline) -> Polygon | str:
             return problem
         voids.append(ring)
     polygon = Polygon(outer, voids)
+    # points closer than 1e-7 of the extent (exporters' duplicates) would only spoil the mesh
+    x0, y0, x1, y1 = polygon.bounds
+    polygon = shapely.remove_repeated_points(polygon, 1e-7 * max(x1 - x0, y1 - y0))
     if not polygon.is_valid:
         return f"outline is not a valid area: {explain_validity(polygon)}"
     if not polygon.area > 0:
@@ -368,7 +372,12 @@ def _compute(outline: Outline, standard: str | None) -> OutlineSection:
             f"outline is an {_describe(fit)}; angles (L, 2L) are outside the scope of these "
             "checks"))
     fit, notes = _design_wall(fit, standard)
-    a = analyse(fit.polygon)
+    try:
+        a = analyse(fit.polygon)
+    except Exception as error:  # any failure of the library is a reason, never a traceback
+        return OutlineSection(None, fit.family, fit.dims, reason=(
+            f"section properties of the {_NAMES[fit.family]} outline could not be computed "
+            f"(sectionproperties: {type(error).__name__}: {error})"))
     notes.insert(0, f"section properties from the profile outline, recognised as a "
                     f"{_describe(fit)} (sectionproperties, {a.elements} elements)")
     return OutlineSection(section_row(fit, a, ""), fit.family, fit.dims, notes=tuple(notes),

@@ -422,3 +422,84 @@ def test_recognise_fits_a_built_I_closely():
     fit = recognise(Polygon(i_points(10, 8, 0.3, 0.5, 0.4)))
     assert not isinstance(fit, str) and fit.family == "I"
     assert fit.misfit < 0.005
+
+
+def test_a_failing_analysis_is_a_reason(monkeypatch):
+    ol.cache_clear()
+
+    def broken(polygon):
+        raise RuntimeError("triangle failed")
+
+    monkeypatch.setattr(ol, "analyse", broken)
+    result = ol.outline_section(ol.Outline.of(i_points(10, 8, 0.3, 0.5, 0.4)))
+    ol.cache_clear()
+    assert result.table is None and result.family == "I"
+    assert result.reason == ("section properties of the I-shape outline could not be computed "
+                             "(sectionproperties: RuntimeError: triangle failed)")
+
+
+def test_coarse_fillets_and_repeated_points_as_exporters_write_them():
+    # fillets of two chords each, and every point written twice
+    pts = i_points(12, 10, 0.4, 0.6, 0.5)
+    coarse = rounded([(5, -6), (5, -5.4), (0.2, -5.4), (0.2, 5.4), (5, 5.4), (5, 6), (-5, 6),
+                      (-5, 5.4), (-0.2, 5.4), (-0.2, -5.4), (-5, -5.4), (-5, -6)],
+                     [0, 0, 0.5, 0.5, 0, 0, 0, 0, 0.5, 0.5, 0, 0], n=2)
+    doubled = [p for p in coarse for _ in range(2)]
+    fine, rough = (recognise(Polygon(p)) for p in (pts, doubled))
+    assert not isinstance(rough, str) and rough.family == "I"
+    assert not isinstance(fine, str)
+    for key in ("d", "bf", "tw", "tf"):
+        close(rough.dims[key], fine.dims[key], 1e-6)
+    # two chords leave the spandrel r² - r² sin 45° = 0.2929 r² instead of (1 - π/4) r² =
+    # 0.2146 r², so the radius from the area is 0.5 sqrt(0.2929 / 0.2146) = 0.584 (hand)
+    close(rough.dims["r"], 0.5 * math.sqrt((1 - math.sin(math.pi / 4)) / (1 - math.pi / 4)),
+          1e-3)
+
+
+# ---------------------------------------------------------------- any size, any placement
+
+from hypothesis import given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+placements = st.tuples(st.floats(-180, 180), st.floats(-1e3, 1e3), st.floats(-1e3, 1e3),
+                       st.booleans())
+
+
+@settings(max_examples=40, deadline=None)
+@given(d=st.floats(4, 40), width=st.floats(0.3, 1.2), web=st.floats(0.02, 0.08),
+       flange=st.floats(0.03, 0.1), fillet=st.floats(0.0, 1.5), place=placements)
+def test_any_I_is_found_with_its_dimensions(d, width, web, flange, fillet, place):
+    # a rolled-I-like outline: bf = width·d, tw = web·d, tf = flange·d, r = fillet·tw
+    bf, tw, tf = width * d, web * d, flange * d
+    r = min(fillet * tw, 0.4 * (bf - tw) / 2)
+    fit = recognise(Polygon(moved(i_points(d, bf, tw, tf, r), *place)))
+    assert not isinstance(fit, str) and fit.family == "I", fit
+    for key, value in (("d", d), ("bf", bf), ("tw", tw), ("tf", tf)):
+        close(fit.dims[key], value, 0.005)
+
+
+@settings(max_examples=30, deadline=None)
+@given(d=st.floats(4, 30), width=st.floats(0.2, 0.5), web=st.floats(0.03, 0.08),
+       flange=st.floats(0.04, 0.09), place=placements)
+def test_any_channel_and_tee_are_found(d, width, web, flange, place):
+    # root radius up to 0.4 of the outstand: tf is read at mid-outstand, beyond the fillet
+    bf, tw, tf = width * d, web * d, flange * d
+    r = min(tw, 0.4 * (bf - tw))
+    u = recognise(Polygon(moved(channel_points(d, bf, tw, tf, r), *place)))
+    t = recognise(Polygon(moved(tee_points(d / 2, 2 * bf, tw, tf, r), *place)))
+    assert not isinstance(u, str) and u.family == "U", u
+    assert not isinstance(t, str) and t.family == "T", t
+    close(u.dims["tf"], tf, 0.005)
+    close(t.dims["tw"], tw, 0.005)
+
+
+@settings(max_examples=30, deadline=None)
+@given(H=st.floats(2, 30), aspect=st.floats(0.3, 1.0), wall=st.floats(0.03, 0.15),
+       place=placements)
+def test_any_rectangular_tube_is_found(H, aspect, wall, place):
+    B, t = aspect * H, wall * aspect * H
+    outer, inner = box_points(H, B, 2 * t), box_points(H - 2 * t, B - 2 * t, t)
+    fit = recognise(Polygon(moved(outer, *place), [moved(inner, *place)]))
+    assert not isinstance(fit, str) and fit.family == "HSS", fit
+    close(fit.dims["t"], t, 0.005)
+    close(fit.dims["H"], H, 0.005)
