@@ -15,11 +15,12 @@ import math
 
 import ifcopenshell.api.profile
 import ifcopenshell.api.unit
+import numpy as np
 import pytest
 from shapely.geometry import Polygon
 
 from stanchion.engine.outlines import outline_section
-from stanchion.ifc_bridge.outlines import outline_of
+from stanchion.ifc_bridge.outlines import CHORD_TOL, outline_of
 
 SPANDREL = 1 - math.pi / 4  # area of a fillet of radius 1 in a square corner
 #: Polygon area vs the exact area: the chords of the arcs (CHORD_TOL) and float rounding.
@@ -200,6 +201,19 @@ def test_round_tube_from_whole_circles(builder):
     # inscribed 100-gons: 0.066 % low (1 - sin(2π/100)/(2π/100))
     assert area(outline) == pytest.approx(math.pi / 4 * (193.7**2 - 177.7**2), rel=1e-3)
     assert outline_section(outline.scaled(1 / 25.4), "CHS").family == "HSS_ROUND"
+
+
+def test_arcs_keep_the_chord_tolerance(builder):
+    # every chord of a discretised circle of radius 50 lies within CHORD_TOL x 50 of the arc:
+    # its midpoint is at R cos(Δ/2) from the centre, the sagitta R (1 - cos(Δ/2))
+    m = builder.model
+    outline, _ = outline_of(m, arbitrary(m, circle(m, 10, 20, 50.0)))
+    pts = outline.outer
+    mids = (pts + np.roll(pts, -1, axis=0)) / 2 - (10, 20)
+    sagitta = 50.0 - np.hypot(mids[:, 0], mids[:, 1])
+    assert sagitta.max() <= CHORD_TOL * 50.0
+    assert sagitta.max() > 0.8 * CHORD_TOL * 50.0  # not needlessly fine
+    assert np.allclose(np.hypot(pts[:, 0] - 10, pts[:, 1] - 20), 50.0)
 
 
 def indexed_hea(m, d, bf, tw, tf, r):
