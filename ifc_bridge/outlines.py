@@ -42,7 +42,7 @@ import numpy as np
 
 from stanchion.engine.arrays import FloatArray
 from stanchion.engine.outlines import Outline
-from stanchion.ifc_bridge.access import Entity
+from stanchion.ifc_bridge.access import Entity, get, get_opt
 
 #: Largest sagitta of a chord, as a fraction of the arc's radius (see the module notes).
 CHORD_TOL = 5e-4
@@ -71,32 +71,41 @@ def plane_angle_scale(model: ifcopenshell.file) -> float:
     return float(ifcopenshell.util.unit.calculate_unit_scale(model, "PLANEANGLEUNIT"))
 
 
-def outline_of(model: ifcopenshell.file, profile: Entity) -> tuple[Outline | None, str | None]:
+def outline_of(model: ifcopenshell.file, profile: Entity, angle_scale: float | None = None
+               ) -> tuple[Outline | None, str | None]:
     """Outer boundary and voids of an arbitrary profile, in the model's length unit.
+
+    The caller converts to inches with :meth:`Outline.scaled` (the model's length factor,
+    times a mapped representation's scale where there is one).
 
     Args:
         model: the IFC model (for its plane-angle unit).
         profile: an IfcProfileDef.
+        angle_scale: :func:`plane_angle_scale` of the model, when the caller has it (it costs
+            about 0.1 ms to find; a reader of many profiles finds it once).
 
     Returns:
         (the outline, None), or (None, the reason the profile has no readable outline).
     """
+    angle = plane_angle_scale(model) if angle_scale is None else angle_scale
     try:
-        return _profile_outline(profile, plane_angle_scale(model)), None
+        return _profile_outline(profile, angle), None
     except OutlineError as problem:
         return None, str(problem)
 
 
 def _profile_outline(profile: Entity, angle: float) -> Outline:
     if profile.is_a("IfcDerivedProfileDef"):
-        return _derived(_profile_outline(profile.ParentProfile, angle), profile.Operator)
+        return _derived(_profile_outline(get(profile, "ParentProfile"), angle),
+                        get(profile, "Operator"))
     if not profile.is_a("IfcArbitraryClosedProfileDef"):
         raise OutlineError(f"profile type {profile.is_a()} has no outline to read")
-    if profile.ProfileType != "AREA":
-        raise OutlineError(f"profile {profile.is_a()} is a {profile.ProfileType} profile, "
+    kind = get(profile, "ProfileType")
+    if kind != "AREA":
+        raise OutlineError(f"profile {profile.is_a()} is a {kind} profile, "
                            "not an area")
-    outer = ring_points(profile.OuterCurve, angle)
-    inner = getattr(profile, "InnerCurves", None) or ()
+    outer = ring_points(get(profile, "OuterCurve"), angle)
+    inner = get_opt(profile, "InnerCurves") or ()
     return Outline(outer, tuple(ring_points(c, angle) for c in inner))
 
 
@@ -166,13 +175,13 @@ def curve_points(curve: Entity, angle: float) -> FloatArray:
 
 
 def _coords(point: Entity) -> FloatArray:
-    return np.asarray(point.Coordinates[:2], dtype=float)
+    return np.asarray(get(point, "Coordinates")[:2], dtype=float)
 
 
 def _direction(direction: Entity | None, default: tuple[float, float]) -> FloatArray:
     if direction is None:
         return np.asarray(default, dtype=float)
-    v = np.asarray(direction.DirectionRatios[:2], dtype=float)
+    v = np.asarray(get(direction, "DirectionRatios")[:2], dtype=float)
     norm = float(np.hypot(*v))
     if not norm > 0:
         raise OutlineError("outline has a direction of zero length")
@@ -181,7 +190,8 @@ def _direction(direction: Entity | None, default: tuple[float, float]) -> FloatA
 
 
 def _polyline(curve: Entity, angle: float) -> FloatArray:
-    return np.array([_coords(p) for p in curve.Points], dtype=float).reshape(-1, 2)
+    points = [get(p, "Coordinates")[:2] for p in get(curve, "Points")]
+    return np.array(points, dtype=float).reshape(-1, 2)
 
 
 def _arc(centre: FloatArray, radius: float, start: float, sweep: float,
@@ -196,15 +206,15 @@ def _arc(centre: FloatArray, radius: float, start: float, sweep: float,
 
 def _circle_frame(circle: Entity) -> tuple[FloatArray, float, tuple[FloatArray, FloatArray]]:
     """Centre, radius and (x, y) axes of an IfcCircle's Position."""
-    place = circle.Position
-    x = _direction(getattr(place, "RefDirection", None), (1.0, 0.0))
-    axis = getattr(place, "Axis", None)
+    place = get(circle, "Position")
+    x = _direction(get_opt(place, "RefDirection"), (1.0, 0.0))
+    axis = get_opt(place, "Axis")
     flip = axis is not None and float(axis.DirectionRatios[2]) < 0
     y = np.array([x[1], -x[0]]) if flip else np.array([-x[1], x[0]])
-    radius = float(circle.Radius)
+    radius = float(get(circle, "Radius"))
     if not radius > 0:
         raise OutlineError(f"outline IfcCircle has radius {radius:.4g}")
-    return _coords(place.Location), radius, (x, y)
+    return _coords(get(place, "Location")), radius, (x, y)
 
 
 def _circle(curve: Entity, angle: float) -> FloatArray:
@@ -232,8 +242,8 @@ def _circle_angle(trim: Entity, angle: float, centre: FloatArray,
 
 
 def _trimmed(curve: Entity, angle: float) -> FloatArray:
-    basis, master = curve.BasisCurve, str(curve.MasterRepresentation)
-    t1, t2 = _trim(curve.Trim1, master), _trim(curve.Trim2, master)
+    basis, master = get(curve, "BasisCurve"), str(get(curve, "MasterRepresentation"))
+    t1, t2 = _trim(get(curve, "Trim1"), master), _trim(get(curve, "Trim2"), master)
     if basis.is_a("IfcLine"):
         return np.array([_line_point(basis, t) for t in (t1, t2)]).reshape(2, 2)
     if not basis.is_a("IfcCircle"):
@@ -241,7 +251,7 @@ def _trimmed(curve: Entity, angle: float) -> FloatArray:
     centre, radius, axes = _circle_frame(basis)
     a1, a2 = (_circle_angle(t, angle, centre, axes) for t in (t1, t2))
     full = 2.0 * math.pi
-    if curve.SenseAgreement:
+    if get(curve, "SenseAgreement"):
         sweep = (a2 - a1) % full or (full if a1 != a2 else 0.0)
     else:
         sweep = -((a1 - a2) % full or (full if a1 != a2 else 0.0))
@@ -300,11 +310,11 @@ def _three_point_arc(p1: FloatArray, pm: FloatArray, p2: FloatArray) -> FloatArr
 
 def _composite(curve: Entity, angle: float) -> FloatArray:
     parts = []
-    for seg in curve.Segments:
+    for seg in get(curve, "Segments"):
         if not seg.is_a("IfcCompositeCurveSegment"):
             raise OutlineError(f"outline segment of type {seg.is_a()} not supported")
-        pts = curve_points(seg.ParentCurve, angle)
-        parts.append(pts if seg.SameSense else pts[::-1])
+        pts = curve_points(get(seg, "ParentCurve"), angle)
+        parts.append(pts if get(seg, "SameSense") else pts[::-1])
     return _joined(parts, "IfcCompositeCurve")
 
 
