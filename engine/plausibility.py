@@ -41,6 +41,11 @@ DEPTH_MIN, DEPTH_MAX = 0.42, 120.0
 LENGTH_MIN, LENGTH_MAX = 12.0, 2400.0
 #: Magnitude of a load or a required strength, kip (common practice, no source).
 LOAD_MAX = 100_000.0
+#: Effective length factor K: 0.5 is the theoretical value of a column fixed at both ends,
+#: the smallest of AISC 360-22 Commentary Table C-A-7.1; no upper limit (a larger K only
+#: lowers the capacity).  The fuzz test (issue 13 item 6) found KX = 1E-300 passing a
+#: failing column.
+K_MIN, K_MAX = 0.5, np.inf
 
 #: (what, unit shown, internal units per unit shown) of each test, in the order they apply
 #: (a member gets the first); lengths are shown in ft.
@@ -54,6 +59,9 @@ _TESTS = (
     ("unbraced length z", "ft", 12.0),
     ("load", "kip", 1.0),
     ("required strength", "kip", 1.0),
+    ("effective length factor KX", "", 1.0),
+    ("effective length factor KY", "", 1.0),
+    ("effective length factor KZ", "", 1.0),
 )
 
 
@@ -100,13 +108,17 @@ def implausible_reasons(m: MemberTable, candidates: BoolArray) -> ObjectArray:
             masks[row] = _outside(values, low, high)
         masks[7] = (np.abs(m.loads) > LOAD_MAX).any(axis=1) if m.loads.shape[1] else False
         masks[8] = np.abs(m.required_strength) > LOAD_MAX
+        for row, k in enumerate((m.kx, m.ky, m.kz), start=9):
+            masks[row] = _outside(k, K_MIN, K_MAX)
     hit = masks.any(axis=0) & candidates
     if any_set(hit):
         first = masks.argmax(axis=0)
-        columns = (m.Fy, m.E, area, depth, m.lx, m.ly, m.lz, None, m.required_strength)
+        columns = (m.Fy, m.E, area, depth, m.lx, m.ly, m.lz, None, m.required_strength,
+                   m.kx, m.ky, m.kz)
         for i in hit.nonzero()[0].tolist():
             what, unit, per = _TESTS[first[i]]
             column = columns[first[i]]
             value = _largest_load(m.loads[i]) if column is None else float(column[i])
-            reason[i] = f"implausible {what} {value / per:.4g} {unit}: check the units"
+            shown = f"{value / per:.4g} {unit}".rstrip()
+            reason[i] = f"implausible {what} {shown}: check the units"
     return reason

@@ -68,6 +68,13 @@ def _loads(bad: float) -> np.ndarray:
     ({"loads": _loads(-2.0e6)}, "implausible load -2e+06 kip: check the units"),
     (_one_bad("required_strength", 100.0, 1.0e6),
      "implausible required strength 1e+06 kip: check the units"),
+    # K at least 0.5, fixed at both ends (K_MIN, AISC 360-22 Commentary Table C-A-7.1); the
+    # fuzz test (issue 13 item 6) found KX = 1E-300 passing a failing column.
+    (_one_bad("kx", 1.0, 1e-300), "implausible effective length factor KX 1e-300: check the "
+     "units"),
+    (_one_bad("ky", 1.0, 0.49), "implausible effective length factor KY 0.49: check the units"),
+    (_one_bad("kz", 1.0, 0.25), "implausible effective length factor KZ 0.25: check the "
+     "units"),
 ])
 def test_each_limit_makes_only_its_member_not_checked(columns: dict, reason: str) -> None:
     r = check_members(_members(3, **columns))
@@ -82,7 +89,8 @@ def test_values_at_the_limits_are_checked() -> None:
     r = check_members(_members(
         n, Fy=np.array([plausibility.FY_MIN, plausibility.FY_MAX]),
         E=np.array([plausibility.E_MIN, plausibility.E_MAX]),
-        length=np.array([plausibility.LENGTH_MIN, 16 * FT])))
+        length=np.array([plausibility.LENGTH_MIN, 16 * FT]),
+        kx=np.array([plausibility.K_MIN, 10.0])))
     assert r.reason.tolist() == [None, None]
 
 
