@@ -38,6 +38,8 @@ import ifcopenshell.util.unit
 
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.access import Entity
+from stanchion.ifc_bridge.errors import ModelReadError
+from stanchion.ifc_bridge.relations import describe
 
 #: Quantity -> (IFC unit type, SI unit in pint spelling, internal unit in pint spelling).
 QUANTITIES: dict[str, tuple[str, str, str]] = {
@@ -213,10 +215,14 @@ def read_units(model: ifcopenshell.file, force: GivenUnit | None = None) -> Mode
             names[quantity] = f"{ASSUMED_SI[quantity]} (not declared)"
             declared[quantity] = False
             continue
-        if quantity == "length":
-            scale = float(ifcopenshell.util.unit.calculate_unit_scale(model, unit_type))
-        else:
-            scale = si_scale(unit)
+        try:  # a damaged unit (a line retyped) must not stop the run with a traceback
+            if quantity == "length":
+                scale = float(ifcopenshell.util.unit.calculate_unit_scale(model, unit_type))
+            else:
+                scale = si_scale(unit)
+        except (AttributeError, TypeError, ValueError) as exc:
+            raise ModelReadError(f"damaged model: its {quantity} unit {describe(unit)} cannot "
+                                 f"be read ({exc})") from None
         factors[quantity] = scale * to_internal
         names[quantity] = _unit_name(unit)
         declared[quantity] = True

@@ -114,3 +114,20 @@ def test_material_name_holding_an_instance_is_no_name(builder, tmp_path: Path) -
     damaged.write_text(_retype(text, usage, "IFCMATERIAL"))
     members = read_columns(open_model(damaged)).members
     assert members.reason[0] is not None and "no yield strength" in members.reason[0]
+
+
+def test_unit_whose_factor_is_another_class_is_refused(tmp_path: Path) -> None:
+    """The fuzz test's case on the IFC2X3 sample: the inch's IfcMeasureWithUnit retyped.
+
+    Before: AttributeError 'IfcAxis2Placement3D' has no attribute 'ValueComponent' from
+    ifcopenshell.util.unit, a traceback.
+    """
+    sample = Path(__file__).resolve().parents[2] / "sample_models" / "garden_pavilion.ifc"
+    text = sample.read_text()
+    factor = re.search(r"^#(\d+)=IFCMEASUREWITHUNIT\(IFCREAL\(0\.0254\)", text, re.MULTILINE)
+    assert factor is not None
+    damaged = tmp_path / "damaged.ifc"
+    damaged.write_text(_retype(text, int(factor.group(1)), "IFCAXIS2PLACEMENT3D"))
+    with pytest.raises(ModelReadError, match=r"^damaged model: its length unit #\d+, an "
+                       r"IfcConversionBasedUnit, cannot be read \(.*ValueComponent"):
+        read_columns(open_model(damaged))
