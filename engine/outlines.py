@@ -67,10 +67,13 @@ class Outline:
     Attributes:
         outer: (n, 2) points of the outer boundary, either direction, closed or not.
         voids: (m, 2) points of each void.
+        notes: member messages about how the outline was read (kept by :meth:`scaled`,
+            added to the section's notes).
     """
 
     outer: FloatArray
     voids: tuple[FloatArray, ...] = ()
+    notes: tuple[str, ...] = ()
 
     @classmethod
     def of(cls, outer: ArrayLike, voids: Sequence[ArrayLike] = ()) -> Outline:
@@ -95,7 +98,7 @@ class Outline:
         Returns:
             A new outline.
         """
-        return Outline(self.outer * factor, tuple(v * factor for v in self.voids))
+        return Outline(self.outer * factor, tuple(v * factor for v in self.voids), self.notes)
 
     def key(self) -> str:
         """Hash of the outline rounded to :data:`KEY_RESOLUTION`, moved to its lowest corner."""
@@ -414,10 +417,11 @@ def outline_section(outline: Outline, label: str = "outline", standard: str | No
         if len(_CACHE) >= CACHE_SIZE:
             _CACHE.pop(next(iter(_CACHE)))
         _CACHE[key] = found
+    notes = found.notes + outline.notes
     if found.table is None:
-        return found
+        return replace(found, notes=notes)
     table = replace(found.table, designation=np.array([label], dtype=object))
-    return replace(found, table=table)
+    return replace(found, table=table, notes=notes)
 
 
 __all__ = ["NO_FAMILY", "Analysis", "Outline", "OutlineSection", "analyse", "cache_clear",

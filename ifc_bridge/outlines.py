@@ -14,7 +14,9 @@ inches, :meth:`Outline.scaled`).  Curves read:
   an ``IfcLine``, trimmed by ``IfcParameterValue`` -- for a circle an angle in the model's
   plane-angle unit (degrees or radians; radians when the model declares none) -- or by
   ``IfcCartesianPoint``, the MasterRepresentation preferred; SenseAgreement false runs
-  clockwise;
+  clockwise.  Where the segments meet only with the parameters read in the other of degrees
+  and radians (an exporter's mistake), that reading is taken and the outline's ``notes`` say
+  so; where they meet in neither, the gap is the reason;
 * a whole ``IfcCircle``.
 
 Arcs are discretised with a chord tolerance: the largest distance between an arc and its
@@ -35,6 +37,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
+from dataclasses import replace
 
 import ifcopenshell
 import ifcopenshell.util.unit
@@ -55,6 +58,10 @@ GAP_TOL = 1e-3
 
 class OutlineError(ValueError):
     """A profile whose outline cannot be read; the message is the reason."""
+
+
+class OutlineGapError(OutlineError):
+    """Segments of an outline that do not meet, or a curve that does not close."""
 
 
 def plane_angle_scale(model: ifcopenshell.file) -> float:
@@ -90,8 +97,37 @@ def outline_of(model: ifcopenshell.file, profile: Entity, angle_scale: float | N
     angle = plane_angle_scale(model) if angle_scale is None else angle_scale
     try:
         return _profile_outline(profile, angle), None
+    except OutlineGapError as problem:
+        gap = problem
     except OutlineError as problem:
         return None, str(problem)
+    return _other_angle_unit(profile, angle, gap)
+
+
+_ANGLE_UNITS = {"radians": 1.0, "degrees": math.pi / 180.0}
+
+
+def _other_angle_unit(profile: Entity, angle: float, gap: OutlineGapError
+                      ) -> tuple[Outline | None, str | None]:
+    """An outline whose segments meet only with circle parameters in the other angle unit.
+
+    Some exporters write trimming angles in degrees under a model in radians (or the
+    reverse).  Segments that meet in one reading and not in the other decide it; the
+    outline then carries a note saying so.  Otherwise the gap is the reason.
+    """
+    declared = next((k for k, v in _ANGLE_UNITS.items() if math.isclose(v, angle)),
+                    "not degrees or radians")
+    for name, other in _ANGLE_UNITS.items():
+        if math.isclose(other, angle):
+            continue
+        try:
+            outline = _profile_outline(profile, other)
+        except OutlineError:
+            continue
+        note = (f"circle trimming parameters read in {name}: in the model's plane-angle unit "
+                f"({declared}) the outline's segments do not meet, in {name} they do")
+        return replace(outline, notes=(note,)), None
+    return None, str(gap)
 
 
 def _profile_outline(profile: Entity, angle: float) -> Outline:
@@ -151,8 +187,8 @@ def ring_points(curve: Entity, angle: float) -> FloatArray:
         return pts[:-1]
     if curve.is_a() in _IMPLICITLY_CLOSED:
         return pts  # a point list bounding an area closes from its last point to its first
-    raise OutlineError(f"outline {curve.is_a()} does not close (gap {gap:.4g} in the "
-                       "model's length unit)")
+    raise OutlineGapError(f"outline {curve.is_a()} does not close (gap {gap:.4g} in the "
+                     "model's length unit)")
 
 
 def curve_points(curve: Entity, angle: float) -> FloatArray:
@@ -328,8 +364,8 @@ def _joined(parts: list[FloatArray], what: str) -> FloatArray:
     for k, part in enumerate(parts[1:], start=1):
         gap = float(np.hypot(*(part[0] - out[-1][-1])))
         if gap > GAP_TOL * extent:
-            raise OutlineError(f"outline {what} has a gap of {gap:.4g} (model length unit) "
-                               f"before segment {k + 1}")
+            raise OutlineGapError(f"outline {what} has a gap of {gap:.4g} (model length unit) "
+                             f"before segment {k + 1}")
         out.append(part[1:])
     return np.vstack(out)
 
@@ -345,5 +381,5 @@ _READERS: dict[str, Callable[[Entity, float], FloatArray]] = {
     "IfcCircle": _circle,
 }
 
-__all__ = ["ARC_STEP", "CHORD_TOL", "OutlineError", "curve_points", "outline_of",
+__all__ = ["ARC_STEP", "CHORD_TOL", "OutlineError", "OutlineGapError", "curve_points", "outline_of",
            "plane_angle_scale", "ring_points"]

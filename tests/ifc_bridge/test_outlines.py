@@ -134,14 +134,39 @@ def test_composite_curve_with_trimmed_circle_fillets(builder, unit):
     assert result.dims["tw"] * 25.4 == pytest.approx(5.6, rel=1e-3)
 
 
-def test_degrees_read_as_radians_are_refused_not_misread(builder):
-    # parameters written in degrees in a model declaring radians: the fillets land elsewhere
-    # and the composite curve has gaps -> no outline, with the reason
+@pytest.mark.parametrize(("declared", "written"), [("radian", "degrees"),
+                                                   ("degree", "radians")])
+def test_angles_written_in_the_other_unit_are_read_as_the_segments_decide(builder, declared,
+                                                                          written):
+    # parameters in degrees in a model declaring radians (or the reverse): read in the
+    # declared unit the fillets land elsewhere and the segments do not meet; read in the
+    # other unit they do. That reading is taken, with a note that reaches the section.
     m = builder.model
-    add_angle_unit(m, "radian")
-    outline, reason = outline_of(m, filleted_i(m, 200, 100, 5.6, 8.5, 12, 1.0))
+    add_angle_unit(m, declared)
+    deg = 1.0 if written == "degrees" else math.pi / 180
+    outline, reason = outline_of(m, filleted_i(m, 200, 100, 5.6, 8.5, 12, deg))
+    assert reason is None
+    assert area(outline) == pytest.approx(i_area(200, 100, 5.6, 8.5, 12), rel=AREA_TOL)
+    note = (f"circle trimming parameters read in {written}: in the model's plane-angle unit "
+            f"({declared}s) the outline's segments do not meet, in {written} they do")
+    assert outline.notes == (note,)
+    result = outline_section(outline.scaled(1 / 25.4), "IPE 200")
+    assert result.family == "I" and note in result.notes
+
+
+def test_segments_that_meet_in_no_angle_unit_give_the_gap(builder):
+    # a fillet trimmed 0..100 (degrees) where 0..90 belongs: in neither unit do the
+    # segments meet -> no outline, the gap named
+    m = builder.model
+    add_angle_unit(m, "degree")
+    r, s, a = 12.0, 2.8, 91.5
+    curve = composite(m, [
+        (polyline(m, [(s, -a), (s, a - r)]), True),
+        (trimmed(m, circle(m, s + r, a - r, r), 90, 190), False),
+        (polyline(m, [(s + r, a), (50, a), (50, -a), (s, -a)]), True)])
+    outline, reason = outline_of(m, arbitrary(m, curve))
     assert outline is None
-    assert "IfcCompositeCurve has a gap of" in reason
+    assert reason.startswith("outline IfcCompositeCurve has a gap of")
 
 
 def test_trims_by_cartesian_points(builder):
