@@ -5,12 +5,12 @@ Every reader (members JSON, IFC) matches grade names here; nothing else holds a 
 Moduli: E = 29,000 ksi (AISC 360-22 §E3, "modulus of elasticity of steel") and G = 11,200 ksi
 (AISC 360-22 §E4, "shear modulus of elasticity of steel"); a request may override both.
 
-Yield stress by grade: each row cites the material specification that fixes the value; the
-ASTM values are the specified minimum yield stresses also listed in the AISC Steel
-Construction Manual, 16th ed., Table 2-4.  EN grades depend on the nominal element thickness
-t; the two bands of EN 1993-1-1:2005 Table 3.1 are used (t <= 40 mm, 40 mm < t <= 80 mm), with
-t the thickest element of the section; Table 3.1 gives EN 10219 (cold-formed hollow sections)
-values for t <= 40 mm only.  Thicker elements get no value (the member is not checked).
+Yield stress by grade: the rows of :data:`stanchion.engine.grades.GRADES`, each citing the
+material specification that fixes the value; grades with thickness bands (EN, AS/NZS, JIS,
+GB/T ...) are read at t, the thickest element of the section (:func:`band_thickness`);
+Table 3.1 of EN 1993-1-1:2005 gives EN 10219 (cold-formed hollow sections) values for
+t <= 40 mm only.  Thicker elements get no value (the member is not checked).  A name that
+states a stress instead (``"Metal - Steel - 345 MPa"``) gives that stress, with a note.
 
 Matching is on the upper-cased name, e.g. ``"ASTM A992"``, ``"A572 Gr. 50"``, ``"A572-50"``,
 ``"A500 Grade C"``, ``"S355JR"``, ``"EN 10025-2 S275J0"``, ``"S355J2H EN 10210"``.  A grade
@@ -29,82 +29,13 @@ from dataclasses import dataclass
 from functools import lru_cache
 from typing import Literal
 
+from stanchion.engine.grades import GRADES, KSI_PER_MPA, ROUND_FAMILIES, Grade
 from stanchion.engine.units import factor
 
 #: Modulus of elasticity of steel, ksi (AISC 360-22 §E3: E = 29,000 ksi).
 E_DEFAULT = 29000.0
 #: Shear modulus of elasticity of steel, ksi (AISC 360-22 §E4: G = 11,200 ksi).
 G_DEFAULT = 11200.0
-
-_GR = r"(?:[\s\-/.]*(?:GR(?:ADE)?)?[\s.\-]*)"
-
-#: Families whose yield stress follows the round-HSS value of ASTM A500.
-_ROUND = ("HSS_ROUND", "PIPE")
-
-
-@dataclass(frozen=True)
-class Grade:
-    """One grade row.
-
-    Attributes:
-        name: display name (``"ASTM A572 Gr 50"``).
-        pattern: regular expression on the upper-cased material name.
-        source: the specification (and table) the value comes from.
-        fy: minimum yield stress, ksi, for every shape (None: see the other fields).
-        fy_round, fy_rect: ksi for round and for rectangular (shaped) HSS (ASTM A500).
-        bands_mpa: ((t_max_mm, fy_MPa), ...) thickness bands (EN grades).
-    """
-
-    name: str
-    pattern: str
-    source: str
-    fy: float | None = None
-    fy_round: float | None = None
-    fy_rect: float | None = None
-    bands_mpa: tuple[tuple[float, float], ...] = ()
-
-
-def _astm_numbered(spec: str, grades: tuple[int, ...], source: str) -> list[Grade]:
-    return [
-        Grade(f"ASTM {spec} Gr {g}", rf"\b{spec[0]}\s?{spec[1:]}M?\b{_GR}{g}\b",
-              f"{source}, Grade {g}: Fy = {g} ksi min.", fy=float(g))
-        for g in grades
-    ]
-
-
-_EN_BANDS = "EN 1993-1-1:2005 Table 3.1 (t <= 40 mm / 40 < t <= 80 mm)"
-
-
-def _en(g: int, bands: tuple[tuple[float, float], ...]) -> Grade:
-    return Grade(f"EN S{g}", rf"\bS\s?{g}[A-Z0-9+]*\b",
-                 f"EN 10025-2 S{g} (and S{g}H of EN 10210-1 / EN 10219-1); fy per {_EN_BANDS}",
-                 bands_mpa=bands)
-
-
-GRADES: tuple[Grade, ...] = (
-    Grade("ASTM A992", r"\bA\s?992M?\b", "ASTM A992/A992M: Fy = 50 ksi min.", fy=50.0),
-    Grade("ASTM A36", r"\bA\s?36M?\b", "ASTM A36/A36M (shapes): Fy = 36 ksi min.", fy=36.0),
-    *_astm_numbered("A572", (42, 50, 55, 60, 65), "ASTM A572/A572M"),
-    *_astm_numbered("A913", (50, 60, 65, 70), "ASTM A913/A913M"),
-    Grade("ASTM A500 Gr B", rf"\bA\s?500M?\b{_GR}B\b",
-          "ASTM A500/A500M Grade B: Fy = 42 ksi round, 46 ksi rectangular, min.",
-          fy_round=42.0, fy_rect=46.0),
-    Grade("ASTM A500 Gr C", rf"\bA\s?500M?\b{_GR}C\b",
-          "ASTM A500/A500M Grade C: Fy = 46 ksi round, 50 ksi rectangular, min.",
-          fy_round=46.0, fy_rect=50.0),
-    Grade("ASTM A1085", r"\bA\s?1085M?\b", "ASTM A1085/A1085M: Fy = 50 ksi min.", fy=50.0),
-    Grade("ASTM A53 Gr B", rf"\bA\s?53M?\b{_GR}B\b", "ASTM A53/A53M Grade B: Fy = 35 ksi min.",
-          fy=35.0),
-    *(_en(g, bands) for g, bands in (
-        (235, ((40.0, 235.0), (80.0, 215.0))),
-        (275, ((40.0, 275.0), (80.0, 255.0))),
-        (355, ((40.0, 355.0), (80.0, 335.0))),
-    )),
-    Grade("EN S460", r"\bS\s?460[A-Z0-9+]*\b",
-          "EN 10025-3 S460N/NL, EN 10025-4 S460M/ML (and S460NH/MH of EN 10210-1 / "
-          f"EN 10219-1); fy per {_EN_BANDS}",
-          bands_mpa=((40.0, 460.0), (80.0, 430.0))),
-)
 
 
 @dataclass(frozen=True)
@@ -145,7 +76,6 @@ _COMPILED = tuple((g, re.compile(g.pattern)) for g in GRADES)
 _COMPILED_STANDARDS = tuple((s, re.compile(s.pattern)) for s in STANDARDS)
 _STANDARD_BY_NAME = {s.name: s for s in STANDARDS}
 _MM_PER_IN = factor("inch", "millimeter")
-_KSI_PER_MPA = factor("megapascal", "ksi")
 
 
 def _upper(text: str) -> str:
@@ -191,20 +121,22 @@ def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm:
     if grade.fy is not None:
         return grade.fy, ""
     if grade.fy_rect is not None:
-        if family in _ROUND:
+        if family in ROUND_FAMILIES:
             return grade.fy_round, "round HSS"
         if family == "HSS":
             return grade.fy_rect, "rectangular HSS"
         return None, f"{grade.name} applies to HSS only"
     if thickness_in is None:
-        t_mm, extra = 0.0, "element thickness unknown: t <= 40 mm assumed"
+        first = grade.bands_mpa[0][0]
+        t_mm, extra = 0.0, f"element thickness unknown: t <= {first:.0f} mm assumed"
     else:
         t_mm, extra = thickness_in * _MM_PER_IN, ""
     for t_max, fy_mpa in grade.bands_mpa:
         if t_mm <= t_max and t_mm <= max_mm:
             text = extra or f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
-            return fy_mpa * _KSI_PER_MPA, text
-    return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {min(80.0, max_mm):.0f} mm"
+            return fy_mpa * KSI_PER_MPA, text
+    top = min(grade.bands_mpa[-1][0], max_mm)
+    return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {top:.0f} mm"
 
 
 def band_thickness(form: Literal["solid_rect", "solid_round", "walls"],
@@ -233,29 +165,31 @@ def band_thickness(form: Literal["solid_rect", "solid_round", "walls"],
 def match_grade(
     text: str | None, family: str | None = None, thickness_in: float | None = None
 ) -> tuple[GradeMatch | None, list[str]]:
-    """Minimum yield stress from a grade named in ``text``.
+    """Minimum yield stress from a grade (or a stress) named in ``text``.
 
     Args:
         text: material name (and description), or a members-file ``grade``.
         family: profile family (``"HSS"``, ``"HSS_ROUND"``, ``"PIPE"`` ...) for grades that
             depend on it.
-        thickness_in: thickest element of the section, in (EN grades).
+        thickness_in: thickest element of the section, in (grades with thickness bands).
 
     Returns:
         (match or None, notes).  Notes explain a grade that was recognised but gave no
-        value (A500 on a W shape, EN grade over 80 mm, EN 10219 over 40 mm) or several
-        conflicting grades.
+        value (A500 on a W shape, EN grade over 80 mm, EN 10219 over 40 mm), a stress not
+        read, or several conflicting grades.
     """
     if not text:
         return None, []
     upper = _upper(text)
     standard = product_standard(text)
-    max_mm = standard.max_en_thickness_mm if standard is not None else 80.0
+    max_mm = standard.max_en_thickness_mm if standard is not None else math.inf
     found: list[GradeMatch] = []
     notes: list[str] = []
-    for grade, rx in _COMPILED:
-        if not rx.search(upper):
-            continue
+    hits = [grade for grade, rx in _COMPILED if rx.search(upper)]
+    names = {grade.name for grade in hits}
+    for grade in hits:
+        if names.intersection(grade.yields_to):
+            continue  # the same grade, named with its standard
         fy, detail = _value(grade, family, thickness_in, max_mm)
         if fy is None:
             notes.append(f"material grade {grade.name} recognised but {detail}")
@@ -263,14 +197,78 @@ def match_grade(
         where = f", {detail}" if detail else ""
         found.append(GradeMatch(grade, fy, f"Fy = {fy:.4g} ksi from material grade "
                                            f"{grade.name}{where} ({grade.source})"))
+    found.extend(_stated_stresses(text, upper, notes))
     if not found:
         return None, notes
     best = min(found, key=lambda m: m.fy)
     if len({round(m.fy, 6) for m in found}) > 1:
-        names = ", ".join(m.grade.name for m in found)
-        notes.append(f"material name '{text}' names several grades ({names}); "
+        listed = ", ".join(m.grade.name for m in found)
+        notes.append(f"material name '{text}' names several grades ({listed}); "
                      f"the lowest Fy is used")
     return best, notes
+
+
+def names_grade(text: str | None) -> bool:
+    """True when ``text`` names a grade of the table or states a stress (``--default-grade``).
+
+    Args:
+        text: a grade as a user writes it (``"A992"``, ``"S355"``, ``"345 MPa"``).
+    """
+    if not text:
+        return False
+    upper = _upper(text)
+    return any(rx.search(upper) for _, rx in _COMPILED) or bool(_stated_stresses(text, upper, []))
+
+
+# ------------------------------------------------------------------ a stress in the name
+#
+# Some names state the yield stress instead of a grade: an authoring application's default
+# steel "Metal - Steel - 345 MPa", "Steel 350 MPa", "50 ksi steel", "fy=355 N/mm2".  Such a
+# stress is read as the minimum yield stress, with a note saying it came from the name, when
+# the name names no other material than steel (never a concrete "25 MPa concrete"); a stress
+# labelled as another property (fu, Rm, tensile, E, G, modulus, fck ...) is not read.  The
+# value is not bounded here: the plausibility limits (engine/plausibility.py) judge it.
+
+#: A number and a stress unit, not part of a word ("S355 MPa" is the grade S355).
+_STRESS = re.compile(r"(?<![\w.,])(?P<num>\d{1,6}(?:[.,]\d+)?)\s*"
+                     r"(?P<unit>MPA|N/MM2|N/MM²|N/MM\^2|KN/CM2|KN/CM²|KSI)(?![A-Z0-9²])")
+#: MPa per unit (ksi: converted apart).
+_MPA_PER_UNIT = {"MPA": 1.0, "N/MM2": 1.0, "N/MM²": 1.0, "N/MM^2": 1.0, "KN/CM2": 10.0,
+                 "KN/CM²": 10.0}
+_UNIT_NAMES = {"MPA": "MPa", "KSI": "ksi", "N/MM2": "N/mm²", "N/MM^2": "N/mm²",
+               "KN/CM2": "kN/cm²", "KN/CM²": "kN/cm²", "N/MM²": "N/mm²"}
+#: What before a stress makes it another property than the yield stress.
+_NOT_YIELD = re.compile(
+    r"(?:\b(?:E|G|FU|FT|FUK|RM|FC|FCK|FCM|FCD|F'C|UTS)\s*[=:]?\s*"
+    r"|\b(?:TENSILE|ULTIMATE|MODUL\w*|YOUNG\w*|ELASTIC\w*|SHEAR|COMPRESSIVE)\b[^0-9]*)$")
+
+
+def _stated_stresses(text: str, upper: str, notes: list[str]) -> list[GradeMatch]:
+    """Yield stresses stated in a name (``"345 MPa"``), as grade matches; notes appended."""
+    stresses = list(_STRESS.finditer(upper))
+    if not stresses:
+        return []
+    others = [c for c in text_classes(text) if c != STEEL]
+    if others:
+        notes.append(f"stress in material name '{text}' not read: the name names "
+                     f"{', '.join(sorted(others))}")
+        return []
+    out = []
+    previous = 0
+    for m in stresses:
+        context, previous = upper[previous:m.start()], m.end()
+        if _NOT_YIELD.search(context):
+            continue
+        number = float(m["num"].replace(",", "."))
+        unit = m["unit"]
+        fy = number if unit == "KSI" else number * _MPA_PER_UNIT[unit] * KSI_PER_MPA
+        stated = f"{m['num']} {_UNIT_NAMES.get(unit, unit)}"
+        grade = Grade(f"stress {stated}", "", "the stress the name states, read as the "
+                      "minimum yield stress", fy=fy)
+        out.append(GradeMatch(grade, fy, f"Fy = {fy:.4g} ksi from the stress {stated} stated "
+                                         f"in material name '{text}' (read as the minimum "
+                                         "yield stress)"))
+    return out
 
 
 # ---------------------------------------------------------------------------- material class

@@ -13,6 +13,7 @@ from stanchion.engine.materials import (
     composite_reason,
     match_grade,
     material_class,
+    names_grade,
     product_standard,
     skip_reason,
 )
@@ -37,7 +38,9 @@ def test_moduli_still_importable_from_the_member_table_module():
 
 def test_every_grade_row_cites_its_specification():
     for grade in GRADES:
-        assert grade.source.startswith(("ASTM ", "EN ")), grade.name
+        assert grade.source.startswith(
+            ("ASTM ", "EN ", "AS/NZS ", "CSA ", "JIS ", "GB/T ", "lower of AS/NZS ")
+        ), grade.name
 
 
 @pytest.mark.parametrize(
@@ -232,3 +235,128 @@ def test_skip_and_composite_reasons() -> None:
     assert "steel and timber" in composite_reason("steel, timber")
     for label in ("steel", "unknown", "concrete"):
         assert composite_reason(label) is None
+
+
+# ------------------------------------------------------------------ issue 14: more spellings
+
+
+@pytest.mark.parametrize(
+    ("text", "thickness", "expected"),
+    [
+        # EN 1993-1-1:2005 Table 3.1 (EN 10025-3 / -4): S420N/NL/M/ML 420 MPa t <= 40 mm,
+        # 390 MPa 40 < t <= 80 mm
+        ("S420NL", 1.0, 420.0), ("S420M", 2.0, 390.0), ("EN 10025-4 S420ML", 0.5, 420.0),
+        # Table 3.1 (EN 10025-3 / -4): S460N/NL/M/ML 460 / 430 MPa
+        ("S460NL", 2.0, 430.0), ("S460M", 1.0, 460.0),
+        # Table 3.1 (EN 10025-6): S460Q/QL/QL1 460 / 440 MPa
+        ("S460QL", 2.0, 440.0),
+        # Table 3.1 (EN 10025-2:2004): S450J0 440 / 410 MPa
+        ("S450J0", 1.0, 440.0), ("S450J0", 2.0, 410.0),
+        # EN 10025-2:2019 Table 7 S460J0/J2/K2 (from memory): 460 / 440 / 420 / 400 MPa for
+        # t <= 16 / 40 / 63 / 80 mm; a bare S460 is read so too (the lowest S460 variant)
+        ("S460J2", 0.5, 460.0), ("S460K2", 1.0, 440.0), ("S460", 2.0, 420.0),
+        ("S460J0", 3.0, 400.0),
+        # AS/NZS 3679.1:2016 Table 2 (from memory; AS 4100 Table 2.1): Grade 300 320 / 300 /
+        # 280 MPa for t <= 11 / 17 / over 17 mm; Grade 350 360 / 340 / 330 MPa for
+        # t <= 11 / 40 / over 40 mm
+        ("300PLUS", 0.4, 320.0), ("300PLUS", 0.6, 300.0), ("AS/NZS 3679.1-300", 1.0, 280.0),
+        ("AS/NZS 3679.1 Grade 350", 0.4, 360.0), ("AS/NZS 3679.1 Grade 350", 1.0, 340.0),
+        ("AS/NZS 3679.1-350L0", 2.0, 330.0),
+        # "Grade 300" / "G350" without the standard: the lower of AS/NZS 3679.1 and a flat
+        # 300 / 350 MPa (CSA G40.21, AS/NZS 1163), as the row states
+        ("G300", 0.4, 300.0), ("Grade 300", 1.0, 280.0), ("Grade 350", 0.4, 350.0),
+        ("G350", 1.0, 340.0), ("Gr. 350", 2.0, 330.0),
+        # AS/NZS 1163:2016 C350L0 (from memory; AS 4100 Table 2.1): 350 MPa
+        ("C350L0", 0.4, 350.0),
+        # CSA G40.21 (from memory; CISC Handbook): 350W 350 MPa (320 MPa over 65 mm), 300W
+        ("CSA G40.21 350W", 1.0, 350.0), ("G40.21-350WT", 2.7, 320.0), ("300W", 0.5, 300.0),
+        # JIS G 3101:2015 SS400 (from memory): 245 / 235 / 215 MPa for t <= 16 / 40 / 100 mm
+        ("SS400", 0.5, 245.0), ("JIS G 3101 SS400", 1.0, 235.0), ("SS400", 3.5, 215.0),
+        # JIS G 3106:2015 SM490A/B/C (from memory): 325 / 315 / 295 MPa
+        ("SM490A", 0.5, 325.0), ("SM490B", 1.0, 315.0), ("SM490", 2.0, 295.0),
+        # GB/T 1591-2018 Q355 (from memory): 355 / 345 / 335 / 325 / 315 MPa for
+        # t <= 16 / 40 / 63 / 80 / 100 mm; GB/T 1591-2008 Q345: 345 / 335 / 325 / 315 / 305
+        ("Q355B", 0.5, 355.0), ("Q355", 1.0, 345.0), ("Q355C", 3.5, 315.0),
+        ("Q345B", 0.5, 345.0), ("Q345", 2.0, 325.0),
+        # GB/T 700-2006 Q235 (from memory): 235 / 225 / 215 MPa for t <= 16 / 40 / 100 mm
+        ("Q235B", 0.5, 235.0), ("Q235", 1.0, 225.0), ("Q235", 3.0, 215.0),
+    ],
+)
+def test_grades_of_more_standards(text, thickness, expected):
+    found, _ = match_grade(text, "I", thickness)
+    assert found is not None, text
+    assert found.fy == pytest.approx(expected * KSI_PER_MPA)
+
+
+@pytest.mark.parametrize(
+    ("text", "expected_ksi"),
+    [
+        ("Metal - Steel - 345 MPa", 345 / 6.894757),  # 1 ksi = 6.894757 MPa, by hand: 50.04
+        ("Steel 350 MPa", 350 / 6.894757),  # 50.76 ksi, by hand
+        ("50 ksi steel", 50.0),  # the stated value
+        ("fy=355 N/mm2", 355 / 6.894757),  # 1 N/mm² = 1 MPa: 51.49 ksi, by hand
+        ("355 N/mm²", 355 / 6.894757),
+        ("Stahl 23,5 kN/cm2", 235 / 6.894757),  # 1 kN/cm² = 10 MPa: 34.08 ksi, by hand
+        ("Steel fy 345 MPa fu 450 MPa", 345 / 6.894757),  # fu is the tensile strength
+    ],
+)
+def test_stress_stated_in_the_name(text, expected_ksi):
+    found, _ = match_grade(text, "I", 0.5)
+    assert found is not None
+    assert found.fy == pytest.approx(expected_ksi, rel=1e-6)
+    assert "stated in material name" in found.note and "minimum yield stress" in found.note
+
+
+@pytest.mark.parametrize(
+    "text",
+    ["25 MPa concrete", "Concrete C30/37 30 MPa", "Beton 25 N/mm2", "Steel E=210000 N/mm2",
+     "Steel tensile strength 510 MPa", "Holz 24 N/mm2", "Steel Rm = 510 MPa"],
+)
+def test_stress_not_read(text):
+    # a stress of another material, or labelled as another property, is no yield stress
+    assert match_grade(text, "I", 0.5)[0] is None
+
+
+def test_stress_of_a_concrete_name_says_why_it_was_not_read():
+    found, notes = match_grade("Concrete 25 MPa", "I", 0.5)
+    assert found is None and "names concrete" in notes[0]
+
+
+def test_implausible_stress_is_left_to_the_plausibility_limits():
+    # "345 ksi" is read as written; engine/plausibility.py (Fy 20-120 ksi) refuses it
+    found, _ = match_grade("Steel 345 ksi", "I", 0.5)
+    assert found.fy == pytest.approx(345.0)
+
+
+def test_grade_and_a_different_stress_use_the_lower():
+    found, notes = match_grade("S275 - 350 MPa", "I", 0.5)
+    assert found.fy == pytest.approx(275.0 * KSI_PER_MPA)  # Table 3.1 S275, below 350 MPa
+    assert "several grades" in notes[0]
+
+
+def test_grade_named_with_its_standard_replaces_the_bare_grade_word():
+    # "Grade 350" alone is the conservative reading; with AS/NZS 3679.1 named, its own bands
+    found, notes = match_grade("AS/NZS 3679.1 Grade 350", "I", 0.4)
+    assert found.grade.name == "AS/NZS 3679.1 Grade 350" and notes == []
+
+
+@pytest.mark.parametrize("text", ["Steel", "Metal - Steel", "Structural Steel", "SM490YA",
+                                  "Grade 50", "Q390"])
+def test_steel_without_a_grade_of_the_table(text):
+    assert match_grade(text, "I", 0.5)[0] is None
+    assert names_grade(text) is False
+
+
+@pytest.mark.parametrize("text", ["A992", "S355", "A500 Gr C", "345 MPa", "Q355", "300PLUS"])
+def test_names_grade(text):
+    assert names_grade(text) is True
+
+
+def test_thicker_than_the_last_band_has_no_value():
+    found, notes = match_grade("SS400", "I", 4.5)  # 114.3 mm > 100 mm (JIS G 3101 bands)
+    assert found is None and "> 100 mm" in notes[0]
+
+
+def test_new_grades_name_steel():
+    for text in ("S420NL", "300PLUS", "350W", "SS400", "Q355B", "Grade 350"):
+        assert material_class([text]) == "steel", text
