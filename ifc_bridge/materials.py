@@ -12,13 +12,22 @@ Yield stress precedence (first found wins; the source goes in the member's messa
 2. ``Pset_MaterialSteel.YieldStress`` of the material (IFC4 / IFC4X3; read with
    ``ifcopenshell.util.element.get_psets`` on the material), or
    ``IfcMechanicalSteelMaterialProperties.YieldStress`` (IFC2X3);
-3. the grade named in the material's Name / Description, matched by the engine's grade
-   table (:func:`engine.materials.match_grade`, :func:`grade_yield` here).
+3. the grade named in the material's Name / Description or in a property of the material
+   named ``Grade``, ``SteelGrade``, ``Grade name`` or ``MaterialGrade`` (any property set:
+   ``Pset_...`` / IfcMaterialProperties, IFC2X3 IfcExtendedMaterialProperties), matched by
+   the engine's grade table (:func:`engine.materials.match_grade`, :meth:`YieldReader.grade`
+   here); a stress the name states ("Metal - Steel - 345 MPa") is read by the same table.
+   Name and property naming different grades: the lower Fy, with a note.  Only when the
+   material gives none, such a property on the element or its type (an exporter's common
+   property set) is read the same way;
+4. ``--default-grade`` for a member whose materials name steel but no grade
+   (:func:`ungraded_steel`; never for a member without a material).
 
 The product standard named there (ASTM A500, A1085, EN 10219 ...) decides the design wall of
 tubes (:func:`material_standard`, :func:`engine.tubes.design_wall`).
 
-None of these -> the member is not checked, reason "no yield strength".
+None of these -> the member is not checked, reason "no yield strength" (naming the material
+when it names steel but no grade).
 
 Material class (:func:`element_class`): the names and IFC4 Categories of every material of
 the element (the profiles' and layers' materials of a set included) go to the engine's
@@ -31,18 +40,21 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field, replace
+from typing import Any
 
 import ifcopenshell
 import ifcopenshell.util.element
 
 from stanchion.engine.materials import (
+    STEEL,
     GradeMatch,
     match_grade,
     material_class,
     product_standard,
+    text_classes,
 )
 from stanchion.ifc_bridge.access import Entity
-from stanchion.ifc_bridge.properties import PropertyValue, to_internal
+from stanchion.ifc_bridge.properties import PropertyValue, single_values, to_internal
 from stanchion.ifc_bridge.relations import RelationIndex
 from stanchion.ifc_bridge.units import ModelUnits
 
@@ -165,6 +177,8 @@ class YieldReader:
     index: RelationIndex
     units: ModelUnits
     _cache: dict[int, tuple[float | None, str, tuple[str, ...]]] = field(default_factory=dict)
+    _grades: dict[int, tuple[tuple[str, str], ...]] = field(default_factory=dict)
+    _element_grades: dict[int, tuple[tuple[str, str], ...]] = field(default_factory=dict)
 
     def material_yield(self, material: Entity) -> tuple[float | None, str, tuple[str, ...]]:
         """(Fy ksi or None, source description, notes) from the material's properties."""
@@ -173,6 +187,67 @@ class YieldReader:
             self._cache[key] = self._read(material)
         return self._cache[key]
 
+    def _psets(self, material: Entity) -> dict[str, dict[str, Any]]:
+        try:
+            return ifcopenshell.util.element.get_psets(material)
+        except Exception:  # a material without property support in this schema
+            return {}
+
+    def grade_properties(self, material: Entity) -> tuple[tuple[str, str], ...]:
+        """(where, text) of the material's grade properties (``Grade`` ...), cached."""
+        key = material.id()
+        if key not in self._grades:
+            name = material.Name if isinstance(material.Name, str) else f"#{key}"
+            self._grades[key] = tuple(
+                (f"property {pset}.{prop} of '{name}'", value)
+                for pset, props in self._psets(material).items()
+                for prop, value in props.items()
+                if _is_grade_property(prop) and isinstance(value, str) and value.strip())
+        return self._grades[key]
+
+    def element_grade_properties(self, definitions: list[Entity]
+                                 ) -> tuple[tuple[str, str], ...]:
+        """(where, text) of grade properties in an element's (or type's) property sets."""
+        found: list[tuple[str, str]] = []
+        for pset in definitions:
+            key = pset.id()
+            if key not in self._element_grades:
+                self._element_grades[key] = tuple(
+                    (f"property {pset.Name}.{prop}", str(pv.value))
+                    for prop, pv in single_values(pset).items()
+                    if _is_grade_property(prop) and isinstance(pv.value, str)
+                    and pv.value.strip())
+            found.extend(self._element_grades[key])
+        return tuple(found)
+
+    def grade(self, materials: tuple[Entity, ...], family: str | None,
+              thickness: float | None, element_definitions: list[Entity] | None = None
+              ) -> tuple[GradeMatch | None, list[str]]:
+        """Fy by grade from the materials' names and grade properties (lowest on conflict).
+
+        Args:
+            materials: the element's materials, in order.
+            family: the profile family.
+            thickness: the section's thickest element, in (grades with bands).
+            element_definitions: the property sets of the element and its type, read for a
+                grade property only when the materials give none.
+
+        Returns:
+            (match or None, notes).
+        """
+        notes: list[str] = []
+        for mat in materials:
+            texts = [("", material_text(mat)), *self.grade_properties(mat)]
+            found = _lowest(texts, family, thickness, notes)
+            if found is not None:
+                return found, notes
+        if element_definitions:
+            texts = list(self.element_grade_properties(element_definitions))
+            found = _lowest(texts, family, thickness, notes)
+            if found is not None:
+                return found, notes
+        return None, notes
+
     def _read(self, material: Entity) -> tuple[float | None, str, tuple[str, ...]]:
         name = material.Name or f"#{material.id()}"
         if self.model.schema == "IFC2X3":
@@ -180,11 +255,7 @@ class YieldReader:
             if props is not None and props.YieldStress is not None:
                 pv = PropertyValue(float(props.YieldStress), "IfcPressureMeasure", None)
                 return self._convert(pv, f"IfcMechanicalSteelMaterialProperties of '{name}'")
-        try:
-            psets = ifcopenshell.util.element.get_psets(material)
-        except Exception:  # a material without property support in this schema
-            psets = {}
-        steel = psets.get("Pset_MaterialSteel") or {}
+        steel = self._psets(material).get("Pset_MaterialSteel") or {}
         if steel.get("YieldStress") is not None and "id" in steel:
             found = self._property(steel["id"], "YieldStress")
             if found is not None:
@@ -220,25 +291,71 @@ def material_text(material: Entity) -> str:
                     if isinstance(t, str) and t)
 
 
-def grade_yield(materials: tuple[Entity, ...], family: str | None, thickness: float | None
-                ) -> tuple[GradeMatch | None, list[str]]:
-    """The first material whose name gives a yield stress by grade (engine grade table).
+#: Property names that hold a grade (compared without case, spaces and underscores).
+_GRADE_PROPERTIES = frozenset({"grade", "steelgrade", "gradename", "materialgrade"})
+
+
+def _is_grade_property(name: object) -> bool:
+    return isinstance(name, str) and (
+        name.casefold().replace(" ", "").replace("_", "") in _GRADE_PROPERTIES)
+
+
+def _lowest(texts: list[tuple[str, str]], family: str | None, thickness: float | None,
+            notes: list[str]) -> GradeMatch | None:
+    """The lowest Fy the texts give (a note when they differ); ``where`` "" is the name."""
+    found: list[tuple[str, GradeMatch]] = []
+    for where, text in texts:
+        match, gnotes = match_grade(text, family, thickness)
+        notes.extend(gnotes)
+        if match is not None:
+            found.append((where, match if not where else replace(
+                match, note=f"{match.note}; the grade is given by {where}: '{text}'")))
+    if not found:
+        return None
+    best = min(found, key=lambda wm: wm[1].fy)[1]
+    if len({round(m.fy, 6) for _, m in found}) > 1:
+        listed = "; ".join(f"{m.grade.name} ({w or 'name'}: Fy = {m.fy:.4g} ksi)"
+                           for w, m in found)
+        notes.append(f"material grades differ: {listed}; the lowest Fy is used")
+    return best
+
+
+def ungraded_steel(info: MaterialInfo) -> str | None:
+    """The name of the material that names steel but no grade, or None.
+
+    For a member whose materials are steel (:func:`element_class`) and gave no yield
+    stress: the first material whose Name or Category names steel.  None for a member
+    without material, or whose materials name another class (never assumed steel).
+    """
+    if element_class(info) != STEEL:
+        return None
+    for mat in info.materials:
+        texts = [t for t in (mat.Name, getattr(mat, "Category", None)) if isinstance(t, str)]
+        if any(STEEL in text_classes(t) for t in texts):
+            return mat.Name if isinstance(mat.Name, str) else f"#{mat.id()}"
+    return None
+
+
+def assumed_grade(default_grade: str, family: str | None, thickness: float | None
+                  ) -> tuple[float | None, list[str]]:
+    """Fy (ksi) from ``--default-grade`` for a material that names steel but no grade.
 
     Args:
-        materials: the element's materials, in order.
+        default_grade: the grade the user gave (checked at start with
+            :func:`engine.materials.names_grade`).
         family: the profile family.
-        thickness: the section's thickest element, in (EN grades).
+        thickness: the section's thickest element, in (grades with bands).
 
     Returns:
-        (match or None, notes of every material tried).
+        (Fy or None, notes): the note states the assumption; None when the grade gives no
+        value for this section (A500 on a W shape, too thick), with the reason.
     """
-    notes: list[str] = []
-    for mat in materials:
-        found, gnotes = match_grade(material_text(mat), family, thickness)
-        notes.extend(gnotes)
-        if found is not None:
-            return found, notes
-    return None, notes
+    found, notes = match_grade(default_grade, family, thickness)
+    if found is None:
+        return None, [f"--default-grade {default_grade} gives no yield stress for this "
+                      f"member{': ' + '; '.join(notes) if notes else ''}"]
+    return found.fy, [f"Fy = {found.fy:.4g} ksi from --default-grade {default_grade} "
+                      f"(assumed: the material names no grade; {found.grade.source})"]
 
 
 def material_standard(materials: tuple[Entity, ...]) -> str | None:

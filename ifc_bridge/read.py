@@ -12,7 +12,7 @@ Per member, the extra columns say where each input came from:
 * ``length_source``: ``axis``, ``extrusion``, ``quantity``, ``analytical``, ``body`` or
   ``none``;
 * ``load_source``: ``analysis``, ``table``, ``pset`` joined with ``+``, or ``none``;
-* ``fy_source``: ``override``, ``material``, ``grade`` or ``none``.
+* ``fy_source``: ``override``, ``material``, ``grade``, ``default_grade`` or ``none``.
 
 Anything missing makes only that member "not checked" (``reason``), never the whole read.
 """
@@ -49,10 +49,11 @@ from stanchion.ifc_bridge.materials import (
     MaterialCache,
     MaterialInfo,
     YieldReader,
+    assumed_grade,
     element_class,
     element_material,
-    grade_yield,
     material_standard,
+    ungraded_steel,
 )
 from stanchion.ifc_bridge.profiles import ProfileSpec, profile_spec
 from stanchion.ifc_bridge.properties import (
@@ -131,9 +132,11 @@ class _Row:
 class _Reader:
     """State shared while reading one model."""
 
-    def __init__(self, model: ifcopenshell.file, units: ModelUnits) -> None:
+    def __init__(self, model: ifcopenshell.file, units: ModelUnits,
+                 default_grade: str | None = None) -> None:
         self.model = model
         self.units = units
+        self.default_grade = default_grade  # --default-grade, for steel naming no grade
         self.index = RelationIndex.build(model)
         self.shapes = ShapeReader()
         self.placements = PlanPositions()
@@ -287,11 +290,20 @@ class _Reader:
             if value is not None:
                 notes.append(f"Fy = {value:.4g} ksi from {where}")
                 return value, "material", notes
-        found, gnotes = grade_yield(row.material.materials, family, thickness)
+        eid = row.element.id()
+        etype = self.index.type_of.get(eid)
+        defs = self.index.definitions.get(eid, []) + (
+            self.index.property_definitions(etype) if etype is not None else [])
+        found, gnotes = self.yields.grade(row.material.materials, family, thickness, defs)
         notes.extend(gnotes)
         if found is not None:
             notes.append(found.note)
             return found.fy, "grade", notes
+        if self.default_grade and ungraded_steel(row.material) is not None:
+            value, dnotes = assumed_grade(self.default_grade, family, thickness)
+            notes.extend(dnotes)
+            if value is not None:
+                return value, "default_grade", notes
         return math.nan, "none", notes
 
 
@@ -358,8 +370,7 @@ class _Columns:
         notes.extend(fnotes)
         self.fy[i] = value
         if fy_source == "none" and not broken:
-            why.append(f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield "
-                       "stress and no recognised grade in the material name)")
+            why.append(_no_yield_reason(r.material))
         self.length[i] = r.length
         for a in AXES:
             self.k[a][i] = r.design.k.get(a, 1.0)
@@ -401,6 +412,17 @@ class _Columns:
         """The writer columns as arrays (x, y float; the others object)."""
         return {key: np.array(self.extra[key], dtype=float if key in ("x", "y") else object)
                 for key in EXTRA_COLUMNS}
+
+
+def _no_yield_reason(material: MaterialInfo) -> str:
+    """Why a member has no yield stress, naming a steel material that names no grade."""
+    steel = ungraded_steel(material)
+    if steel is not None:
+        return (f"{NO_YIELD}: material '{steel}' names no grade (no Stanchion_Design."
+                "YieldStress, no material yield stress or grade property; --default-grade "
+                "would assume one)")
+    return (f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield stress and no "
+            "recognised grade in the material name)")
 
 
 def _section_reasons(r: _Row, resolution_reason: str | None) -> list[str]:
@@ -468,6 +490,7 @@ def read_columns(
     loads_table: LoadTable | None = None,
     analysis_members: bool = False,
     force_unit: GivenUnit | None = None,
+    default_grade: str | None = None,
 ) -> ReadResult:
     """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
 
@@ -482,6 +505,9 @@ def read_columns(
             (:func:`ifc_bridge.loads.match_table`).
         force_unit: the unit the model's forces are read in when it declares none
             (``--force-unit``; :func:`ifc_bridge.units.read_units`).
+        default_grade: the grade assumed for members whose materials name steel but no
+            grade (``--default-grade``; :func:`ifc_bridge.materials.assumed_grade`); never
+            for members without a material.
 
     Returns:
         :class:`ReadResult`.
@@ -499,7 +525,8 @@ def read_columns(
     was_enabled = gc.isenabled()
     gc.disable()
     try:
-        return _read(model, include_members, loads_table, analysis_members, force_unit)
+        return _read(model, include_members, loads_table, analysis_members, force_unit,
+                     default_grade)
     finally:
         if was_enabled:
             gc.enable()
@@ -531,11 +558,12 @@ def _unitless_table_message(table: LoadTable) -> str:
 
 def _read(model: ifcopenshell.file, include_members: bool,
           table: LoadTable | None, analysis_members: bool = False,
-          force_unit: GivenUnit | None = None) -> ReadResult:
+          force_unit: GivenUnit | None = None, default_grade: str | None = None
+          ) -> ReadResult:
     units = read_units(model, force_unit)
     if table is not None and table.uses_model_unit and not units.declared["force"]:
         raise ModelReadError(_unitless_table_message(table))
-    reader = _Reader(model, units)
+    reader = _Reader(model, units, default_grade)
     elements = select_elements(model, reader.index, include_members)
     messages = [m for m in [skipped_members(model, reader.index)] if m] if include_members else []
     if analysis_members or not elements:
