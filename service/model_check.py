@@ -27,6 +27,7 @@ from stanchion.ifc_bridge.model import open_model
 from stanchion.ifc_bridge.read import ReadResult, read_columns
 from stanchion.ifc_bridge.units import GivenUnit
 from stanchion.ifc_bridge.write import checked_now, write_results
+from stanchion.service.default_grade import state_default_grade
 from stanchion.service.errors import InputError
 from stanchion.service.lenient import add_lenient_warnings
 from stanchion.service.load_table import given_force_unit, read_load_table
@@ -69,8 +70,8 @@ class ModelCheck:
 
 
 def _read(path: Path, include_members: bool, loads_table: Path | None,
-          force_unit: str | None = None, problems: list[Damage] | None = None
-          ) -> tuple[ifcopenshell.file, ReadResult]:
+          force_unit: str | None = None, problems: list[Damage] | None = None,
+          default_grade: str | None = None) -> tuple[ifcopenshell.file, ReadResult]:
     """Open the model and read its columns (the load table first: it is smaller).
 
     With ``problems`` (``--lenient``) a damaged model is read and its damage listed there.
@@ -81,7 +82,8 @@ def _read(path: Path, include_members: bool, loads_table: Path | None,
     try:
         model = open_model(path, problems=problems)
         return model, read_columns(model, include_members=include_members, loads_table=table,
-                                   force_unit=GivenUnit(*given) if given else None)
+                                   force_unit=GivenUnit(*given) if given else None,
+                                   default_grade=default_grade)
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
 
@@ -145,7 +147,7 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     with progress.phase(f"reading {path.name}"):
         problems: list[Damage] | None = [] if options.lenient else None
         model, read = _read(path, options.include_members, options.loads_table,
-                            options.force_unit, problems)
+                            options.force_unit, problems, options.default_grade)
     members = read.members
     if problems:
         add_lenient_warnings(model, members, problems, read.messages)
@@ -162,6 +164,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     report = build_report(members, results, dict(UNIT_SYSTEMS[units]),
                           messages=list(read.messages), suggestions=suggestions or None)
     _add_extra_fields(report, members, read.length_unit_factor)
+    if options.default_grade:
+        state_default_grade(report, members, options.default_grade)
     report["source"] = {
         "file": options.source_name or path.name,
         "schema": model.schema_identifier,

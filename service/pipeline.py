@@ -23,6 +23,7 @@ from pydantic import BaseModel, ConfigDict, Field, ValidationError
 
 from stanchion.engine.check import CheckResults
 from stanchion.engine.members import MemberTable
+from stanchion.service.default_grade import given_default_grade
 from stanchion.service.errors import InputError, validation_message
 from stanchion.service.load_table import given_force_unit
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
@@ -88,6 +89,9 @@ class CheckOptions(BaseModel):
         "pint knows)")
     lenient: bool = Field(
         False, description="check a damaged model anyway, with a model-level warning")
+    default_grade: str | None = Field(
+        None, description="grade assumed for members whose material names steel but no "
+        "grade (A992, S355, 345 MPa ...); stated in every output")
     include_members: bool = Field(False, description="also check IfcMember STRUT / POST")
     suggest: bool = Field(False, description="suggest sections for failing columns")
     utilization_limit: float | None = Field(
@@ -200,11 +204,13 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
                             ("--include-members", options.include_members),
                             ("--units", options.units), ("--suggest", options.suggest),
                             ("--force-unit", options.force_unit),
-                            ("--lenient", options.lenient)):
+                            ("--lenient", options.lenient),
+                            ("--default-grade", options.default_grade)):
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
-                                 "its own loads, units and candidates")
+                                 "its own loads, units, grades and candidates")
     given_force_unit(options.force_unit)  # InputError: not a force unit
+    given_default_grade(options.default_grade)  # InputError: names no grade
     if (options.utilization_limit is not None or options.oversized is not None
             or options.families) and not options.suggest:
         raise InputError("--utilization-limit, --oversized and --families go with --suggest")

@@ -129,7 +129,7 @@ class _MemberResult(_Contract):
         None, description="IFC input: where the loads came from (e.g. analysis, or none)")
     fy_source: str | None = Field(
         None, description="IFC input: where the yield stress came from (override, material, "
-        "grade or none)")
+        "grade, default_grade or none)")
     x: float | None = Field(None, description="IFC input: plan position x, in the report's "
                             "length unit")
     y: float | None = Field(None, description="IFC input: plan position y, in the report's "

@@ -74,6 +74,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
             method=args.method, units=args.units,
             loads_table=Path(args.loads) if args.loads else None,
             force_unit=args.force_unit, lenient=args.lenient,
+            default_grade=args.default_grade,
             include_members=args.include_members, suggest=args.suggest,
             utilization_limit=args.utilization_limit, oversized=args.oversized,
             families=tuple(args.families) if args.families else None,
@@ -137,6 +138,11 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      help="check a damaged model anyway (cut short, lines the parser "
                      "skipped, references to missing instances) with a warning naming the "
                      "columns it touches; refused by default")
+    inp.add_argument("--default-grade", metavar="GRADE",
+                     help="grade assumed for columns whose material names steel but no "
+                     "grade ('Steel', 'Structural Steel'), e.g. A992, S355, '345 MPa'; "
+                     "stated in every output; never for columns without a material. "
+                     "Without it such columns are not checked")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
     gate = c.add_argument_group("pass / fail")

@@ -11,6 +11,7 @@ from fastapi import APIRouter, Request
 from fastapi.responses import JSONResponse
 from starlette.exceptions import HTTPException
 
+from stanchion.service.default_grade import given_default_grade
 from stanchion.service.errors import InputError
 from stanchion.service.http.dependencies import AUTH, RunnerDep, SettingsDep, StoreDep
 from stanchion.service.http.errors import FieldError
@@ -42,6 +43,10 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
                            "optional: the force unit of a model that declares none and of "
                            "the load table's columns whose header names none (kip, kN, N, "
                            "lbf, MN or another force unit; the command line's --force-unit)"},
+            "default_grade": {"type": "string", "maxLength": 60, "description":
+                              "optional: the grade assumed for columns whose material names "
+                              "steel but no grade (A992, S355, 345 MPa ...; the command "
+                              "line's --default-grade), stated in every output"},
         }}}}}},
 )
 async def upload_model(request: Request, settings: SettingsDep, store: StoreDep,
@@ -69,7 +74,8 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
         try:
             parts = await receive_form(
                 request.stream(), boundary, incoming, max_bytes=settings.max_upload_bytes,
-                file_fields={"file", "loads"}, text_fields={"design_method", "force_unit"},
+                file_fields={"file", "loads"},
+                text_fields={"design_method", "force_unit", "default_grade"},
             )
         except UploadTooLarge:
             raise HTTPException(413, f"the upload is larger than {settings.max_upload_mb:g} "
@@ -113,6 +119,14 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
         given_force_unit(force_unit, "force_unit")
     except InputError as exc:
         raise FieldError(422, str(exc).removeprefix("force_unit: "), "force_unit") from None
+    grade_part = parts.get("default_grade")
+    try:
+        grade = given_default_grade(  # a field left blank: not given
+            (grade_part.value or "").strip() or None if grade_part is not None else None,
+            "default_grade")
+    except InputError as exc:
+        raise FieldError(422, str(exc).removeprefix("default_grade: "), "default_grade"
+                         ) from None
     model.path.rename(folder / f"model{suffix}")
     loads = parts.get("loads")
     loads_name = None
@@ -124,5 +138,5 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     elif loads is not None:  # an empty, unnamed part: a form field left blank
         loads.path.unlink(missing_ok=True)
     return {"model": f"model{suffix}", "filename": filename, "design_method": method,
-            "force_unit": force_unit, "loads": loads_name,
+            "force_unit": force_unit, "default_grade": grade, "loads": loads_name,
             "loads_filename": loads.filename if loads is not None and loads_name else None}

@@ -1,0 +1,46 @@
+"""A model job takes ``default_grade`` (the command line's ``--default-grade``; issue 14).
+
+Validated like the option: a text naming no grade is 422 naming the field.  The job runs in
+a real worker process (the default worker command, the real pipeline).
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+from fastapi.testclient import TestClient
+
+from stanchion.service.http.app import create_app
+from stanchion.service.http.settings import Settings
+from tests.service.cli.test_default_grade import ASSUMED, _model
+from tests.service.http.test_app import _wait
+
+
+@pytest.fixture
+def client(tmp_path: Path):
+    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
+                    raise_server_exceptions=False) as c:
+        yield c
+
+
+def test_the_default_grade_is_applied_and_stated(client: TestClient, tmp_path) -> None:
+    model = _model(tmp_path).read_bytes()
+    r = client.post("/v1/models", files={"file": ("frame.ifc", model)},
+                    data={"default_grade": "A992"})
+    assert r.status_code == 202, r.text
+    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    assert job["status"] == "done", job
+    report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
+    c1 = next(m for m in report["members"] if m["name"] == "C1")
+    assert c1["fy_source"] == "default_grade"
+    assert any(m.startswith(ASSUMED) for m in c1["messages"])
+    assert report["design_basis"].endswith("assumed from --default-grade A992")
+
+
+def test_an_unknown_grade_is_422_naming_the_field(client: TestClient, tmp_path) -> None:
+    model = _model(tmp_path).read_bytes()
+    r = client.post("/v1/models", files={"file": ("frame.ifc", model)},
+                    data={"default_grade": "A999"})
+    assert r.status_code == 422, r.text
+    assert "default_grade" in r.text and "names no grade" in r.text
