@@ -23,6 +23,7 @@ import math
 
 import ifcopenshell
 import ifcopenshell.util.placement
+import numpy as np
 
 from stanchion.ifc_bridge.access import Entity, get
 from stanchion.ifc_bridge.relations import RelationIndex
@@ -156,24 +157,29 @@ class PlanPositions:
                 return math.nan, math.nan
             low = min(ends, key=lambda p: p[2])  # the foot of an analysis member
             return low[0], low[1]
-        try:
-            if placement.is_a("IfcLocalPlacement"):
-                location = get(get(placement, "RelativePlacement"), "Location")
-                coords = list(get(location, "Coordinates"))
-                parent = get(placement, "PlacementRelTo")
-                x, y, z = (list(map(float, coords)) + [0.0, 0.0, 0.0])[:3]
-                if parent is None:
-                    return x, y
-                key = parent.id()
-                if key not in self._parents:
-                    m = ifcopenshell.util.placement.get_local_placement(parent)
-                    self._parents[key] = tuple(tuple(float(v) for v in m[r]) for r in (0, 1))
-                (a, b, c, d), (e, f, g, h) = self._parents[key]
-                return a * x + b * y + c * z + d, e * x + f * y + g * z + h
-            matrix = ifcopenshell.util.placement.get_local_placement(placement)
-            return float(matrix[0, 3]), float(matrix[1, 3])
+        try:  # numpy's warnings off: a damaged zero or 1e300 direction gives NaN, not stderr
+            with np.errstate(all="ignore"):
+                return self._placed(placement)
         except Exception:  # grid / linear placements this reader does not evaluate
             return math.nan, math.nan
+
+    def _placed(self, placement: Entity) -> tuple[float, float]:
+        """Plan position of an ObjectPlacement (raises for kinds not evaluated)."""
+        if placement.is_a("IfcLocalPlacement"):
+            location = get(get(placement, "RelativePlacement"), "Location")
+            coords = list(get(location, "Coordinates"))
+            parent = get(placement, "PlacementRelTo")
+            x, y, z = (list(map(float, coords)) + [0.0, 0.0, 0.0])[:3]
+            if parent is None:
+                return x, y
+            key = parent.id()
+            if key not in self._parents:
+                m = ifcopenshell.util.placement.get_local_placement(parent)
+                self._parents[key] = tuple(tuple(float(v) for v in m[r]) for r in (0, 1))
+            (a, b, c, d), (e, f, g, h) = self._parents[key]
+            return a * x + b * y + c * z + d, e * x + f * y + g * z + h
+        matrix = ifcopenshell.util.placement.get_local_placement(placement)
+        return float(matrix[0, 3]), float(matrix[1, 3])
 
 
 def _predefined_label(value: str | None) -> str:

@@ -22,6 +22,7 @@ the cases, their attributes and their axial forces, and says so in the messages.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 
@@ -59,7 +60,14 @@ def _axial_forces(load: Entity | None, holder: Entity) -> list[float]:
         raise ModelReadError(f"damaged model: #{holder.id()} {holder.is_a()} holds "
                              f"{describe(load)} where an IfcStructuralLoad belongs")
     if load.is_a("IfcStructuralLoadSingleForce"):
-        return [float(load.ForceX)] if load.ForceX is not None else []
+        force = load.ForceX
+        if force is None:
+            return []
+        if isinstance(force, bool) or not isinstance(force, int | float) or not math.isfinite(
+                force):  # 'NaN' text, 1E400: reading past it would drop the result
+            raise ModelReadError(f"damaged model: #{load.id()} {load.is_a()}.ForceX holds "
+                                 f"{str(force)[:40]!r}, not a finite number")
+        return [float(force)]
     if load.is_a("IfcStructuralLoadConfiguration"):
         out: list[float] = []
         for value in load.Values or ():

@@ -11,6 +11,7 @@ with ifcopenshell.api and damaged in their STEP text, as the fuzz test's mutants
 from __future__ import annotations
 
 import re
+import warnings
 from pathlib import Path
 
 import pytest
@@ -131,3 +132,38 @@ def test_unit_whose_factor_is_another_class_is_refused(tmp_path: Path) -> None:
     with pytest.raises(ModelReadError, match=r"^damaged model: its length unit #\d+, an "
                        r"IfcConversionBasedUnit, cannot be read \(.*ValueComponent"):
         read_columns(open_model(damaged))
+
+
+def test_force_given_as_text_leaves_the_column_not_checked(builder, tmp_path: Path) -> None:
+    text, live, _ = _model_with_results(builder, tmp_path / "m.ifc")
+    force = builder.model.by_id(live).AppliedLoad.id()
+    damaged = tmp_path / "damaged.ifc"
+    # the fuzz test's case: ForceX written 'NaN' (a text); before, float('NaN') dropped the
+    # live load without a word and the column was checked with D = 120 kip alone
+    changed, count = re.subn(rf"^(#{force}=IFCSTRUCTURALLOADSINGLEFORCE\('[^']*',)[^,]+,",
+                             r"\1'NaN',", text, flags=re.MULTILINE)
+    assert count == 1
+    damaged.write_text(changed)
+    members = read_columns(open_model(damaged)).members
+    assert members.reason[0] == (
+        f"element could not be read (ModelReadError: damaged model: #{force} "
+        "IfcStructuralLoadSingleForce.ForceX holds 'NaN', not a finite number)")
+
+
+def test_zero_placement_direction_gives_no_numpy_warning(tmp_path: Path) -> None:
+    """The fuzz test's case: a parent placement's Axis (0, 0, 1) written (0, 0, 0).
+
+    Before, ifcopenshell.util.placement's normalisation printed "RuntimeWarning: invalid
+    value encountered in divide" on stderr; the plan position is then unknown (NaN).
+    """
+    sample = Path(__file__).resolve().parents[2] / "sample_models" / "garden_pavilion.ifc"
+    text = sample.read_text()
+    assert "#37=IFCDIRECTION((0.,0.,1.));" in text  # the axis of the site's placement
+    damaged = tmp_path / "damaged.ifc"
+    damaged.write_text(text.replace("#37=IFCDIRECTION((0.,0.,1.));",
+                                    "#37=IFCDIRECTION((0.,0.,0.));"))
+    with warnings.catch_warnings(record=True) as caught:
+        warnings.simplefilter("always")  # recorded, not raised: the reader catches errors
+        members = read_columns(open_model(damaged)).members
+    assert [str(w.message) for w in caught] == []
+    assert len(members) == 8  # sample_models/README.md: 8 columns
