@@ -50,12 +50,13 @@ from stanchion.engine.materials import (
     GradeMatch,
     match_grade,
     material_class,
+    names_grade,
     product_standard,
     text_classes,
 )
 from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.properties import PropertyValue, single_values, to_internal
-from stanchion.ifc_bridge.relations import RelationIndex
+from stanchion.ifc_bridge.relations import RelationIndex, describe, instance_of
 from stanchion.ifc_bridge.units import ModelUnits
 
 
@@ -121,7 +122,24 @@ def _from_select(select: Entity) -> MaterialInfo:
         first = profiles[0]
         profile = first.Profile
         materials = [p.Material for p in profiles if p.Material is not None]
+    materials, problem = _only_materials(materials, problem)
     return MaterialInfo(tuple(materials), profile, "", tuple(notes), problem)
+
+
+def _only_materials(materials: list[Entity], problem: str | None
+                    ) -> tuple[list[Entity], str | None]:
+    """The IfcMaterial entities, and the member's problem.
+
+    Another instance in their place is a damaged line (the fuzz test found tracebacks
+    reading its Name): no name or property is read off it, and it is the member's problem
+    (not checked) unless it has one already.
+    """
+    foreign = [m for m in materials if not instance_of(m, "IfcMaterial")]
+    if not foreign:
+        return materials, problem
+    problem = problem or (f"damaged model: {describe(foreign[0])} stands where an "
+                          "IfcMaterial belongs")
+    return [m for m in materials if instance_of(m, "IfcMaterial")], problem
 
 
 def element_material(
@@ -218,6 +236,13 @@ class YieldReader:
                     if _is_grade_property(prop) and isinstance(pv.value, str)
                     and pv.value.strip())
             found.extend(self._element_grades[key])
+        return tuple(found)
+
+    def grade_texts(self, materials: tuple[Entity, ...], element_definitions: list[Entity]
+                    ) -> tuple[str, ...]:
+        """The texts of every grade property of the materials and of the element."""
+        found = [text for m in materials for _, text in self.grade_properties(m)]
+        found.extend(text for _, text in self.element_grade_properties(element_definitions))
         return tuple(found)
 
     def grade(self, materials: tuple[Entity, ...], family: str | None,
@@ -320,14 +345,20 @@ def _lowest(texts: list[tuple[str, str]], family: str | None, thickness: float |
     return best
 
 
-def ungraded_steel(info: MaterialInfo) -> str | None:
+def ungraded_steel(info: MaterialInfo, grade_texts: tuple[str, ...] = ()) -> str | None:
     """The name of the material that names steel but no grade, or None.
 
     For a member whose materials are steel (:func:`element_class`) and gave no yield
     stress: the first material whose Name or Category names steel.  None for a member
-    without material, or whose materials name another class (never assumed steel).
+    without material, or whose materials name another class (never assumed steel), and
+    for one whose materials' names or ``grade_texts`` (their grade properties, the
+    element's) name a grade that gave no value (A500 on a W shape, too thick): that
+    material names a grade, and no default replaces it.
     """
     if element_class(info) != STEEL:
+        return None
+    texts = [material_text(m) for m in info.materials] + list(grade_texts)
+    if any(names_grade(t) for t in texts):
         return None
     for mat in info.materials:
         texts = [t for t in (mat.Name, getattr(mat, "Category", None)) if isinstance(t, str)]

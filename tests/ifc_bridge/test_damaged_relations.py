@@ -167,3 +167,21 @@ def test_zero_placement_direction_gives_no_numpy_warning(tmp_path: Path) -> None
         members = read_columns(open_model(damaged)).members
     assert [str(w.message) for w in caught] == []
     assert len(members) == 8  # sample_models/README.md: 8 columns
+
+
+def test_profile_material_of_another_class_leaves_the_column_not_checked(
+        builder, tmp_path: Path) -> None:
+    if builder.schema == "IFC2X3":
+        pytest.skip("IfcMaterialProfile is IFC4 and later")
+    builder.column("C1", profile=builder.profile("I", "W14X48", **W14X48),
+                   material=builder.material("A992"))
+    text = builder.write(tmp_path / "m.ifc").read_text()
+    material = builder.model.by_type("IfcMaterial")[0].id()
+    damaged = tmp_path / "damaged.ifc"
+    # the fuzz test's case: the material line renamed; before, AttributeError 'Name' from
+    # material_text stopped the whole read
+    damaged.write_text(_retype(text, material, "IFCCARTESIANPOINT"))
+    members = read_columns(open_model(damaged)).members
+    assert members.reason[0] is not None and members.reason[0].startswith(
+        f"damaged model: #{material}, an IfcCartesianPoint, stands where an IfcMaterial "
+        "belongs")
