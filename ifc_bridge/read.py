@@ -276,6 +276,18 @@ class _Reader:
             return self.spec(main.profile, main.scale), "body"
         return None, "none"
 
+    def definitions(self, row: _Row) -> list[Entity]:
+        """The property sets of the row's element and of its type."""
+        eid = row.element.id()
+        etype = self.index.type_of.get(eid)
+        return self.index.definitions.get(eid, []) + (
+            self.index.property_definitions(etype) if etype is not None else [])
+
+    def ungraded_steel(self, row: _Row) -> str | None:
+        """The steel material of a row that names no grade (ifc_bridge.materials)."""
+        texts = self.yields.grade_texts(row.material.materials, self.definitions(row))
+        return ungraded_steel(row.material, texts)
+
     def fy(self, row: _Row, family: str | None, thickness: float | None
            ) -> tuple[float, str, list[str]]:
         """Yield stress (ksi), its source and notes -- precedence in ifc_bridge.materials."""
@@ -290,16 +302,13 @@ class _Reader:
             if value is not None:
                 notes.append(f"Fy = {value:.4g} ksi from {where}")
                 return value, "material", notes
-        eid = row.element.id()
-        etype = self.index.type_of.get(eid)
-        defs = self.index.definitions.get(eid, []) + (
-            self.index.property_definitions(etype) if etype is not None else [])
-        found, gnotes = self.yields.grade(row.material.materials, family, thickness, defs)
+        found, gnotes = self.yields.grade(row.material.materials, family, thickness,
+                                          self.definitions(row))
         notes.extend(gnotes)
         if found is not None:
             notes.append(found.note)
             return found.fy, "grade", notes
-        if self.default_grade and ungraded_steel(row.material) is not None:
+        if self.default_grade and self.ungraded_steel(row) is not None:
             value, dnotes = assumed_grade(self.default_grade, family, thickness)
             notes.extend(dnotes)
             if value is not None:
@@ -370,7 +379,7 @@ class _Columns:
         notes.extend(fnotes)
         self.fy[i] = value
         if fy_source == "none" and not broken:
-            why.append(_no_yield_reason(r.material))
+            why.append(_no_yield_reason(reader.ungraded_steel(r)))
         self.length[i] = r.length
         for a in AXES:
             self.k[a][i] = r.design.k.get(a, 1.0)
@@ -414,9 +423,8 @@ class _Columns:
                 for key in EXTRA_COLUMNS}
 
 
-def _no_yield_reason(material: MaterialInfo) -> str:
+def _no_yield_reason(steel: str | None) -> str:
     """Why a member has no yield stress, naming a steel material that names no grade."""
-    steel = ungraded_steel(material)
     if steel is not None:
         return (f"{NO_YIELD}: material '{steel}' names no grade (no Stanchion_Design."
                 "YieldStress, no material yield stress or grade property; --default-grade "

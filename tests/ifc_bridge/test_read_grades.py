@@ -125,3 +125,13 @@ def test_default_grade_that_gives_no_value_for_the_section(builder):
     m = read_columns(builder.model, default_grade="A500 Gr C").members
     assert m.reason[0].startswith("no yield strength: material 'Steel' names no grade")
     assert any("--default-grade A500 Gr C gives no yield stress" in s for s in m.messages[0])
+
+
+def test_a_grade_that_gives_no_value_is_not_replaced_by_the_default(builder):
+    # ASTM A500 Grade C names a grade; on a W shape it gives no Fy (HSS only, ASTM A500):
+    # the member stays not checked for that reason, never takes --default-grade
+    _column(builder, _material(builder, "Steel ASTM A500 Grade C"))
+    m = read_columns(builder.model, default_grade="A992").members
+    assert m.extra["fy_source"][0] == "none"
+    assert "names no grade" not in m.reason[0]
+    assert any("applies to HSS only" in s for s in m.messages[0])
