@@ -1,6 +1,10 @@
 """ASCE 7-22 §4.7: reduction of uniformly distributed floor live loads L, vectorised over members.
 
-Written from memory of ASCE 7-22 Chapter 4 (to be confirmed against the printed standard):
+Written from memory of ASCE 7-22 Chapter 4 (to be confirmed against the printed standard).
+Cross-checked against older printings of the same rules: the KLL table matches ASCE 7-02
+Table 4-2 as reproduced in Brockenbrough & Merritt, *Structural Steel Designer's Handbook*,
+4th ed., Table 4.4, and the 400 ft², 0.50 / 0.40 and "20 %, but not less than L by the
+equation" rules match IBC §1607.11.1 / §1607.10.1 (the building code's copy of ASCE 7 §4.7):
 
 * §4.7.2, Eq. 4.7-1: L = Lo (0.25 + 15 / sqrt(KLL AT)) in US units (AT in ft²), or
   L = Lo (0.25 + 4.57 / sqrt(KLL AT)) in SI units (AT in m²); permitted only for members with

@@ -205,8 +205,11 @@ def _level_rows(level: Level, trib: Tributary, opts: TakedownOptions) -> _Own:
     p = level.loads
     n = len(level.ids)
     AT = trib.area
-    volume = cell_volumes(trib.cells, [s.outline for s in level.slabs],
-                          np.array([s.thickness for s in level.slabs], dtype=float))
+    if len(level.slabs) == 1:  # every cell lies within the one slab
+        volume = AT * float(level.slabs[0].thickness)
+    else:
+        volume = cell_volumes(trib.cells, [s.outline for s in level.slabs],
+                              np.array([s.thickness for s in level.slabs], dtype=float))
     own_weight = np.asarray(level.weight, float) / 12_000.0 * np.asarray(level.length, float)
     D = p.D * AT + p.slab_density * volume + np.nan_to_num(own_weight)
     Lo_AT = p.L * AT
