@@ -39,6 +39,8 @@ from stanchion.ifc_bridge.access import Entity, get_opt
 #: Bytes read on either side of a logged offset to find the statement it falls in (an
 #: instance with a long list of references fits; common practice, no source).
 _WINDOW = 256 * 1024
+#: The first, smaller look around an offset (most statements are one short line).
+_FIRST_WINDOW = 4 * 1024
 #: Problems located in the file one by one; beyond this many, the rest touch every element.
 MAX_LOCATED = 1000
 _STATEMENT_START = re.compile(rb"(?:^|[;\n])\s*#(\d+)\s*=", re.MULTILINE)
@@ -96,16 +98,22 @@ def statement_at(path: Path, offset: int) -> tuple[int | None, tuple[int, ...]]:
     Returns:
         (the statement's instance id or None, the ids it references, in order).
     """
-    start = max(0, offset - _WINDOW)
-    with path.open("rb") as fh:
-        fh.seek(start)
-        data = fh.read(offset - start + _WINDOW)
-    here = offset - start
-    heads = [m for m in _STATEMENT_START.finditer(data, 0, here + 1)]
+    window = _FIRST_WINDOW
+    while True:
+        start = max(0, offset - window)
+        with path.open("rb") as fh:
+            fh.seek(start)
+            data = fh.read(offset - start + window)
+        here = offset - start
+        heads = list(_STATEMENT_START.finditer(data, 0, here + 1))
+        end = _END.search(data, max(here, heads[-1].end())) if heads else None
+        found = heads and (end is not None or len(data) < offset - start + window)
+        if found or window >= _WINDOW:
+            break
+        window *= 8  # a long statement: look further
     if not heads:
         return None, ()
     head = heads[-1]
-    end = _END.search(data, max(here, head.end()))
     body = data[head.end():end.start() if end else len(data)]
     return int(head.group(1)), tuple(int(r) for r in _REFERENCE.findall(body))
 
@@ -196,7 +204,7 @@ def _missing_users(model: ifcopenshell.file, damage: list[Damage]) -> dict[int, 
     From the parser's "Instance reference #X used by instance #Y at attribute index K not
     found" entries, leaving out a relationship's list of the objects it serves.
     """
-    users: dict[int, list[Entity]] = {}
+    users: dict[int, list[Entity]] = {}  # each user with what a damaged one feeds (_kept)
     for item in damage:
         found = _DANGLING.search(item.text)
         if found is None:
@@ -204,7 +212,7 @@ def _missing_users(model: ifcopenshell.file, damage: list[Damage]) -> dict[int, 
         missing, user_id, index = (int(g) for g in found.groups())
         user = _by_id(model, user_id)
         if user is not None and not _near_side(user, index):
-            users.setdefault(missing, []).append(user)
+            users.setdefault(missing, []).extend(_kept(user))
     return users
 
 
@@ -218,15 +226,15 @@ def _starts(model: ifcopenshell.file, damage: Damage, users: dict[int, list[Enti
     read it and the instances the line names.
     """
     found = _DANGLING.search(damage.text)
-    if found is not None:
-        return [e for u in users.get(int(found.group(1)), []) for e in _kept(u)]
+    if found is not None:  # every entry naming the same missing instance: the same list
+        return users.get(int(found.group(1)), [])
     if damage.step_id is None:
         return None
     kept = _by_id(model, damage.step_id)
     if kept is not None:
         return _kept(kept)
     named = (_by_id(model, r) for r in damage.refs)
-    return [*(e for u in users.get(damage.step_id, []) for e in _kept(u)),
+    return [*users.get(damage.step_id, []),
             *(e for e in named if e is not None and not e.is_a("IfcOwnerHistory"))]
 
 
@@ -284,19 +292,32 @@ def touched_global_ids(model: ifcopenshell.file, damage: list[Damage]
     units = _unit_ids(model)
     users = _missing_users(model, damage)
     out: list[frozenset[str] | None] = []
+    known: dict[frozenset[int], frozenset[str] | None] = {}  # problems sharing their starts
+    known_lists: dict[int, tuple[list[Entity], frozenset[int]]] = {}  # key of a list, once
     for item in damage:
         starts = None if item.everywhere else _starts(model, item, users)
         if starts is None:
             out.append(None)
             continue
-        reached = _reach(model, starts)
-        if reached & units or any(s.is_a("IfcProject") for s in starts):
-            out.append(None)  # the units (or the project holding them) are read for all
-            continue
-        gids = set()
-        for rid in reached:
-            entity: Entity = model.by_id(rid)
-            if entity.is_a("IfcElement"):
-                gids.add(str(entity.GlobalId))
-        out.append(frozenset(gids))
+        held = known_lists.get(id(starts))
+        if held is None:  # the list is kept alive with its key, so its id stays its own
+            held = known_lists[id(starts)] = (starts, frozenset(s.id() for s in starts))
+        key = held[1]
+        if key not in known:
+            known[key] = _touched(model, starts, units)
+        out.append(known[key])
     return out
+
+
+def _touched(model: ifcopenshell.file, starts: list[Entity], units: set[int]
+             ) -> frozenset[str] | None:
+    """The GlobalIds of the elements reached from ``starts``; None: the units, so all."""
+    reached = _reach(model, starts)
+    if reached & units or any(s.is_a("IfcProject") for s in starts):
+        return None  # the units (or the project holding them) are read for every element
+    gids = set()
+    for rid in reached:
+        entity: Entity = model.by_id(rid)
+        if entity.is_a("IfcElement"):
+            gids.add(str(entity.GlobalId))
+    return frozenset(gids)

@@ -157,6 +157,19 @@ def _line_of(p: Path, position: int) -> int:
     return newlines + 1
 
 
+def _lines_of(p: Path, positions: list[int]) -> dict[int, int]:
+    """The 1-based line numbers of several byte positions of ``p``, in one pass."""
+    lines: dict[int, int] = {}
+    newlines, done = 0, 0
+    with p.open("rb") as fh:
+        for position in sorted(set(positions)):
+            while done < position and (chunk := fh.read(min(_CHUNK, position - done))):
+                newlines += chunk.count(b"\n")
+                done += len(chunk)
+            lines[position] = newlines + 1
+    return lines
+
+
 def _strip_trailing_comments(text: bytes) -> bytes:
     """``text`` without the whitespace and complete ``/* ... */`` comments at its end."""
     text = text.rstrip()
@@ -240,11 +253,12 @@ def _damage(p: Path, errors: list[tuple[int | None, str]]) -> list[Damage]:
     and count as touching every element.
     """
     out: list[Damage] = []
+    lines = _lines_of(p, [e[0] for e in errors if e[0] is not None])
     for offset, message in sorted(errors, key=lambda e: (e[0] is None, e[0] or 0)):
         if offset is None:
             out.append(Damage(message, everywhere=True))
             continue
-        line = _line_of(p, offset)
+        line = lines[offset]
         text = f"line {line}: {message}"
         if len(out) >= MAX_LOCATED:
             out.append(Damage(text, line, everywhere=True))

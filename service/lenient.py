@@ -37,6 +37,8 @@ def _touching(members: MemberTable, touched: frozenset[str] | None) -> list[int]
     """Rows of the members a problem touches (every row when ``touched`` is None)."""
     if touched is None:
         return list(range(len(members)))
+    if not touched:
+        return []
     return [i for i, gid in enumerate(members.id.tolist()) if gid in touched]
 
 
@@ -61,24 +63,33 @@ def add_lenient_warnings(model: ifcopenshell.file, members: MemberTable,
         messages: the run messages; the model-level warning is put first.
     """
     touched = touched_global_ids(model, problems)
-    rows = [_touching(members, t) for t in touched]
+    # problems touching the same elements share one set (touched_global_ids): one group each
+    groups: dict[int, tuple[list[int], list[int]]] = {}  # id(set) -> (rows, problem indices)
+    for k, t in enumerate(touched):
+        if id(t) not in groups:
+            groups[id(t)] = (_touching(members, t), [])
+        groups[id(t)][1].append(k)
+    rows = [groups[id(t)][0] for t in touched]
     parts = [f"{p} ({_what_it_touches(members, r, t is None)})"
              for p, r, t in zip(problems[:SHOWN], rows, touched, strict=False)]
     if len(problems) > SHOWN:
-        hit = {i for r in rows[SHOWN:] for i in r}
+        hit = set().union(*(groups[key][0] for key in {id(t) for t in touched[SHOWN:]}))
         parts.append(f"and {len(problems) - SHOWN} more problems touching "
                      f"{len(hit)} column(s)")
     messages.insert(0, f"{HEAD}: {'; '.join(parts)}; what the parser skipped is missing, "
                        "so the results of the columns it touches may be wrong")
-    by_row: dict[int, list[str]] = {}
-    for problem, found in zip(problems, rows, strict=True):
+    first: dict[int, list[int]] = {}  # row -> the earliest problems touching it (a few)
+    count: dict[int, int] = {}
+    for found, indices in groups.values():
         for i in found:
-            by_row.setdefault(i, []).append(str(problem))
+            first.setdefault(i, []).extend(indices[:SHOWN])
+            count[i] = count.get(i, 0) + len(indices)
+    by_row = {i: [str(problems[k]) for k in sorted(ks)[:SHOWN]] for i, ks in first.items()}
     for i, own in enumerate(list(members.messages)):
         hits = by_row.get(i)
         if hits:
-            shown = "; ".join(hits[:SHOWN]) + (f"; and {len(hits) - SHOWN} more"
-                                               if len(hits) > SHOWN else "")
+            shown = "; ".join(hits) + (f"; and {count[i] - SHOWN} more"
+                                       if count[i] > SHOWN else "")
             note = (f"{HEAD}: this column's inputs are touched by {shown}; its results may "
                     "be wrong")
         else:
