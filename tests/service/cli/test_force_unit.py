@@ -89,8 +89,9 @@ def test_a_model_without_a_force_unit_is_read_in_the_given_unit(tmp_path, capsys
     model = write_model(tmp_path / "model.ifc", units="mm_MPa",
                         loads={"C1": {"D": 100 / N_PER_KIP}, "C2": {"D": 100 / N_PER_KIP}})
     report, csv, out = tmp_path / "r.json", tmp_path / "r.csv", tmp_path / "checked.ifc"
+    junit = tmp_path / "j.xml"
     assert main(["check", str(model), "--force-unit", "kN", "--report", str(report),
-                 "--csv", str(csv), "--out", str(out)]) == 0
+                 "--csv", str(csv), "--junit", str(junit), "--out", str(out)]) == 0
     terminal = capsys.readouterr().out
     body = json.loads(report.read_text())
     # 1.4D = 1.4 x 100 kN / 4.4482216 kN per kip = 31.47 kip (ASCE 7-22 §2.3.1 comb. 1);
@@ -101,7 +102,7 @@ def test_a_model_without_a_force_unit_is_read_in_the_given_unit(tmp_path, capsys
     assert any(said in m for m in body["messages"]) and said in terminal
     note = "force read in kN, given on the command line (--force-unit)"
     assert all(note in m["messages"] for m in body["members"])
-    assert csv.read_text().count(note) == 2
+    assert csv.read_text().count(note) == 2 and junit.read_text().count(note) == 2
     assert any("KILO NEWTON (the unit given on the command line, --force-unit) was added"
                in m for m in body["messages"])
     checked = ifcopenshell.open(str(out))
