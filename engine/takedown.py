@@ -241,11 +241,13 @@ def _concat(rows: Sequence[_Own]) -> _Own:
 def _nearest(xy: FloatArray, candidates: FloatArray, tol: float) -> IntArray:
     """Index of the nearest candidate within ``tol`` of each point, -1 for none."""
     out = np.full(len(xy), -1, dtype=np.int64)
-    if len(xy) == 0 or len(candidates) == 0:
+    mine = np.flatnonzero(np.isfinite(xy).all(axis=1))
+    theirs = np.flatnonzero(np.isfinite(candidates).all(axis=1))
+    if len(mine) == 0 or len(theirs) == 0:
         return out
-    tree = shapely.STRtree(shapely.points(candidates))
-    (i, j) = tree.query_nearest(shapely.points(xy), max_distance=tol, all_matches=False)
-    out[i] = j
+    tree = shapely.STRtree(shapely.points(candidates[theirs]))
+    (i, j) = tree.query_nearest(shapely.points(xy[mine]), max_distance=tol, all_matches=False)
+    out[mine[i]] = theirs[j]
     return out
 
 
@@ -297,6 +299,8 @@ def _transfers(levels: Sequence[Level], tribs: Sequence[Tributary], start: IntAr
                 continue  # stands on the foundation
             m = int(below[-1])
             pt = shapely.points(np.asarray(lv.xy, float)[j])
+            if not np.isfinite(np.asarray(lv.xy, float)[j]).all():
+                continue  # no position: the column has a reason of its own
             holds = np.flatnonzero(shapely.intersects(tribs[m].cells, pt))
             pairs.extend((int(start[k] + j), int(start[m] + h)) for h in holds)
             if len(holds) == 0:
@@ -352,6 +356,9 @@ def takedown(levels: Sequence[Level], options: TakedownOptions | None = None) ->
         if down >= 0:
             reason[down] = (f"supports column {ids[up]} above, which has no column below it "
                             "(a transfer): its load is not taken down; give the loads")
+    nowhere = ~np.isfinite(np.concatenate([np.asarray(lv.xy, float).reshape(-1, 2)
+                                           for lv in levels])).all(axis=1)
+    reason[nowhere & (reason == None)] = "no plan position: no takedown"  # noqa: E711
     missing = reason != None  # noqa: E711 - object array
     for i in range(nl - 1, -1, -1):  # a transfer's load is missing all the way down
         idx = np.arange(start[i], start[i + 1])
@@ -401,9 +408,12 @@ def _messages(messages: list[list[str]], own: _Own, factor: FloatArray, KLL: Flo
             if factor[m] < 1.0:
                 messages[m].append(f"L reduced by ASCE 7-22 §4.7: factor {factor[m]:.2f} "
                                    f"(KLL = {KLL[m]:g}, {at})")
+            elif own.KAT_red[m] / _FT2 < llr.KLL_AT_MIN_FT2:
+                messages[m].append(f"L not reduced: KLL·AT below 400 ft² (37.16 m²), ASCE "
+                                   f"7-22 §4.7.2 (KLL = {KLL[m]:g}, {at})")
             else:
-                messages[m].append(f"L not reduced: KLL·AT below 400 ft² or §4.7.3/§4.7.4 "
-                                   f"limits (KLL = {KLL[m]:g}, {at})")
+                messages[m].append("L not reduced: heavy live load or garage under one floor "
+                                   f"(ASCE 7-22 §4.7.3, §4.7.4; KLL = {KLL[m]:g}, {at})")
         if own.L_full[m] > 0:
             messages[m].append("L of some floors not reduced (reduction not allowed there, or "
                                "assembly use, ASCE 7-22 §4.7.5)")

@@ -253,14 +253,18 @@ def tributary_areas(points: FloatArray, region: Any, *, tolerance: float = TOLER
         reason[:] = "the level has no slab"
         return Tributary(area, position, cantilever, orphan, reason, cells, coincident, notes)
     shapely.prepare(region)
-    gap = shapely.distance(region, shapely.points(pts))
+    known = np.isfinite(pts).all(axis=1)
+    gap = np.full(n, np.inf)
+    gap[known] = shapely.distance(region, shapely.points(pts[known]))
     on = gap <= tolerance
     filled = shapely.union_all(shapely.polygons(shapely.get_exterior_ring(
         shapely.get_parts(region))))
-    in_opening = ~on & shapely.contains_xy(filled, pts[:, 0], pts[:, 1])
+    in_opening = ~on & known
+    in_opening[in_opening] = shapely.contains_xy(filled, *pts[in_opening].T)
     for i in np.flatnonzero(~on):
-        reason[i] = ("in an opening of the slab" if in_opening[i]
-                     else f"not on a slab of the level ({gap[i]:.0f} in from the nearest)")
+        reason[i] = ("no plan position" if not known[i] else "in an opening of the slab"
+                     if in_opening[i] else
+                     f"not on a slab of the level ({gap[i]:.0f} in from the nearest)")
     idx = np.flatnonzero(on)
     if len(idx) == 0:
         return Tributary(area, position, cantilever, orphan, reason, cells, coincident, notes)

@@ -201,3 +201,30 @@ def test_messages_in_si_units():
 def test_empty():
     t = takedown([])
     assert t.loads.shape == (0, len(LOAD_TYPES))
+
+
+def test_small_area_and_heavy_single_floor_messages():
+    # a single 10 ft x 10 ft bay with 4 corner columns: AT = 25 ft² each, KLL AT = 100 < 400
+    xy = np.array([[0, 0], [120, 0], [0, 120], [120, 120]], dtype=float)
+    small = Level("L1", 168.0, [SlabPiece(shapely.box(0, 0, 120, 120), 6.0)],
+                  ["a", "b", "c", "d"], xy, np.full(4, 20.0), np.full(4, 168.0), FLOOR)
+    t = takedown([small])
+    assert t.loads[0, L] == pytest.approx(50 * 25 / 1000)  # 1.25 kip, not reduced
+    assert any("below 400 ft²" in m for m in t.messages[0])
+    heavy = dataclasses.replace(small, loads=dataclasses.replace(FLOOR, L=150 * PSF))
+    t = takedown([dataclasses.replace(heavy, slabs=[SlabPiece(shapely.box(0, 0, 9e3, 9e3),
+                                                              6.0)], xy=xy * 40)])
+    # 150 psf > 100 psf on one floor: never reduced (ASCE 7-22 §4.7.3)
+    assert t.llr_factor[0] == 1.0
+    assert any("§4.7.3" in m for m in t.messages[0])
+
+
+def test_column_without_plan_position_gets_a_reason():
+    levels = three_storeys()
+    xy = levels[1].xy.copy()
+    xy[INTERIOR] = np.nan
+    levels[1] = dataclasses.replace(levels[1], xy=xy)
+    t = takedown(levels)
+    assert t.reason[row(t, "L1-5")] == "no plan position: no takedown"
+    assert np.isnan(t.loads[row(t, "L1-5")]).all()
+    assert t.reason[row(t, "L2-5")] is None  # the column above is unaffected

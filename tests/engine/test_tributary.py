@@ -7,6 +7,8 @@ import time
 import numpy as np
 import pytest
 import shapely
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from stanchion.engine.live_load_reduction import CORNER, EDGE, INTERIOR, K_LL, OUTSIDE
 from stanchion.engine.tributary import cell_volumes, slab_region, tributary_areas
@@ -172,3 +174,29 @@ def test_two_thousand_columns_on_one_storey_are_fast():
     t = tributary_areas(pts, region)
     assert time.perf_counter() - t0 < 2.0
     assert t.area.sum() == pytest.approx(region.area)  # the cells tile the slab
+
+
+def test_column_without_a_plan_position():
+    pts = np.vstack([grid(), [[np.nan, 0.0]]])
+    t = tributary_areas(pts, slab_region([shapely.box(0, 0, 90 * FT, 90 * FT)]))
+    assert t.area[16] == 0.0 and t.reason[16] == "no plan position"
+    assert t.area[:16].sum() / FT2 == pytest.approx(8100.0)  # the others tile the slab
+
+
+@settings(max_examples=60, deadline=None)
+@given(seed=st.integers(0, 10_000), n=st.integers(1, 60))
+def test_cells_tile_the_slab_and_hold_their_column(seed, n):
+    # Property (Voronoi partition, no source needed): the cells of the columns on the slab
+    # tile it exactly, and each such column lies in (or on the edge of) its own cell.
+    rng = np.random.default_rng(seed)
+    pts = rng.uniform(0, 1000, (n, 2))
+    x0, y0 = rng.uniform(100, 700, 2)
+    region = slab_region([shapely.box(0, 0, 1000, 1000)],
+                         [shapely.box(x0, y0, x0 + rng.uniform(10, 200), y0 + 50)])
+    t = tributary_areas(pts, region)
+    on = t.reason == None  # noqa: E711 - object array
+    if on.any():
+        assert t.area.sum() == pytest.approx(region.area, rel=1e-9)
+    assert (t.area[~on] == 0).all()
+    for i in np.flatnonzero(on):
+        assert t.cells[i].distance(shapely.Point(pts[i])) < 1e-6
