@@ -149,7 +149,7 @@ class Takedown:
             R, W, E NaN.  NaN rows where ``reason`` is set.
         area: (n, len(level_names)) tributary area carried from each level, in².
         area_total: total tributary area carried, in².
-        floors: number of levels carried.
+        floors: number of levels the column carries some slab of (area > 0).
         KLL: influence-area weighted KLL of the floors whose L is reduced (NaN for none).
         llr_factor: L / Lo of the column (1 where nothing is reduced, NaN where L = 0).
         above: index of the column above, -1 for none.
@@ -213,6 +213,8 @@ def _level_rows(level: Level, trib: Tributary, opts: TakedownOptions) -> _Own:
     own_weight = np.asarray(level.weight, float) / 12_000.0 * np.asarray(level.length, float)
     D = p.D * AT + p.slab_density * volume + np.nan_to_num(own_weight)
     Lo_AT = p.L * AT
+    if p.use not in llr.USE_CODES:
+        raise ValueError(f"level {level.name}: use {p.use!r} is none of {sorted(llr.USE_CODES)}")
     use = llr.USE_CODES[p.use]
     if p.L > llr.HEAVY_LIVE_LOAD_PSF * _PSF and use == llr.NORMAL:
         use = llr.HEAVY
@@ -228,7 +230,7 @@ def _level_rows(level: Level, trib: Tributary, opts: TakedownOptions) -> _Own:
         AT_red=AT.copy() if reducible else zero.copy(),
         KAT_red=KLL * AT if reducible else zero.copy(),
         n_red=carries.astype(float) if reducible else zero.copy(),
-        floors=np.ones(n),
+        floors=carries.astype(float),
         unknown=~np.isfinite(own_weight),
         orphan=trib.orphan_area.copy(),
     )

@@ -228,3 +228,18 @@ def test_column_without_plan_position_gets_a_reason():
     assert t.reason[row(t, "L1-5")] == "no plan position: no takedown"
     assert np.isnan(t.loads[row(t, "L1-5")]).all()
     assert t.reason[row(t, "L2-5")] is None  # the column above is unaffected
+
+
+def test_column_in_an_opening_of_one_level():
+    # L2 has a 4 ft x 4 ft opening around (30, 30) ft: its column there carries none of L2
+    # (the neighbours' cells take that slab), but still carries the roof through the stack.
+    levels = three_storeys()
+    hole = shapely.box(28 * FT, 28 * FT, 32 * FT, 32 * FT)
+    levels[2] = dataclasses.replace(levels[2], openings=[hole])
+    t = takedown(levels)
+    i = row(t, "L1-5")
+    assert (t.area[i] / 144).tolist() == pytest.approx([900.0, 0.0, 900.0])
+    assert t.floors[i] == 2  # L1 and the roof
+    # L: only L1's 900 ft² reduced: one floor, KLL AT 3,600 -> 0.50: 45,000 x 0.5 = 22,500 lb
+    assert t.loads[i, L] == pytest.approx(22.5)
+    assert any("carries nothing of L2: in an opening" in m for m in t.messages[row(t, "L2-5")])
