@@ -17,9 +17,13 @@ the region with no column on it still goes to the columns whose cells reach it (
 not lost) and that area is returned per column (``orphan_area``) so that callers can say so.
 
 **Position** (for ASCE 7-22 Table 4.7-1, :func:`stanchion.engine.live_load_reduction.K_LL`),
-from the *free edges* of the clipped cell, the parts of its boundary that lie on the region's
-boundary (outer edge or an opening's edge, both alike; found as the cell's boundary segments
-whose midpoint and ends lie on the region's boundary):
+from the *free edges* of the clipped cell: the parts of its boundary that lie on the slab's
+outer edge (an opening cut into the edge is part of it), or on the edge of an opening inside
+the slab whose area is at least the cell's (a void of a bay or more, e.g. an atrium).  A
+smaller opening (stair, shaft, riser) only reduces AT: it no more changes the column's
+influence area to tributary area ratio than it changes the bay (common practice; the
+"at least the cell" limit is ours).  Free edges are found as the cell's boundary segments
+whose midpoint and ends lie on such an edge.
 
 * **interior**: the free edges total at most ``tolerance`` in length;
 * **corner**: the outward normals of the free edges (each longer than ``tolerance``) spread over
@@ -199,19 +203,46 @@ def _spread(owner: IntArray, angle: FloatArray, n: int) -> FloatArray:
     return out
 
 
+def _on_ring(rings: Any, a: FloatArray, b: FloatArray, eps: float) -> BoolArray:
+    """Segments whose ends and midpoint lie within ``eps`` of ``rings`` (one geometry)."""
+    shapely.prepare(rings)
+    on = np.ones(len(a), dtype=bool)
+    for p in (a, b, (a + b) / 2.0):
+        on &= shapely.dwithin(rings, shapely.points(p), eps)
+    return on
+
+
+def _free_segments(cells: ObjectArray, region: Any
+                   ) -> tuple[IntArray, FloatArray, FloatArray, FloatArray]:
+    """The cells' free edges (segment owner, ends and outward normal; module docstring).
+
+    On the region's outer boundary, or on a hole of the region at least as large as the cell.
+    """
+    owner, a, b, normal = _segments(cells)
+    parts = shapely.get_parts(region)
+    extent = float(np.max(np.ptp(np.asarray(shapely.bounds(region)).reshape(2, 2), axis=0)))
+    eps = 1e-7 * extent + 1e-9
+    free = _on_ring(shapely.multilinestrings(shapely.get_exterior_ring(parts)), a, b, eps)
+    rings, ring_part = shapely.get_rings(parts, return_index=True)
+    holes = rings[np.r_[False, ring_part[1:] == ring_part[:-1]]]
+    rest = np.flatnonzero(~free)
+    if len(holes) and len(rest):
+        seg, hole = shapely.STRtree(holes).query(shapely.points((a[rest] + b[rest]) / 2.0),
+                                                 predicate="dwithin", distance=eps)
+        seg = rest[seg]
+        big = shapely.area(shapely.polygons(holes[hole])) >= shapely.area(cells[owner[seg]])
+        seg, hole = seg[big], hole[big]
+        ends = (shapely.dwithin(holes[hole], shapely.points(a[seg]), eps)
+                & shapely.dwithin(holes[hole], shapely.points(b[seg]), eps))
+        free[seg[ends]] = True
+    return owner[free], a[free], b[free], normal[free]
+
+
 def _classify(points: FloatArray, cells: ObjectArray, region: Any, tolerance: float,
               cantilever_tolerance: float) -> tuple[IntArray, BoolArray]:
     """Position and cantilever of each cell's column (the rule of the module docstring)."""
     n = len(points)
-    owner, a, b, normal = _segments(cells)
-    boundary = shapely.boundary(region)
-    shapely.prepare(boundary)
-    extent = float(np.max(np.ptp(np.asarray(shapely.bounds(region)).reshape(2, 2), axis=0)))
-    eps = 1e-7 * extent + 1e-9
-    on = np.ones(len(owner), dtype=bool)
-    for p in (a, b, (a + b) / 2.0):
-        on &= shapely.dwithin(boundary, shapely.points(p), eps)
-    owner, a, b, normal = owner[on], a[on], b[on], normal[on]
+    owner, a, b, normal = _free_segments(cells, region)
     length = np.hypot(*(b - a).T)
     free_length = np.bincount(owner, weights=length, minlength=n)
     exterior = free_length > tolerance
