@@ -286,8 +286,9 @@ def touched_global_ids(model: ifcopenshell.file, damage: list[Damage]
         damage: the problems :func:`ifc_bridge.model.open_model` listed.
 
     Returns:
-        Per problem: the GlobalIds of the ``IfcElement`` instances it touches (empty when
-        none), or None when it touches every element (cut short, not placed, the units).
+        Per problem: the GlobalIds of the ``IfcProduct`` instances it touches (columns,
+        members, analysis members; empty when none), or None when it touches every
+        element (cut short, not placed, the units).
     """
     units = _unit_ids(model)
     users = _missing_users(model, damage)
@@ -318,6 +319,6 @@ def _touched(model: ifcopenshell.file, starts: list[Entity], units: set[int]
     gids = set()
     for rid in reached:
         entity: Entity = model.by_id(rid)
-        if entity.is_a("IfcElement"):
+        if entity.is_a("IfcProduct"):
             gids.add(str(entity.GlobalId))
     return frozenset(gids)

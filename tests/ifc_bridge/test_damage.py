@@ -64,7 +64,8 @@ def _rename(step_id: int):
 
 def _names(model, touched) -> list[list[str] | None]:
     names = {c.GlobalId: c.Name for c in model.by_type("IfcColumn")}
-    return [None if t is None else sorted(names[g] for g in t) for t in touched]
+    # the columns among the products touched (analysis members, storeys ... left out)
+    return [None if t is None else sorted(names[g] for g in t if g in names) for t in touched]
 
 
 def test_deleted_result_touches_only_its_column(tmp_path, three):
@@ -142,3 +143,16 @@ def test_a_sound_model_is_read_the_same_after_the_search(tmp_path, three):
     before = read_columns(model).members.loads
     touched_global_ids(model, problems)
     np.testing.assert_array_equal(read_columns(model).members.loads, before)
+
+
+def test_the_analysis_member_of_a_deleted_result_is_touched_too(tmp_path, three):
+    # members may also be read from analysis members (IfcStructuralCurveMember, a product
+    # but no IfcElement): the search names any product, the caller keeps its own rows
+    builder, cols, parts = three
+    member = next(r.RelatingProduct for r in builder.model.by_type("IfcRelAssignsToProduct")
+                  if cols[1] in r.RelatedObjects)
+    problems, model = _damaged(tmp_path, builder, _delete(parts["reaction"].id()))
+    touched = touched_global_ids(model, problems)
+    assert len(touched) == 2 and all(touched)
+    assert all(member.GlobalId in t and cols[1].GlobalId in t for t in touched if t)
+    assert all(cols[0].GlobalId not in t for t in touched if t)
