@@ -20,9 +20,19 @@ H is the larger outside dimension so that the engine's x axis is the major axis 
 the profile's orientation (Stanchion_Design's X/Y are the section's major/minor axes).
 
 IfcAsymmetricIShapeProfileDef is read (family ``ASYM_I``) only so that a catalog name can be
-verified against it; it cannot be checked from its dimensions.  Angles (IfcLShapeProfileDef)
-and every other profile type (arbitrary, composite, derived, C, Z, ellipse ...) are
-unsupported: the reason names the profile type.
+verified against it; it cannot be checked from its dimensions.
+
+Outlines (:func:`outline_spec`): ``IfcArbitraryClosedProfileDef``,
+``IfcArbitraryProfileDefWithVoids`` and an ``IfcDerivedProfileDef`` of either are read by
+:func:`ifc_bridge.outlines.outline_of`, converted to inches (model length unit times the
+mapping scale) and analysed by :func:`engine.outlines.outline_section`; the spec carries the
+recognised family with its dimensions under the builder names above (a tube's ``t`` is the
+outline's nominal wall) and the outline itself, which ``ifc_bridge.sections`` analyses again
+with the tube standard of the member (a cache hit for every other family).  An outline that
+cannot be read, fits no family, or is an angle gives the reason.
+
+Angles (IfcLShapeProfileDef) and every other profile type (composite, C, Z, ellipse ...)
+are unsupported: the reason names the profile type.
 """
 
 from __future__ import annotations
@@ -30,7 +40,11 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Any
 
+import ifcopenshell
+
+from stanchion.engine.outlines import Outline, outline_section
 from stanchion.ifc_bridge.access import Entity
+from stanchion.ifc_bridge.outlines import outline_of
 
 #: family -> (IFC class, builder names in order)
 FAMILIES: dict[str, tuple[str, tuple[str, ...]]] = {
@@ -57,6 +71,8 @@ class ProfileSpec:
         dims: builder dimensions in inches (None where the model leaves an optional one unset).
         notes: member messages (sloped flanges treated as parallel, ...).
         problem: why the profile cannot be used (unsupported type, missing dimension).
+        outline: the profile's outline in inches (arbitrary profiles only); compared by
+            identity, so the members sharing a profile definition share one spec.
     """
 
     ifc_class: str
@@ -65,6 +81,7 @@ class ProfileSpec:
     dims: tuple[tuple[str, float | None], ...] = ()
     notes: tuple[str, ...] = ()
     problem: str | None = None
+    outline: Outline | None = None
 
     def dim(self, key: str) -> float | None:
         """One dimension by builder name."""
@@ -176,3 +193,58 @@ def profile_spec(profile: Entity | None, length_factor: float, scale: float = 1.
         return ProfileSpec(cls, name, family, ordered, notes,
                            problem=f"profile {label} has no usable {', '.join(missing)}")
     return ProfileSpec(cls, name, family, ordered, notes)
+
+
+#: Builder names of the dimensions an outline's family gives (engine.outline_families.Fit).
+_OUTLINE_DIMS: dict[str, tuple[str, ...]] = {
+    "I": ("d", "bf", "tw", "tf", "r"), "U": ("d", "bf", "tw", "tf", "r"),
+    "T": ("d", "bf", "tw", "tf", "r"), "HSS": ("H", "B", "t", "r_out"),
+    "HSS_ROUND": ("D", "t"), "RECT": ("H", "B"), "ROUND": ("D",),
+}
+
+
+def is_outline(profile: Entity) -> bool:
+    """Whether the profile is an arbitrary one (or derived from one) read as an outline.
+
+    Args:
+        profile: an IfcProfileDef.
+    """
+    while profile is not None and profile.is_a("IfcDerivedProfileDef"):
+        profile = _get(profile, "ParentProfile")
+    return profile is not None and bool(profile.is_a("IfcArbitraryClosedProfileDef"))
+
+
+def outline_spec(model: ifcopenshell.file, profile: Entity, length_factor: float,
+                 scale: float = 1.0, angle_scale: float | None = None) -> ProfileSpec:
+    """Read an arbitrary profile as an outline: family and dimensions, or the reason.
+
+    Args:
+        model: the IFC model (its plane-angle unit, when ``angle_scale`` is None).
+        profile: an IfcProfileDef for which :func:`is_outline` holds.
+        length_factor: model length unit -> inch.
+        scale: mapping scale of the representation the profile came from.
+        angle_scale: radians per model plane-angle unit
+            (:func:`ifc_bridge.outlines.plane_angle_scale`), when the caller has it.
+
+    Returns:
+        A :class:`ProfileSpec` with the outline; ``problem`` is set when it cannot be used
+        (``family`` ``"L"`` for an angle).
+    """
+    cls = profile.is_a()
+    raw_name = _get(profile, "ProfileName")
+    name = str(raw_name).strip() or None if raw_name is not None else None
+    label = f"{cls} '{name}'" if name else cls
+    outline, problem = outline_of(model, profile, angle_scale)
+    if outline is None:
+        return ProfileSpec(cls, name, None, problem=f"profile {label}: {problem}")
+    inches = outline.scaled(length_factor * scale)
+    found = outline_section(inches, name or cls)
+    if found.reason is not None:
+        return ProfileSpec(cls, name, found.family, problem=f"profile {label}: {found.reason}",
+                           outline=inches)
+    dims = dict(found.dims)
+    if "t_nominal" in dims:
+        dims["t"] = dims["t_nominal"]
+    family = found.family or ""
+    ordered = tuple((k, dims.get(k)) for k in _OUTLINE_DIMS[family])
+    return ProfileSpec(cls, name, family, ordered, outline=inches)

@@ -55,7 +55,8 @@ from stanchion.ifc_bridge.materials import (
     material_standard,
     ungraded_steel,
 )
-from stanchion.ifc_bridge.profiles import ProfileSpec, profile_spec
+from stanchion.ifc_bridge.outlines import plane_angle_scale
+from stanchion.ifc_bridge.profiles import ProfileSpec, is_outline, outline_spec, profile_spec
 from stanchion.ifc_bridge.properties import (
     AXES,
     DESIGN_PSET,
@@ -143,6 +144,7 @@ class _Reader:
         self.analysis = AnalysisLoads(self.index, units)
         self.yields = YieldReader(model, self.index, units)
         self._specs: dict[tuple[int, float], ProfileSpec] = {}
+        self._angle: float | None = None  # radians per plane-angle unit, when first needed
         self._values: dict[int, dict[str, PropertyValue]] = {}
         self._designs: dict[tuple[int, int], DesignInputs] = {}
         self._materials: MaterialCache = {}
@@ -185,9 +187,16 @@ class _Reader:
         return self._designs[key]
 
     def spec(self, profile: Entity, scale: float) -> ProfileSpec:
+        """The profile's spec, read once per (profile definition, mapping scale)."""
         key = (profile.id(), scale)
         if key not in self._specs:
-            self._specs[key] = profile_spec(profile, self.units.length, scale)
+            if is_outline(profile):
+                if self._angle is None:
+                    self._angle = plane_angle_scale(self.model)
+                self._specs[key] = outline_spec(self.model, profile, self.units.length, scale,
+                                                self._angle)
+            else:
+                self._specs[key] = profile_spec(profile, self.units.length, scale)
         return self._specs[key]
 
     def row(self, element: Entity) -> _Row:
@@ -374,7 +383,7 @@ class _Columns:
         broken = r.profile_origin == BROKEN
         why = _section_reasons(r, res.reasons[i])
         notes.extend(res.notes[i])
-        family = r.spec.family if r.spec is not None else None
+        family = res.family[i] if res.family else None
         value, fy_source, fnotes = reader.fy(r, family, res.thickness[i])
         notes.extend(fnotes)
         self.fy[i] = value

@@ -11,8 +11,20 @@ Rules, per distinct profile (one computation per distinct spec, not per column):
   Database v16.0).  An HSS / pipe wall agrees when it matches the design thickness tdes, or
   when it is a nominal wall whose A500 design wall (:func:`engine.tubes.design_wall`) does.
 * Name in the catalog but dimensions disagree (or a profile type that cannot be that shape,
-  e.g. a W name on a hollow rectangle): checked with the modeled dimensions, and the member's
-  messages say so.
+  e.g. a W name on a hollow rectangle): not checked, the reason naming the name and the
+  dimensions.  Name and geometry must agree: a safety check does not pick one of two
+  contradicting descriptions of a member (common practice, no source).
+* A designation of another standard (``engine.designations``: EN 10365, BS 4-1, AS/NZS
+  3679, EN 10210 / 10219) on a usable geometry: the section from the geometry, cross-checked
+  by :func:`engine.designations.agrees` -- agreement is a message, disagreement the reason
+  the member is not checked.  Without usable geometry (a profile type that is not read, an
+  outline that cannot be read or fits no family, a missing dimension): the section the name
+  determines (:func:`engine.designations.section_from_designation`: tubes, IPE, HE, UPE),
+  else not checked with its reason ("... dimensions from the model's geometry are needed").
+  Never the nearest AISC shape.
+* Outlines (arbitrary profiles, ``ProfileSpec.outline``): the section of the outline
+  (:func:`engine.outlines.outline_section`, basis ``outline``), checked against a catalog
+  or other name as above.
 * Name not in the catalog, or no name: properties from the dimensions
   (``engine.section_properties``), with the catalog's "unknown section" text as a message.
 * Catalog angles, asymmetric I profiles that are not a verified catalog shape, unsupported
@@ -20,8 +32,9 @@ Rules, per distinct profile (one computation per distinct spec, not per column):
 
 HSS walls from dimensions: an IFC WallThickness is the nominal thickness of the tube; the
 design thickness is the engine's rule (:func:`engine.tubes.design_wall`) for the product
-standard named by the material (ASTM A500 / A53: 0.93 tnom; A1085, EN 10210 / 10219: tnom;
-unknown: 0.93 tnom, conservatively, with a message).
+standard of :func:`engine.tubes.tube_standard`: the material's, else the one an EN tube
+name gives (ASTM A500 / A53: 0.93 tnom; A1085, EN 10210 / 10219: tnom; unknown: 0.93 tnom,
+conservatively, with a message).
 """
 
 from __future__ import annotations
@@ -34,9 +47,16 @@ import numpy as np
 from stanchion.engine import section_properties as sp
 from stanchion.engine.arrays import IntArray
 from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
+from stanchion.engine.designations import (
+    Designation,
+    agrees,
+    designation_of,
+    section_from_designation,
+)
 from stanchion.engine.materials import band_thickness
+from stanchion.engine.outlines import outline_section
 from stanchion.engine.sections import Kind, SectionRow, SectionTable
-from stanchion.engine.tubes import catalog_wall_note, design_wall
+from stanchion.engine.tubes import catalog_wall_note, design_wall, tube_standard
 from stanchion.ifc_bridge.profiles import ProfileSpec
 
 AGREE = 0.02
@@ -73,6 +93,7 @@ class Resolution:
     notes: list[list[str]]
     reasons: list[str | None]
     thickness: list[float | None] = field(default_factory=list)
+    family: list[str | None] = field(default_factory=list)
 
 
 def _close(a: float | None, b: float) -> bool:
@@ -120,13 +141,20 @@ def _compare(spec: ProfileSpec, row: SectionRow) -> list[str]:
     return diffs
 
 
+def _tube_standard(req: SectionRequest) -> str | None:
+    """The tube standard of a member: its material's, else its EN tube name's (or None)."""
+    named = designation_of(req.spec.name)
+    std = tube_standard(req.standard, named.standard if named is not None else None)
+    return std.name if std is not None else None
+
+
 def _builder_dims(req: SectionRequest) -> dict[str, float | None]:
     """Arguments for the section_properties builder (design wall thickness applied)."""
     spec = req.spec
     dims = {k: v for k, v in spec.dims}
     t = dims.get("t")
     if spec.family in ("HSS", "HSS_ROUND") and t is not None:
-        t_design = design_wall(t, req.standard, spec.family)[0]
+        t_design = design_wall(t, _tube_standard(req), spec.family)[0]
         dims["t"] = t_design
         if spec.family == "HSS" and dims.get("r_out") is None:
             dims["r_out"] = 2.0 * t_design  # the builder's default (AISC practice)
@@ -139,64 +167,184 @@ def _wall_notes(req: SectionRequest) -> list[str]:
     if req.spec.family not in ("HSS", "HSS_ROUND") or t is None:
         return []
     return ["modeled WallThickness taken as the nominal wall; " + design_wall(
-        t, req.standard, req.spec.family)[1]]
+        t, _tube_standard(req), req.spec.family)[1]]
 
 
-def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable
-            ) -> tuple[int, list[str], str | None]:
-    """(catalog row or -1 for "from dimensions" or -2 for "not checked", notes, reason)."""
+#: Decision codes besides a catalog row index (>= 0).
+_DIMENSIONS, _NOT_CHECKED, _OWN_ROW = -1, -2, -3
+_FAMILY_OF_KIND = {Kind.I_SHAPE: "I", Kind.CHANNEL: "U", Kind.TEE: "T", Kind.RECT_HSS: "HSS",
+                   Kind.ROUND_HSS: "HSS_ROUND", Kind.SOLID_RECT: "RECT",
+                   Kind.SOLID_ROUND: "ROUND"}
+
+
+@dataclass
+class _Decision:
+    """One distinct request's outcome before the rows are gathered.
+
+    ``code``: a catalog row (>= 0), ``_DIMENSIONS`` (parametric builder), ``_NOT_CHECKED``
+    or ``_OWN_ROW`` (``table``: the outline's or the designation's row); ``basis`` the
+    provenance word; ``named``: a designation still to be cross-checked with the row.
+    """
+
+    code: int
+    notes: list[str] = field(default_factory=list)
+    reason: str | None = None
+    table: SectionTable | None = None
+    basis: str = ""
+    named: Designation | None = None
+    family: str | None = None
+
+
+def _not_checked(reason: str | None) -> _Decision:
+    return _Decision(_NOT_CHECKED, reason=reason)
+
+
+def _from_name(req: SectionRequest, named: Designation) -> _Decision:
+    """A profile without usable geometry whose name is a designation of another standard."""
+    spec = req.spec
+    built = section_from_designation(named, req.standard)
+    why = spec.problem or f"profile {spec.describe()} gives no usable geometry"
+    if built.section is None:
+        return _not_checked(f"{why}; {built.reason}")
+    notes = [f"{why}: the section is built from its name {named.label}", *built.notes]
+    return _Decision(_OWN_ROW, notes, table=built.section, basis="designation",
+                     family=_FAMILY_OF_KIND.get(named.kind))
+
+
+def _catalog(req: SectionRequest, cat_index: int, catalog: SectionTable) -> _Decision:
+    """A catalog name on a usable geometry: the tabulated row when they agree."""
+    spec = req.spec
+    row = catalog.row(cat_index)
+    designation = row["designation"]
+    if row["kind"] == Kind.UNSUPPORTED:
+        return _not_checked(unknown_section_reason(designation))
+    what = "outline" if spec.outline is not None else "modeled dimensions"
+    compatible = _COMPATIBLE.get(spec.family or "") == row["kind"]
+    diffs = _compare(spec, row) if compatible else [
+        f"the catalog shape is a {row['family']} but the model has "
+        + (f"a {spec.family} outline" if spec.outline is not None else spec.ifc_class)]
+    if diffs:
+        extra = ("; asymmetric I sections are not supported" if spec.family == "ASYM_I"
+                 else "; name and geometry must agree")
+        return _not_checked(f"{spec.describe()}: {what} disagree with catalog {designation} "
+                            f"({'; '.join(diffs)}){extra}")
+    notes = [f"section properties of {designation} from the catalog ({_CATALOG_SOURCE}); "
+             f"the {what} agree within 2 %"]
+    wall = catalog_wall_note(req.standard)
+    if wall and row["kind"] in (Kind.RECT_HSS, Kind.ROUND_HSS):
+        notes.append(wall)
+    return _Decision(cat_index, notes, basis="catalog", family=spec.family)
+
+
+def _outline(req: SectionRequest, named: Designation | None) -> _Decision:
+    """An outline's own row (the tube wall by the member's standard)."""
+    spec = req.spec
+    assert spec.outline is not None
+    tube = spec.family in ("HSS", "HSS_ROUND")
+    found = outline_section(spec.outline, spec.label, _tube_standard(req) if tube else None)
+    if found.table is None:
+        return _not_checked(f"profile {spec.describe()}: {found.reason}")
+    notes = list(found.notes)
+    if spec.name and named is None:
+        notes.append(f"{unknown_section_reason(spec.name)}; properties from the outline")
+    return _Decision(_OWN_ROW, notes, table=found.table, basis="outline", named=named,
+                     family=spec.family)
+
+
+def _decide(req: SectionRequest, cat_index: int, catalog: SectionTable) -> _Decision:
+    """What one distinct profile request gives (see the module rules)."""
     spec = req.spec
     name = spec.name
+    named = designation_of(name) if cat_index < 0 else None
+    usable = spec.family is not None and spec.problem is None
+    if not usable and named is not None and spec.family != "L":
+        return _from_name(req, named)
     if spec.family is None:
         if name and cat_index >= 0:
-            return -2, [], (f"{spec.problem}; '{name}' is a catalog shape, but a profile of "
-                            "this type cannot confirm its dimensions")
-        if name:
-            return -2, [], f"{spec.problem}; {unknown_section_reason(name)}"
-        return -2, [], spec.problem
+            return _not_checked(f"{spec.problem}; '{name}' is a catalog shape, but a profile "
+                                "of this type cannot confirm its dimensions")
+        if name and named is None:
+            return _not_checked(f"{spec.problem}; {unknown_section_reason(name)}")
+        return _not_checked(spec.problem)
     if spec.problem:
-        return -2, [], spec.problem
+        return _not_checked(spec.problem)
     if cat_index >= 0:
-        row = catalog.row(cat_index)
-        designation = row["designation"]
-        if row["kind"] == Kind.UNSUPPORTED:
-            return -2, [], unknown_section_reason(designation)
-        compatible = _COMPATIBLE.get(spec.family) == row["kind"]
-        diffs = _compare(spec, row) if compatible else [
-            f"the catalog shape is a {row['family']} but the model has {spec.ifc_class}"]
-        if not diffs:
-            notes = [f"section properties of {designation} from the catalog "
-                     f"({_CATALOG_SOURCE})"]
-            wall = catalog_wall_note(req.standard)
-            if wall and row["kind"] in (Kind.RECT_HSS, Kind.ROUND_HSS):
-                notes.append(wall)
-            return cat_index, notes, None
-        if spec.family == "ASYM_I":
-            return -2, [], (f"{spec.describe()}: modeled dimensions disagree with catalog "
-                            f"{designation} ({'; '.join(diffs)}); asymmetric I sections are "
-                            "not supported")
-        return -1, [f"modeled dimensions disagree with catalog {designation} "
-                    f"({'; '.join(diffs)}); checked with the modeled dimensions"], None
+        return _catalog(req, cat_index, catalog)
+    if spec.outline is not None:
+        return _outline(req, named)
     if spec.family == "ASYM_I":
         what = f"'{name}' is not a catalog shape" if name else "no catalog name"
-        return -2, [], (f"asymmetric I profile (IfcAsymmetricIShapeProfileDef), {what}: "
-                        "not supported")
-    notes = []
-    if name:
-        notes.append(f"{unknown_section_reason(name)}; properties from the modeled dimensions")
+        return _not_checked(f"asymmetric I profile (IfcAsymmetricIShapeProfileDef), {what}: "
+                            "not supported")
+    if named is not None:
+        notes = []
+    elif name:
+        notes = [f"{unknown_section_reason(name)}; properties from the modeled dimensions"]
     else:
-        notes.append(f"unnamed {spec.ifc_class}: properties from the modeled dimensions")
-    return -1, notes, None
+        notes = [f"unnamed {spec.ifc_class}: properties from the modeled dimensions"]
+    return _Decision(_DIMENSIONS, notes, basis="dimensions", named=named, family=spec.family)
 
 
-def _thickest(spec: ProfileSpec) -> float | None:
+def _thickest(spec: ProfileSpec, row: SectionRow | None = None) -> float | None:
     """The thickness EN grades are banded by, in (:func:`engine.materials.band_thickness`)."""
+    if row is not None and spec.family is None:  # a section built from its name
+        return band_thickness("walls", (row["tw"], row["tf"]))
     dims = dict(spec.dims)
     if spec.family == "RECT":
         return band_thickness("solid_rect", (dims.get("B"), dims.get("D")))
     if spec.family == "ROUND":
         return band_thickness("solid_round", (dims.get("D"),))
     return band_thickness("walls", (dims.get(k) for k in ("tw", "tf", "t", "tf_top")))
+
+
+def _name_check(decided: _Decision, sections: SectionTable, row: int) -> None:
+    """Cross-check a designation with the row built from the geometry (in place)."""
+    named = decided.named
+    if named is None or row < 0:
+        return
+    problem = agrees(named, sections.row(row))
+    if problem is None:
+        decided.notes.append(f"profile name {named.label} agrees with the geometry (2 %)")
+        return
+    decided.reason = f"{problem}; name and geometry must agree"
+    decided.code = _NOT_CHECKED
+
+
+def _parametric(reqs: list[SectionRequest], decided: list[_Decision], offset: int
+                ) -> tuple[list[SectionTable], dict[int, int]]:
+    """Rows from the modeled dimensions, per family: (tables, request -> row)."""
+    tables: list[SectionTable] = []
+    rows: dict[int, int] = {}
+    by_family: dict[str, list[int]] = {}
+    for u, d in enumerate(decided):
+        family = reqs[u].spec.family
+        if d.code == _DIMENSIONS and family is not None:
+            by_family.setdefault(family, []).append(u)
+    for family, members in by_family.items():
+        dims = [_builder_dims(reqs[u]) for u in members]
+        keys = list(dims[0])
+        arrays = {k: np.array([dd[k] for dd in dims], dtype=float) for k in keys}
+        problems = sp.dimension_problems(family, **arrays)
+        good = [k for k, p in enumerate(problems) if not p]
+        for k, p in enumerate(problems):
+            if p:
+                u = members[k]
+                decided[u].code = _NOT_CHECKED
+                decided[u].reason = (f"profile {reqs[u].spec.describe()} has invalid "
+                                     f"dimensions: {p}")
+        if not good:
+            continue
+        sel = np.array(good, dtype=np.int64)
+        labels = np.array([reqs[members[k]].spec.label for k in good], dtype=object)
+        tables.append(_BUILDERS[family](**{k: v[sel] for k, v in arrays.items()},
+                                        label=labels))
+        for j, k in enumerate(good):
+            u = members[k]
+            rows[u] = offset + j
+            decided[u].notes.extend(reqs[u].spec.notes)
+            decided[u].notes.extend(_wall_notes(reqs[u]))
+        offset += len(good)
+    return tables, rows
 
 
 def resolve_sections(requests: list[SectionRequest]) -> Resolution:
@@ -212,54 +360,38 @@ def resolve_sections(requests: list[SectionRequest]) -> Resolution:
     cat = lookup(names) if reqs else np.zeros(0, dtype=np.int64)
     decided = [_decide(r, int(c), catalog) for r, c in zip(reqs, cat, strict=True)]
 
-    u_notes = [list(d[1]) for d in decided]
-    u_reason: list[str | None] = [d[2] for d in decided]
     u_row = np.full(len(reqs), -1, dtype=np.int64)
-    u_basis = ["" for _ in reqs]
     tables: list[SectionTable] = []
-    offset = 0
-    cat_rows = sorted({d[0] for d in decided if d[0] >= 0})
+    cat_rows = sorted({d.code for d in decided if d.code >= 0})
     if cat_rows:
         tables.append(catalog.take(np.array(cat_rows, dtype=np.int64)))
         where = {c: k for k, c in enumerate(cat_rows)}
         for u, d in enumerate(decided):
-            if d[0] >= 0:
-                u_row[u], u_basis[u] = where[d[0]], "catalog"
-        offset = len(cat_rows)
-    by_family: dict[str, list[int]] = {}
+            if d.code >= 0:
+                u_row[u] = where[d.code]
+    offset = len(cat_rows)
     for u, d in enumerate(decided):
-        family = reqs[u].spec.family
-        if d[0] == -1 and family is not None:  # -1 is only decided for a known family
-            by_family.setdefault(family, []).append(u)
-    for family, members in by_family.items():
-        dims = [_builder_dims(reqs[u]) for u in members]
-        keys = list(dims[0])
-        arrays = {k: np.array([dd[k] for dd in dims], dtype=float) for k in keys}
-        problems = sp.dimension_problems(family, **arrays)
-        good = [k for k, p in enumerate(problems) if not p]
-        for k, p in enumerate(problems):
-            if p:
-                u = members[k]
-                u_reason[u] = f"profile {reqs[u].spec.describe()} has invalid dimensions: {p}"
-        if not good:
-            continue
-        sel = np.array(good, dtype=np.int64)
-        labels = np.array([reqs[members[k]].spec.label for k in good], dtype=object)
-        table = _BUILDERS[family](**{k: v[sel] for k, v in arrays.items()}, label=labels)
-        tables.append(table)
-        for j, k in enumerate(good):
-            u = members[k]
-            u_row[u], u_basis[u] = offset + j, "dimensions"
-            u_notes[u].extend(reqs[u].spec.notes)
-            u_notes[u].extend(_wall_notes(reqs[u]))
-        offset += len(good)
+        if d.code == _OWN_ROW and d.table is not None:
+            tables.append(d.table)
+            u_row[u] = offset
+            offset += len(d.table)
+    built, rows = _parametric(reqs, decided, offset)
+    tables.extend(built)
+    for u, r in rows.items():
+        u_row[u] = r
     sections = SectionTable.concat(tables) if tables else SectionTable.empty()
-    thickness = [_thickest(r.spec) for r in reqs]
+    for u, d in enumerate(decided):
+        _name_check(d, sections, int(u_row[u]) if d.code != _NOT_CHECKED else -1)
+        if d.code == _NOT_CHECKED:
+            u_row[u] = -1
+    thickness = [_thickest(r.spec, sections.row(int(u_row[u])) if u_row[u] >= 0 else None)
+                 for u, r in enumerate(reqs)]
     return Resolution(
         sections=sections,
         index=u_row[member_key] if n else np.zeros(0, dtype=np.int64),
-        basis=[u_basis[k] for k in member_key],
-        notes=[list(u_notes[k]) for k in member_key],
-        reasons=[u_reason[k] for k in member_key],
+        basis=[decided[k].basis if u_row[k] >= 0 else "" for k in member_key],
+        notes=[list(decided[k].notes) for k in member_key],
+        reasons=[decided[k].reason for k in member_key],
         thickness=[thickness[k] for k in member_key],
+        family=[decided[k].family or reqs[k].spec.family for k in member_key],
     )

@@ -21,6 +21,12 @@ def _swap(builder, unit_type: str, prefix: str | None) -> None:
             unit.Prefix = prefix
 
 
+def _unname(builder) -> None:
+    """Drop the profile's catalog name: the section is then built from its dimensions."""
+    for profile in builder.model.by_type("IfcIShapeProfileDef"):
+        profile.ProfileName = None
+
+
 def _check(builder):
     return check_members(read_columns(builder.model).members)
 
@@ -44,8 +50,19 @@ def test_the_unswapped_model_passes(builder):
 ])
 def test_a_swapped_unit_is_not_checked(builder, unit_type, prefix, reason):
     standard_column(builder)
+    _unname(builder)  # the catalog name would disagree first (see the test below)
     _swap(builder, unit_type, prefix)
     r = _check(builder)
     assert r.status.tolist() == [NOT_CHECKED]
     assert r.reason[0].startswith(reason), r.reason[0]
     assert r.reason[0].endswith(": check the units")
+
+
+def test_a_swapped_length_unit_under_a_catalog_name_is_a_disagreement(builder):
+    # The W14X48 name and its 1000 times larger modeled dimensions disagree beyond 2 %
+    # (ifc_bridge/sections.py: name and geometry must agree), so that is the reason.
+    standard_column(builder)
+    _swap(builder, "LENGTHUNIT", None)
+    r = _check(builder)
+    assert r.status.tolist() == [NOT_CHECKED]
+    assert "disagree with catalog W14X48 (d 1.38e+04 in vs 13.8 in" in r.reason[0]
