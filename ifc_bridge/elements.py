@@ -13,8 +13,8 @@ then only the vertical analysis members tied to no column read.
 
 Plan position: the origin of the element's IfcLocalPlacement in world coordinates, in the
 model's length unit.  The parent placement chain is evaluated with
-``ifcopenshell.util.placement.get_local_placement`` once per parent and cached; grid and
-linear placements the utility cannot evaluate give NaN.
+:func:`ifc_bridge.grids.placement_matrix` once per parent and cached; grid placements
+(``IfcGridPlacement``) are evaluated there too; linear placements give NaN.
 """
 
 from __future__ import annotations
@@ -22,10 +22,10 @@ from __future__ import annotations
 import math
 
 import ifcopenshell
-import ifcopenshell.util.placement
 import numpy as np
 
 from stanchion.ifc_bridge.access import Entity, get
+from stanchion.ifc_bridge.grids import placement_matrix
 from stanchion.ifc_bridge.relations import RelationIndex
 
 MEMBER_TYPES = ("STRUT", "POST")  # IfcMember predefined types read with include_members
@@ -160,7 +160,7 @@ class PlanPositions:
         try:  # numpy's warnings off: a damaged zero or 1e300 direction gives NaN, not stderr
             with np.errstate(all="ignore"):
                 return self._placed(placement)
-        except Exception:  # grid / linear placements this reader does not evaluate
+        except Exception:  # linear placements this reader does not evaluate, damage
             return math.nan, math.nan
 
     def _placed(self, placement: Entity) -> tuple[float, float]:
@@ -174,11 +174,11 @@ class PlanPositions:
                 return x, y
             key = parent.id()
             if key not in self._parents:
-                m = ifcopenshell.util.placement.get_local_placement(parent)
+                m = placement_matrix(parent)
                 self._parents[key] = tuple(tuple(float(v) for v in m[r]) for r in (0, 1))
             (a, b, c, d), (e, f, g, h) = self._parents[key]
             return a * x + b * y + c * z + d, e * x + f * y + g * z + h
-        matrix = ifcopenshell.util.placement.get_local_placement(placement)
+        matrix = placement_matrix(placement)  # IfcGridPlacement; raises for other kinds
         return float(matrix[0, 3]), float(matrix[1, 3])
 
 

@@ -42,6 +42,7 @@ from stanchion.ifc_bridge.elements import (
     skipped_members,
 )
 from stanchion.ifc_bridge.errors import ModelReadError
+from stanchion.ifc_bridge.grids import GridNamer, read_grids
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
 from stanchion.ifc_bridge.loads import match_table, merge_loads
@@ -128,6 +129,7 @@ class _Row:
     notes: list[str]
     reasons: list[str]
     body_kind: str | None = None  # a Body that is not an extrusion (IfcFacetedBrep ...)
+    grid: str | None = None  # grid location ("B-2"), named once every row is read
 
 
 class _Reader:
@@ -340,7 +342,7 @@ def _safe_row(reader: _Reader, element: Entity) -> _Row:
         )
 
 
-EXTRA_COLUMNS = ("global_id", "tag", "storey", "x", "y", "ifc_class", "length_source",
+EXTRA_COLUMNS = ("global_id", "tag", "storey", "grid", "x", "y", "ifc_class", "length_source",
                  "profile_source", "load_source", "fy_source")
 
 
@@ -417,6 +419,7 @@ class _Columns:
         extra["global_id"].append(r.gid)
         extra["tag"].append(r.tag)
         extra["storey"].append(r.storey)
+        extra["grid"].append(r.grid)
         extra["x"].append(r.x)
         extra["y"].append(r.y)
         extra["ifc_class"].append(r.element.is_a())
@@ -573,6 +576,17 @@ def _unitless_table_message(table: LoadTable) -> str:
             f"header ('{kinds[0]} [kN]') or give --force-unit")
 
 
+def _name_grid_locations(model: ifcopenshell.file, index: RelationIndex, rows: list[_Row],
+                         length_to_inch: float) -> list[str]:
+    """Set each row's grid location (:mod:`ifc_bridge.grids`); the grids' run messages."""
+    grids, messages = read_grids(model, index)
+    names = GridNamer(grids, length_to_inch).names(
+        [r.x for r in rows], [r.y for r in rows], [r.storey for r in rows])
+    for r, grid_name in zip(rows, names, strict=True):
+        r.grid = grid_name
+    return messages
+
+
 def _read(model: ifcopenshell.file, include_members: bool,
           table: LoadTable | None, analysis_members: bool = False,
           force_unit: GivenUnit | None = None, default_grade: str | None = None
@@ -595,6 +609,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
         units.note_use("length")
     rows = [_safe_row(reader, e) for e in elements]
     reader.release_walk_caches()
+    grid_messages = _name_grid_locations(model, reader.index, rows, units.length)
 
     requests = []
     for r in rows:
@@ -618,6 +633,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
     if matched is not None:
         messages.extend(matched.messages)
     messages.extend(reader.analysis.model_messages)
+    messages.extend(grid_messages)
     messages.extend(units.warnings)
     if not rows:
         members = MemberTable.build([], SectionTable.empty(), np.zeros(0, dtype=np.int64),
