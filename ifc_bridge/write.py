@@ -78,6 +78,7 @@ LABEL_MAX = 255
 PROPERTY_TYPES: dict[str, str] = {
     "Status": "IfcLabel",
     "Section": "IfcLabel",
+    "GridLocation": "IfcLabel",
     "Utilization": "IfcRatioMeasure",
     "RequiredStrength": "IfcForceMeasure",
     "AvailableStrength": "IfcForceMeasure",
@@ -387,6 +388,14 @@ def _joined(messages: list[list[str]]) -> list[_Value]:
     return out
 
 
+def _grid_labels(members: MemberTable) -> list[_Value]:
+    """Each member's grid location (``B-2``), None where unknown or not read from IFC."""
+    grid = members.extra.get("grid")
+    if grid is None:
+        return [None] * len(members)
+    return [_label(str(g)) if g else None for g in grid.tolist()]
+
+
 def _value_columns(
     members: MemberTable, results: CheckResults, to_model_force: float,
     constant: dict[str, _Value], suggested: dict[int, tuple[str, float]] | None,
@@ -403,6 +412,7 @@ def _value_columns(
     cols: _Columns = {
         "Status": status,
         "Section": [_label(str(s)) if s else None for s in members.section_label],
+        "GridLocation": _grid_labels(members),
         "Utilization": _finite(results.utilization),
         "RequiredStrength": _finite(results.required_strength * to_model_force),
         "AvailableStrength": _finite(results.available_strength * to_model_force),

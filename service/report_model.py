@@ -119,6 +119,11 @@ class _MemberResult(_Contract):
     messages: list[str] = Field(description="notes on this member: defaults used, where "
                                 "inputs came from, Lc/r above 200, net tension, ...")
     storey: str | None = Field(None, description="IFC input: the building storey")
+    grid: str | None = Field(
+        None, description="IFC input: grid location, the U and V axis tags of the nearest "
+        "grid intersection ('B-2'), with the offsets along those axes in the model's length "
+        "unit when off the intersection ('B-2 (+600, -150 mm)'); null when the model has no "
+        "grid or the member no plan position; left out for members files")
     tag: str | None = Field(None, description="IFC input: the element's Tag")
     ifc_class: str | None = Field(None, description="IFC input: the element's IFC class")
     profile_source: str | None = Field(

@@ -70,7 +70,7 @@ def write_json(path: Path, data: dict) -> None:
 def report_frame(report: dict) -> pd.DataFrame:
     """One row per member of the report; headers of dimensioned columns name their unit.
 
-    Columns: id, name, [storey], section, status, utilization, required_strength [F],
+    Columns: id, name, [storey, grid], section, status, utilization, required_strength [F],
     available_strength [F], limit_state, combination, slenderness, critical_stress [S],
     reason, messages (joined with "; "), plus any further scalar member fields (tag ...).
     """
@@ -82,7 +82,7 @@ def report_frame(report: dict) -> pd.DataFrame:
     dimensioned = {"required_strength": f"required_strength [{force}]",
                    "available_strength": f"available_strength [{force}]",
                    "critical_stress": f"critical_stress [{stress}]"}
-    order = ["id", "name", "storey", "section", "status", "utilization", "required_strength",
+    order = ["id", "name", "storey", "grid", "section", "status", "utilization", "required_strength",
              "available_strength", "limit_state", "combination", "slenderness",
              "critical_stress", "reason", "messages"]
     skip = {"combinations", "suggestions"}
@@ -92,7 +92,8 @@ def report_frame(report: dict) -> pd.DataFrame:
             if key not in order and key not in skip and key not in extra and (
                     value is None or isinstance(value, str | int | float | bool)):
                 extra.append(key)
-    present = [k for k in order if k != "storey" or any("storey" in r for r in rows)]
+    present = [k for k in order
+               if k not in ("storey", "grid") or any(k in r for r in rows)]
     columns = present[:present.index("messages")] + extra + ["messages"]
     data = {
         k: [("; ".join(r.get(k) or []) if k == "messages" else r.get(k)) for r in rows]
@@ -132,13 +133,18 @@ def failure_message(member: dict, force_unit: str) -> str:
 
 
 def _case_name(member: dict) -> str:
+    """``Name [id]``, with the grid location when known: ``C-12 at B-2 [id]``."""
     name, ident = member.get("name") or "", member["id"]
-    return ident if not name or name == ident else f"{name} [{ident}]"
+    grid = f" at {member['grid']}" if member.get("grid") else ""
+    if not name or name == ident:
+        return f"{ident}{grid}"
+    return f"{name}{grid} [{ident}]"
 
 
 def _case_detail(member: dict, force_unit: str) -> str:
     lines = [
         f"id: {member['id']}",
+        *([f"grid: {member['grid']}"] if member.get("grid") else []),
         f"section: {member.get('section') or 'n/a'}",
         f"status: {member['status']}",
     ]
@@ -154,6 +160,20 @@ def _case_detail(member: dict, force_unit: str) -> str:
             lines.append(f"{label}: {member[key]}")
     lines.extend(f"note: {m}" for m in member.get("messages") or [])
     return "\n".join(lines)
+
+
+def _case_properties(case: ET.Element, member: dict) -> None:
+    """A test case's ``properties``: the IFC location of the member (storey, grid).
+
+    Args:
+        case: the ``testcase`` element.
+        member: the report row.
+    """
+    where = [(key, member[key]) for key in ("storey", "grid") if member.get(key)]
+    if where:
+        props = ET.SubElement(case, "properties")
+        for key, value in where:
+            ET.SubElement(props, "property", name=key, value=str(value))
 
 
 def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
@@ -185,6 +205,7 @@ def junit_tree(report: dict, allow_not_checked: bool = False) -> ET.ElementTree:
             counts["tests"] += 1
             case = ET.SubElement(suite, "testcase", name=_case_name(m),
                                  classname=f"stanchion.{suite_name}", time="0")
+            _case_properties(case, m)
             detail = _case_detail(m, force)
             if m["status"] == "fail" or (m["status"] == NOT_CHECKED and not allow_not_checked):
                 counts["failures"] += 1

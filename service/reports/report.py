@@ -94,6 +94,7 @@ def build_report(
     tension = (results.max_tension if results.max_tension is not None
                else np.zeros(len(results))) * to_force
     storey = members.extra.get("storey")
+    grid = members.extra.get("grid")  # IFC inputs only: members files have none
     # lb/ft -> report force per report length (e.g. kip/ft, kN/m).
     weight_factor = (factor("lbf", "kip") * to_force) / (length_factor("ft") / length_factor(
         units["length"]))
@@ -128,6 +129,9 @@ def build_report(
     if storey_l is not None:
         for row, storey_i in zip(rows, storey_l, strict=True):
             row["storey"] = None if storey_i is None else str(storey_i)
+    if grid is not None:
+        for row, grid_i in zip(rows, grid.tolist(), strict=True):
+            row["grid"] = None if grid_i is None else str(grid_i)
     for i in (i for i, st in enumerate(statuses) if st in (NOT_CHECKED, SKIPPED)):
         rows[i]["reason"] = str(results.reason[i])
     for i, found in (suggestions or {}).items():
@@ -190,17 +194,21 @@ def format_summary(report: dict, worst: int = 5) -> str:
         (m for m in report["members"] if m["utilization"] is not None),
         key=lambda m: -m["utilization"],
     )[:worst]
+    grids = any(m.get("grid") for m in report["members"])
     if ranked:
         lines.append(f"highest utilizations ({report['units']['force']}):")
         for m in ranked:
+            where = f"{(m.get('grid') or '-')[:24]:<24} " if grids else ""
             lines.append(
-                f"  {m['name'][:24]:<24} {m['section'][:18]:<18} {m['utilization']:>6.3f}  "
+                f"  {m['name'][:24]:<24} {where}{m['section'][:18]:<18} "
+                f"{m['utilization']:>6.3f}  "
                 f"{m['required_strength']:>10.4g} / {m['available_strength']:<10.4g} "
                 f"{m['status'].upper()}"
             )
     nc = [m for m in report["members"] if m["status"] == NOT_CHECKED][:worst]
     for m in nc:
-        lines.append(f"  not checked: {m['name']}: {m.get('reason', '')}")
+        where = f" ({m['grid']})" if m.get("grid") else ""
+        lines.append(f"  not checked: {m['name']}{where}: {m.get('reason', '')}")
     skipped = Counter(m.get("reason", "") for m in report["members"] if m["status"] == SKIPPED)
     for why, n in skipped.most_common():
         lines.append(f"  skipped: {n} x {why}")

@@ -203,6 +203,34 @@ def test_rerun_replaces_values_without_duplicating(builder) -> None:
     assert Counter(e.is_a() for e in model) == before
 
 
+def test_grid_location_is_written_and_replaced_on_a_rerun(builder) -> None:
+    """GridLocation (issue 15 item 1): an IfcLabel per column, updated in place on a rerun."""
+    model = builder.model
+    cols = _columns(builder)
+    ids = [c.GlobalId for c in cols]
+
+    def write(grids):
+        members = MemberTable.build(
+            ids, SectionTable.empty(), np.full(3, -1), np.full(3, 50.0), np.full(3, 144.0),
+            section_label=["W14X48"] * 3, extra={"grid": np.array(grids, dtype=object)})
+        write_results(model, members, _results(), design_basis=BASIS, disclaimer=DISCLAIMER)
+
+    write(["A-1", "B-1 (+600, 0 mm)", None])
+    first, second, third = (_props(model, c) for c in cols)
+    assert first["GridLocation"] == "A-1" and second["GridLocation"] == "B-1 (+600, 0 mm)"
+    assert "GridLocation" not in third
+    assert _types(model, cols[0])["GridLocation"] == "IfcLabel"
+    before = Counter(e.is_a() for e in model)
+    write(["A-2", None, "C-1"])
+    first, second, third = (_props(model, c) for c in cols)
+    assert (first["GridLocation"], third["GridLocation"]) == ("A-2", "C-1")
+    assert "GridLocation" not in second
+    after = Counter(e.is_a() for e in model)
+    assert after["IfcPropertySet"] == before["IfcPropertySet"]  # no second set
+    assert after["IfcPropertySingleValue"] == before["IfcPropertySingleValue"]  # none orphaned
+    assert [len(existing_sets(model)[c.id()]) for c in cols] == [1, 1, 1]
+
+
 def test_duplicate_and_shared_sets_are_cleaned_up(builder) -> None:
     model = builder.model
     cols = _columns(builder)
