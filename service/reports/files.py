@@ -82,8 +82,8 @@ def report_frame(report: dict) -> pd.DataFrame:
     dimensioned = {"required_strength": f"required_strength [{force}]",
                    "available_strength": f"available_strength [{force}]",
                    "critical_stress": f"critical_stress [{stress}]"}
-    order = ["id", "name", "storey", "grid", "section", "status", "utilization", "required_strength",
-             "available_strength", "limit_state", "combination", "slenderness",
+    order = ["id", "name", "storey", "grid", "section", "status", "utilization",
+             "required_strength", "available_strength", "limit_state", "combination", "slenderness",
              "critical_stress", "reason", "messages"]
     skip = {"combinations", "suggestions"}
     extra: list[str] = []
