@@ -17,7 +17,7 @@ from contextlib import AbstractContextManager, nullcontext
 from dataclasses import dataclass
 from datetime import datetime
 from pathlib import Path
-from typing import Any, Literal, Protocol
+from typing import TYPE_CHECKING, Any, Literal, Protocol
 
 from pydantic import BaseModel, ConfigDict, Field, ValidationError
 
@@ -29,6 +29,9 @@ from stanchion.service.load_table import given_force_unit
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
 from stanchion.service.reports.files import write_outputs
 from stanchion.service.request import MembersRequest
+
+if TYPE_CHECKING:
+    from stanchion.service import model_check
 
 #: Inputs read as IFC models; anything else is read as a members JSON file.
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
@@ -120,11 +123,12 @@ class OutputPaths(BaseModel):
     report: Path | None = None
     csv: Path | None = None
     junit: Path | None = None
+    bcf: Path | None = None
 
     def named(self) -> dict[str, Path]:
         """The given outputs by their command-line option."""
         options = {"model": "--out", "report": "--report", "csv": "--csv",
-                   "junit": "--junit"}
+                   "junit": "--junit", "bcf": "--bcf"}
         return {options[k]: Path(v) for k, v in self.model_dump().items() if v is not None}
 
 
@@ -194,7 +198,19 @@ def check(source: Path, options: CheckOptions | None = None,
         model_check.write_checked_model(run, outputs.model, options.checked_at, progress)
     write_outputs(report, report_path=outputs.report, csv_path=outputs.csv,
                   junit_path=outputs.junit, allow_not_checked=options.allow_not_checked)
+    if model and outputs.bcf is not None:
+        _write_bcf(run, outputs.bcf)
     return CheckRun(report, members, results, "model" if model else "members")
+
+
+def _write_bcf(run: model_check.ModelCheck, path: Path) -> None:
+    """Write the BCF issues of a checked model (``--bcf``), atomically."""
+    from stanchion.service.reports.bcf import scene_of, write_bcf
+
+    try:
+        write_bcf(path, run.report, scene_of(run))
+    except OSError as exc:
+        raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
 
 
 def refuse_options(options: CheckOptions, model: bool) -> None:
@@ -248,6 +264,9 @@ def check_paths(source: Path, options: CheckOptions, outputs: OutputPaths) -> No
     if given.get("--out") is not None and not is_model(source):
         raise InputError("--out applies to IFC models: a checked model is written only for "
                          "a model")
+    if given.get("--bcf") is not None and not is_model(source):
+        raise InputError("--bcf applies to IFC models: its topics select columns by their "
+                         "IfcGuid")
     inputs = {"the input file": source, "the --loads table": options.loads_table,
               "the --baseline report": options.baseline}
     if options.loads_table is not None and _same_file(Path(options.loads_table), source):

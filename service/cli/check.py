@@ -82,7 +82,8 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
             change_threshold=args.change_threshold, allow_not_checked=args.allow_not_checked)
     except ValidationError as exc:  # pragma: no cover - argparse and the checks above refuse first
         raise InputError(validation_message(exc)) from None
-    outputs = OutputPaths(model=args.out, report=args.report, csv=args.csv, junit=args.junit)
+    outputs = OutputPaths(model=args.out, report=args.report, csv=args.csv, junit=args.junit,
+                          bcf=args.bcf)
     return options, outputs
 
 
@@ -122,6 +123,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     out.add_argument("--csv", metavar="R.csv", help="write one CSV row per member here")
     out.add_argument("--junit", metavar="J.xml",
                      help="write JUnit XML here: one test case per member, a suite per storey")
+    out.add_argument("--bcf", metavar="ISSUES.bcf",
+                     help="write BCF 3.0 issues here (IFC input): one topic per failing or "
+                     "not-checked column, selecting it by its IfcGuid, with a snapshot of "
+                     "its place on its storey")
     out.add_argument("--units", choices=["us", "si"],
                      help="report units for IFC input: us = kip/ft/ksi (default), "
                      "si = kN/m/MPa")

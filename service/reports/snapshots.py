@@ -1,0 +1,114 @@
+"""Small pictures of where a column stands: the snapshot of its BCF topic.
+
+A snapshot source is any callable ``(member row) -> PNG bytes or None`` built from a report
+(docs/design.md §3); :func:`stanchion.service.reports.bcf.write_bcf` takes one, so a later
+plan module (grid lines, slab outlines, sections drawn in their orientation) replaces
+:class:`StoreyDots` without touching the BCF writer.
+
+:class:`StoreyDots` draws, per storey, every column of the report that has a plan position
+(``x``, ``y``) as a small grey dot and the topic's column as a large ringed mark with its
+label, axes in the report's length unit.  matplotlib's object interface with the Agg canvas
+is used (no pyplot state, no display needed); one figure per storey is reused for all its
+columns.
+"""
+
+from __future__ import annotations
+
+import io
+import math
+from collections.abc import Callable
+from typing import Any
+
+#: A snapshot source: a member row in, PNG bytes out (None: no picture for this member).
+SnapshotSource = Callable[[dict[str, Any]], bytes | None]
+
+#: Picture size, inches at :data:`DPI` (320 x 320 pixels).
+SIZE_IN, DPI = 3.2, 100
+#: The file signature every PNG starts with (PNG specification, section 5.2).
+PNG_SIGNATURE = b"\x89PNG\r\n\x1a\n"
+#: Colours of our own choosing: the other columns, the topic's column by status.
+OTHER_COLOUR = "#9a9a9a"
+MARK_COLOUR = {"fail": "#b3001b", "not_checked": "#5b3fa8"}
+NO_STOREY = "(no storey)"
+
+
+def _position(row: dict[str, Any]) -> tuple[float, float] | None:
+    x, y = row.get("x"), row.get("y")
+    if isinstance(x, int | float) and isinstance(y, int | float) and math.isfinite(x) \
+            and math.isfinite(y):
+        return float(x), float(y)
+    return None
+
+
+def member_label(row: dict[str, Any]) -> str:
+    """The short label of a member: its Tag, else its name, else its id."""
+    return str(row.get("tag") or row.get("name") or row.get("id") or "")
+
+
+class _StoreyFigure:
+    """One storey's plan: the dots drawn once, the highlighted mark moved per picture."""
+
+    def __init__(self, storey: str, points: list[tuple[float, float]], unit: str) -> None:
+        from matplotlib.backends.backend_agg import FigureCanvasAgg
+        from matplotlib.figure import Figure
+
+        self.figure = Figure(figsize=(SIZE_IN, SIZE_IN), dpi=DPI)
+        FigureCanvasAgg(self.figure)
+        ax = self.figure.add_subplot()
+        xs, ys = [p[0] for p in points], [p[1] for p in points]
+        ax.scatter(xs, ys, s=10, c=OTHER_COLOUR, zorder=1)
+        pad = max(max(xs) - min(xs), max(ys) - min(ys), 1.0) * 0.08
+        ax.set_xlim(min(xs) - pad, max(xs) + pad)
+        ax.set_ylim(min(ys) - pad, max(ys) + pad)
+        ax.set_aspect("equal", adjustable="box")
+        ax.tick_params(labelsize=6)
+        ax.set_xlabel(f"x [{unit}]", fontsize=7)
+        ax.set_ylabel(f"y [{unit}]", fontsize=7)
+        self.title = ax.set_title(storey, fontsize=8)
+        self.mark = ax.scatter([xs[0]], [ys[0]], s=90, facecolors="none", linewidths=2.0,
+                               edgecolors=MARK_COLOUR["fail"], zorder=3)
+        self.dot = ax.scatter([xs[0]], [ys[0]], s=18, c=MARK_COLOUR["fail"], zorder=4)
+        self.text = ax.annotate("", (xs[0], ys[0]), xytext=(6, 6),
+                                textcoords="offset points", fontsize=7, zorder=5)
+        self.figure.tight_layout()
+
+    def draw(self, point: tuple[float, float], label: str, colour: str) -> bytes:
+        self.mark.set_offsets([point])
+        self.mark.set_edgecolor(colour)
+        self.dot.set_offsets([point])
+        self.dot.set_color(colour)
+        self.text.xy = point
+        self.text.set_text(label)
+        self.text.set_color(colour)
+        buffer = io.BytesIO()
+        self.figure.savefig(buffer, format="png", dpi=DPI)
+        return buffer.getvalue()
+
+
+class StoreyDots:
+    """Snapshots of a column's place on its storey plan (columns as dots).
+
+    Args:
+        report: the report (docs/design.md §3); its member rows' ``storey``, ``x``, ``y``
+            and its length unit are read.
+    """
+
+    def __init__(self, report: dict[str, Any]) -> None:
+        self.unit = str(report.get("units", {}).get("length", ""))
+        self.points: dict[str, list[tuple[float, float]]] = {}
+        for row in report.get("members", []):
+            point = _position(row)
+            if point is not None:
+                self.points.setdefault(row.get("storey") or NO_STOREY, []).append(point)
+        self._figures: dict[str, _StoreyFigure] = {}
+
+    def __call__(self, row: dict[str, Any]) -> bytes | None:
+        """The PNG of ``row``'s place on its storey; None when it has no plan position."""
+        point = _position(row)
+        if point is None:
+            return None
+        storey = row.get("storey") or NO_STOREY
+        if storey not in self._figures:
+            self._figures[storey] = _StoreyFigure(storey, self.points[storey], self.unit)
+        colour = MARK_COLOUR.get(str(row.get("status")), MARK_COLOUR["fail"])
+        return self._figures[storey].draw(point, member_label(row), colour)
