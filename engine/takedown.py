@@ -105,6 +105,9 @@ class Level:
         length: (n,) length of each column, in (NaN unknown).
         loads: the level's loads.
         openings: further openings through the slabs (shapely polygons), in.
+        problems: slabs of the level that could not be read, each naming the slab and why:
+            every column of the level, and every column beneath them, gets a reason (the
+            load of an unknown slab is never guessed).
     """
 
     name: str
@@ -116,6 +119,7 @@ class Level:
     length: FloatArray
     loads: LevelLoads
     openings: Sequence[Any] = ()
+    problems: Sequence[str] = ()
 
 
 @dataclass(frozen=True)
@@ -358,6 +362,13 @@ def takedown(levels: Sequence[Level], options: TakedownOptions | None = None) ->
         if down >= 0:
             reason[down] = (f"supports column {ids[up]} above, which has no column below it "
                             "(a transfer): its load is not taken down; give the loads")
+    for j, lv in enumerate(levels):
+        if lv.problems:
+            more = f" (and {len(lv.problems) - 1} more)" if len(lv.problems) > 1 else ""
+            why = (f"a slab of {lv.name} could not be read, {lv.problems[0]}{more}: its load "
+                   "is not taken down; give the loads")
+            for row in range(int(start[j]), int(start[j + 1])):
+                reason[row] = reason[row] or why
     nowhere = ~np.isfinite(np.concatenate([np.asarray(lv.xy, float).reshape(-1, 2)
                                            for lv in levels])).all(axis=1)
     reason[nowhere & (reason == None)] = "no plan position: no takedown"  # noqa: E711

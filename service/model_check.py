@@ -34,6 +34,8 @@ from stanchion.service.load_table import given_force_unit, read_load_table
 from stanchion.service.reports.files import write_model_checked
 from stanchion.service.reports.report import DISCLAIMER, build_report
 from stanchion.service.suggestions import suggest
+from stanchion.service.takedown_loads import TakedownApplied, apply_takedown, report_fields
+from stanchion.service.takedown_project import load_project
 
 if TYPE_CHECKING:
     import ifcopenshell
@@ -144,6 +146,7 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
         progress.consider(size=path.stat().st_size)
     except OSError:
         pass  # open_model names the problem
+    project = load_project(options.takedown) if options.takedown is not None else None
     with progress.phase(f"reading {path.name}"):
         problems: list[Damage] | None = [] if options.lenient else None
         model, read = _read(path, options.include_members, options.loads_table,
@@ -155,6 +158,12 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
         raise InputError(no_columns_message(options.source_name or path.name, model,
                                             options.include_members))
     progress.consider(items=len(members))
+    applied: TakedownApplied | None = None
+    if project is not None and options.takedown is not None:
+        with progress.phase("gravity load takedown"):
+            applied = apply_takedown(model, read, project, options.takedown.name,
+                                     UNIT_SYSTEMS[units]["length"])
+        read.messages.extend(applied.messages)
     with progress.phase(f"checking {len(members):,} members"):
         results = check_members(members, options.method or "LRFD")
     suggestions: dict[int, list[dict[str, Any]]] = {}
@@ -164,6 +173,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     report = build_report(members, results, dict(UNIT_SYSTEMS[units]),
                           messages=list(read.messages), suggestions=suggestions or None)
     _add_extra_fields(report, members, read.length_unit_factor)
+    if applied is not None:
+        report_fields(applied, report["members"], report["units"]["length"])
     if options.default_grade:
         state_default_grade(report, members, options.default_grade)
     report["source"] = {
@@ -174,6 +185,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
         "include_members": options.include_members,
         "loads_table": options.loads_table.name if options.loads_table else None,
     }
+    if options.takedown is not None:
+        report["source"]["takedown"] = options.takedown.name
     return ModelCheck(model, read, results, report, suggestions)
 
 

@@ -86,6 +86,9 @@ class CheckOptions(BaseModel):
         None, description="report units of a model check: us (kip, ft, ksi, the default) or "
         "si (kN, m, MPa)")
     loads_table: Path | None = Field(None, description="CSV load table for a model")
+    takedown: Path | None = Field(
+        None, description="load takedown project file (TOML) for a model: loads of the "
+        "columns without any from the slabs (docs/design.md §5 'Load takedown')")
     force_unit: str | None = Field(
         None, description="force unit of a model that declares none and of the load "
         "table's columns whose header names none (kip, kN, N, lbf, MN or any force unit "
@@ -221,7 +224,8 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
                             ("--units", options.units), ("--suggest", options.suggest),
                             ("--force-unit", options.force_unit),
                             ("--lenient", options.lenient),
-                            ("--default-grade", options.default_grade)):
+                            ("--default-grade", options.default_grade),
+                            ("--takedown", options.takedown)):
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
                                  "its own loads, units, grades and candidates")
@@ -268,6 +272,7 @@ def check_paths(source: Path, options: CheckOptions, outputs: OutputPaths) -> No
         raise InputError("--bcf applies to IFC models: its topics select columns by their "
                          "IfcGuid")
     inputs = {"the input file": source, "the --loads table": options.loads_table,
+              "the --takedown project": options.takedown,
               "the --baseline report": options.baseline}
     if options.loads_table is not None and _same_file(Path(options.loads_table), source):
         raise InputError("--loads names the model itself")

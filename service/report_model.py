@@ -135,6 +135,14 @@ class _MemberResult(_Contract):
     fy_source: str | None = Field(
         None, description="IFC input: where the yield stress came from (override, material, "
         "grade, default_grade or none)")
+    tributary_area: NonNegative = Field(
+        None, description="IFC input with --takedown, when the loads come from the takedown: "
+        "tributary area carried (this column's and those above it), in the report's length "
+        "unit squared")
+    llr_factor: NonNegative | None = Field(
+        None, description="IFC input with --takedown, when the loads come from the takedown: "
+        "L / Lo, the ASCE 7-22 section 4.7 live load reduction factor (1: not reduced); null "
+        "when the column carries no floor live load")
     x: float | None = Field(None, description="IFC input: plan position x, in the report's "
                             "length unit")
     y: float | None = Field(None, description="IFC input: plan position y, in the report's "
@@ -199,6 +207,8 @@ class Source(_Contract):
                                   "STRUT or POST were checked too")
     loads_table: str | None = Field(None, description="IFC input: name of the CSV load "
                                     "table, null when none was given")
+    takedown: str = Field(None, description="IFC input: name of the load takedown project "
+                          "file (--takedown), only when one was given")
 
 
 class ChangeEntry(_Contract):
@@ -250,6 +260,27 @@ class Changes(_Contract):
     design_basis_before: str = Field(None, description="the baseline's design basis, when it "
                                      "differs from this report's")
     counts: ChangeCounts = Field(description="how many entries each list has")
+
+
+class SpecificationResult(_Contract):
+    """One IDS specification against the model."""
+
+    name: str = Field(description="the specification's name")
+    identifier: str | None = Field(description="its identifier; null when it has none")
+    applicable: Count = Field(description="elements it applies to")
+    failed: Count = Field(description="of those, elements failing a requirement")
+    passed: bool = Field(description="the specification holds (its cardinality included)")
+
+
+class Requirements(_Contract):
+    """The model validated against an IDS document (--ids), docs/design.md §3."""
+
+    ids: str = Field(description="name of the IDS file")
+    title: str | None = Field(description="the IDS's title; null when it has none")
+    specifications: list[SpecificationResult] = Field(description="one per specification, "
+                                                       "in the IDS's order")
+    members_missing: Count = Field(description="report members with at least one unmet "
+                                   "requirement")
 
 
 class Report(_Contract):

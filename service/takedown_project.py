@@ -113,6 +113,10 @@ class TakedownProject(_Strict):
                           slab_density=self.options.slab_density * _KCI[self.units],
                           live_load_reduction=allowed, use=s.use)
 
+    def slab_only_loads(self) -> LevelLoads:
+        """Loads of a storey the file gives none: the slabs' self-weight only."""
+        return LevelLoads(slab_density=self.options.slab_density * _KCI[self.units])
+
     def unused_storeys(self, names: list[str]) -> list[str]:
         """Storeys named in the file that are not in ``names`` (the model's storeys)."""
         return [s for s in self.storeys if s != "default" and s not in names]

@@ -73,6 +73,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
         options = CheckOptions(
             method=args.method, units=args.units,
             loads_table=Path(args.loads) if args.loads else None,
+            takedown=Path(args.takedown) if args.takedown else None,
             force_unit=args.force_unit, lenient=args.lenient,
             default_grade=args.default_grade,
             include_members=args.include_members, suggest=args.suggest,
@@ -134,6 +135,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     inp.add_argument("--loads", metavar="LOADS.csv",
                      help="CSV load table: element,D [kN],L [kN],... (element = GlobalId, "
                      "Tag or Name)")
+    inp.add_argument("--takedown", metavar="PROJECT.toml",
+                     help="load takedown project file: columns without loads get estimated "
+                     "service loads from the slabs of the storeys they carry (tributary "
+                     "areas, ASCE 7-22 section 4.7 live load reduction)")
     inp.add_argument("--force-unit", metavar="UNIT",
                      help="force unit (kip, kN, N, lbf, MN) of a model that declares none "
                      "and of the load table's columns whose header names none; without it "
