@@ -262,27 +262,6 @@ class Changes(_Contract):
     counts: ChangeCounts = Field(description="how many entries each list has")
 
 
-class SpecificationResult(_Contract):
-    """One IDS specification against the model."""
-
-    name: str = Field(description="the specification's name")
-    identifier: str | None = Field(description="its identifier; null when it has none")
-    applicable: Count = Field(description="elements it applies to")
-    failed: Count = Field(description="of those, elements failing a requirement")
-    passed: bool = Field(description="the specification holds (its cardinality included)")
-
-
-class Requirements(_Contract):
-    """The model validated against an IDS document (--ids), docs/design.md §3."""
-
-    ids: str = Field(description="name of the IDS file")
-    title: str | None = Field(description="the IDS's title; null when it has none")
-    specifications: list[SpecificationResult] = Field(description="one per specification, "
-                                                       "in the IDS's order")
-    members_missing: Count = Field(description="report members with at least one unmet "
-                                   "requirement")
-
-
 class Report(_Contract):
     """Axial compression check report (AISC 360-22 Chapter E), in the report's units."""
 
