@@ -71,21 +71,23 @@ class ModelCheck:
         return self.read.members
 
 
-def _read(path: Path, include_members: bool, loads_table: Path | None,
-          force_unit: str | None = None, problems: list[Damage] | None = None,
-          default_grade: str | None = None) -> tuple[ifcopenshell.file, ReadResult]:
+def _read(path: Path, options: CheckOptions, problems: list[Damage] | None = None
+          ) -> tuple[ifcopenshell.file, ReadResult]:
     """Open the model and read its columns (the load table first: it is smaller).
 
     With ``problems`` (``--lenient``) a damaged model is read and its damage listed there.
     """
+    loads_table, force_unit = options.loads_table, options.force_unit
     table = (read_load_table(loads_table, force_unit)  # InputError
              if loads_table is not None else None)
     given = given_force_unit(force_unit)
     try:
         model = open_model(path, problems=problems)
-        return model, read_columns(model, include_members=include_members, loads_table=table,
+        return model, read_columns(model, include_members=options.include_members,
+                                   loads_table=table,
+                                   analysis_members=options.analysis_members,
                                    force_unit=GivenUnit(*given) if given else None,
-                                   default_grade=default_grade)
+                                   default_grade=options.default_grade)
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
 
@@ -149,8 +151,7 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     project = load_project(options.takedown) if options.takedown is not None else None
     with progress.phase(f"reading {path.name}"):
         problems: list[Damage] | None = [] if options.lenient else None
-        model, read = _read(path, options.include_members, options.loads_table,
-                            options.force_unit, problems, options.default_grade)
+        model, read = _read(path, options, problems)
     members = read.members
     if problems:
         add_lenient_warnings(model, members, problems, read.messages)
@@ -183,6 +184,7 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
         "columns": len(model.by_type("IfcColumn")),
         "members": len(members),
         "include_members": options.include_members,
+        "analysis_members": options.analysis_members,
         "loads_table": options.loads_table.name if options.loads_table else None,
     }
     if options.takedown is not None:

@@ -99,6 +99,8 @@ class CheckOptions(BaseModel):
         None, description="grade assumed for members whose material names steel but no "
         "grade (A992, S355, 345 MPa ...); stated in every output")
     include_members: bool = Field(False, description="also check IfcMember STRUT / POST")
+    analysis_members: bool = Field(
+        False, description="also check vertical IfcStructuralCurveMembers tied to no column")
     suggest: bool = Field(False, description="suggest sections for failing columns")
     utilization_limit: float | None = Field(
         None, gt=0, description="suggestions pass at this utilization (default 1.0)")
@@ -221,6 +223,7 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
     if not model:
         for name, value in (("--loads", options.loads_table),
                             ("--include-members", options.include_members),
+                            ("--analysis-members", options.analysis_members),
                             ("--units", options.units), ("--suggest", options.suggest),
                             ("--force-unit", options.force_unit),
                             ("--lenient", options.lenient),

@@ -205,6 +205,9 @@ class Source(_Contract):
     columns: Count = Field(None, description="IFC input: IfcColumn elements in the model")
     include_members: bool = Field(None, description="IFC input: IfcMember elements of type "
                                   "STRUT or POST were checked too")
+    analysis_members: bool = Field(None, description="IFC input: vertical "
+                                   "IfcStructuralCurveMembers tied to no column were checked "
+                                   "too (--analysis-members)")
     loads_table: str | None = Field(None, description="IFC input: name of the CSV load "
                                     "table, null when none was given")
     takedown: str = Field(None, description="IFC input: name of the load takedown project "

@@ -76,7 +76,8 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
             takedown=Path(args.takedown) if args.takedown else None,
             force_unit=args.force_unit, lenient=args.lenient,
             default_grade=args.default_grade,
-            include_members=args.include_members, suggest=args.suggest,
+            include_members=args.include_members, analysis_members=args.analysis_members,
+            suggest=args.suggest,
             utilization_limit=args.utilization_limit, oversized=args.oversized,
             families=tuple(args.families) if args.families else None,
             baseline=Path(args.baseline) if args.baseline else None,
@@ -155,6 +156,9 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      "Without it such columns are not checked")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
+    inp.add_argument("--analysis-members", action="store_true",
+                     help="also check the vertical IfcStructuralCurveMembers tied to no "
+                     "column (a model without columns has them checked anyway)")
     gate = c.add_argument_group("pass / fail")
     gate.add_argument("--baseline", metavar="OLD.json",
                       help="compare with a previous report: new failures, fixed, added, "

@@ -96,6 +96,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
         options = CheckOptions(method=params.get("design_method", "LRFD"), loads_table=loads,
                                force_unit=params.get("force_unit"),
                                default_grade=params.get("default_grade"),
+                               analysis_members=bool(params.get("analysis_members", False)),
                                source_name=names[params["model"]])
         outputs = OutputPaths(model=job_dir / MODEL_OUT_FILE, report=job_dir / REPORT_FILE,
                               csv=job_dir / CSV_FILE)

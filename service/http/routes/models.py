@@ -47,6 +47,10 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
                               "optional: the grade assumed for columns whose material names "
                               "steel but no grade (A992, S355, 345 MPa ...; the command "
                               "line's --default-grade), stated in every output"},
+            "analysis_members": {"type": "boolean", "default": False, "description":
+                                 "optional: also check the vertical "
+                                 "IfcStructuralCurveMembers tied to no column (the command "
+                                 "line's --analysis-members)"},
         }}}}}},
 )
 async def upload_model(request: Request, settings: SettingsDep, store: StoreDep,
@@ -75,7 +79,8 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
             parts = await receive_form(
                 request.stream(), boundary, incoming, max_bytes=settings.max_upload_bytes,
                 file_fields={"file", "loads"},
-                text_fields={"design_method", "force_unit", "default_grade"},
+                text_fields={"design_method", "force_unit", "default_grade",
+                             "analysis_members"},
             )
         except UploadTooLarge:
             raise HTTPException(413, f"the upload is larger than {settings.max_upload_mb:g} "
@@ -94,6 +99,19 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
     url = f"/v1/jobs/{job_id}"
     return JSONResponse({"job_id": job_id, "status": "queued", "url": url},
                         status_code=202, headers={"Location": url})
+
+
+_TRUE, _FALSE = ("true", "1", "yes", "on"), ("false", "0", "no", "off", "")
+
+
+def _flag(part: Any, name: str) -> bool:
+    """A boolean form field: true / false (1 / 0, yes / no, on / off); blank or absent: false."""
+    text = (part.value or "").strip().lower() if part is not None else ""
+    if text in _TRUE:
+        return True
+    if text in _FALSE:
+        return False
+    raise FieldError(422, f"expected true or false, got {part.value!r}", name)
 
 
 def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
@@ -127,6 +145,7 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     except InputError as exc:
         raise FieldError(422, str(exc).removeprefix("default_grade: "), "default_grade"
                          ) from None
+    analysis_members = _flag(parts.get("analysis_members"), "analysis_members")
     model.path.rename(folder / f"model{suffix}")
     loads = parts.get("loads")
     loads_name = None
@@ -138,5 +157,6 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
     elif loads is not None:  # an empty, unnamed part: a form field left blank
         loads.path.unlink(missing_ok=True)
     return {"model": f"model{suffix}", "filename": filename, "design_method": method,
-            "force_unit": force_unit, "default_grade": grade, "loads": loads_name,
+            "force_unit": force_unit, "default_grade": grade,
+            "analysis_members": analysis_members, "loads": loads_name,
             "loads_filename": loads.filename if loads is not None and loads_name else None}
