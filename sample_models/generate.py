@@ -11,11 +11,15 @@ Outputs (see ``sample_models/README.md`` for the scenario):
   community workshop with a library annex and studios above, 40 columns (W and HSS) with
   analysis results (IfcStructuralAnalysisModel, one IfcStructuralCurveMember per column,
   load cases D, L, Lr, S, W1, W2 and their IfcStructuralResultGroup of
-  IfcStructuralCurveReaction forces).
+  IfcStructuralCurveReaction forces), slabs per storey (a mezzanine and a roof storey of
+  their own, a stair void, a balcony) for the load takedown.
 * ``garden_pavilion.ifc`` -- IFC2X3, inch / kip / ksi: a two-storey pavilion of 8 columns
-  whose loads come from ``garden_pavilion_loads.csv`` (rows keyed by the columns' Tags).
-* ``expected_summary.json`` -- the counts of a real ``pipeline.check`` run on both (not written
-  with ``--no-summary``).
+  whose loads come from ``garden_pavilion_loads.csv`` (rows keyed by the columns' Tags), or
+  from the slabs of its lookout floor and roof with the load takedown.
+* ``expected_summary.json`` -- the counts of a real ``pipeline.check`` run on both, the
+  workshop with ``workshop_annex_takedown.toml`` and the pavilion once with its load table and
+  once with ``garden_pavilion_takedown.toml`` (not written with ``--no-summary``).  The two
+  takedown project files are written by hand, not generated.
 
 Every number below -- grid, storey heights, area loads, wind forces, sections picked, the
 scatter added to the forces -- is invented demo data, chosen only so that the sample shows
@@ -60,7 +64,9 @@ from sample_models.ifc_parts import (  # noqa: E402
     design,
     finish,
     grid,
+    slab,
     spatial,
+    storey,
 )
 from stanchion.engine.units import factor  # noqa: E402
 
@@ -68,6 +74,9 @@ SEED = 360_22  # any fixed number; the samples depend on it
 WORKSHOP = "workshop_annex.ifc"
 PAVILION = "garden_pavilion.ifc"
 PAVILION_LOADS = "garden_pavilion_loads.csv"
+#: Load takedown project files (written by hand, not generated; docs/design.md §5).
+WORKSHOP_TAKEDOWN = "workshop_annex_takedown.toml"
+PAVILION_TAKEDOWN = "garden_pavilion_takedown.toml"
 SUMMARY = "expected_summary.json"
 
 # ---------------------------------------------------------------- demo data: workshop annex
@@ -116,11 +125,33 @@ LOAD_CASES = (("D", "D - dead", "PERMANENT_G", "DEAD_LOAD_G", "self weight and f
               ("W1", "W1 - wind along x", "VARIABLE_Q", "WIND_W", "wind east-west"),
               ("W2", "W2 - wind along y", "VARIABLE_Q", "WIND_W", "wind north-south"))
 
+#: Slabs (demo data, mm): (storey key, storey name or None for a LEVELS storey, elevation,
+#: thickness, outline corners, openings).  Each slab's top is at its storey's elevation;
+#: the mezzanine (an L-shaped platform on the four posts, whose tops are at 2.4 m) and the
+#: roof get storeys of their own.  The stair void beside line A between lines 2 and 3
+#: pierces both floors; the studios floor has a 1.5 m balcony cantilevered beyond line 1.
+STAIR = (300.0, 6000.0, 3300.0, 9000.0)
+SLABS = (("M", "Level 0M - Mezzanine", 2400.0, 150.0,
+          [(2000.0, 1500.0), (22000.0, 1500.0), (22000.0, 12500.0), (18000.0, 12500.0),
+           (18000.0, 6000.0), (2000.0, 6000.0)], ()),
+         ("L1", None, 4800.0, 130.0,
+          [(0.0, 0.0), (24000.0, 0.0), (24000.0, 15000.0), (0.0, 15000.0)], (STAIR,)),
+         ("L2", None, 9000.0, 130.0,
+          [(0.0, -1500.0), (24000.0, -1500.0), (24000.0, 15000.0), (0.0, 15000.0)], (STAIR,)),
+         ("R", "Roof", 13200.0, 130.0,
+          [(0.0, 0.0), (24000.0, 0.0), (24000.0, 15000.0), (0.0, 15000.0)], ()))
+
 # ---------------------------------------------------------------- demo data: pavilion
 PAVILION_GRID_X = {"A": 0.0, "B": 240.0}  # in
 PAVILION_GRID_Y = {"1": 0.0, "2": 192.0}
 PAVILION_LEVELS = (("L0", "Level 0 - Deck", 0.0, 144.0, "W6X15"),
                    ("L1", "Level 1 - Lookout", 144.0, 120.0, "HSS3X3X3/16"))
+#: Slabs (demo data, in): the lookout floor (5 in, a 4 ft balcony cantilevered south of
+#: line 1) and the roof (3 in) on a storey of its own; tops at the storeys' elevations.
+PAVILION_SLABS = (("L1", None, 144.0, 5.0,
+                   [(0.0, -48.0), (240.0, -48.0), (240.0, 192.0), (0.0, 192.0)]),
+                  ("R", "Roof", 264.0, 3.0,
+                   [(0.0, 0.0), (240.0, 0.0), (240.0, 192.0), (0.0, 192.0)]))
 #: Service loads per column (kip) before scatter: lower columns carry the lookout floor and
 #: the roof, upper columns the roof only (demo data).
 PAVILION_LOADS_KIP = {"L0": {"D": 6.4, "L": 8.0, "Lr": 1.6, "S": 2.4, "W": 1.5},
@@ -256,6 +287,10 @@ def build_workshop(seed: int = SEED) -> ifcopenshell.file:
     mm = 0.001
     building, storeys = spatial(model, project, "Demo site", "Workshop annex", LEVELS, mm)
     grid(model, storeys["L0"], GRID_X, GRID_Y, mm, 2000.0)
+    for key, name, elevation, thickness, corners, openings in SLABS:
+        held = storeys[key] if name is None else storey(model, building, name, elevation, mm)
+        slab(model, ctx, held, f"Slab {held.Name}", corners, elevation, thickness, mm,
+             openings)
     materials = _steel_materials(model)
     column_type = _column_types(model, materials, MM_PER_IN)
 
@@ -315,9 +350,12 @@ def build_pavilion(seed: int = SEED + 1) -> tuple[ifcopenshell.file, str]:
     ifcopenshell.api.unit.assign_unit(model, units=units)
     ctx = contexts(model)
     inch = MM_PER_IN / 1000.0
-    _building, storeys = spatial(model, project, "Demo site", "Garden pavilion",
-                                 PAVILION_LEVELS, inch)
+    building, storeys = spatial(model, project, "Demo site", "Garden pavilion",
+                                PAVILION_LEVELS, inch)
     grid(model, storeys["L0"], PAVILION_GRID_X, PAVILION_GRID_Y, inch, 48.0)
+    for key, name, elevation, thickness, corners in PAVILION_SLABS:
+        held = storeys[key] if name is None else storey(model, building, name, elevation, inch)
+        slab(model, ctx, held, f"Slab {held.Name}", corners, elevation, thickness, inch)
     a992 = ifcopenshell.api.material.add_material(model, name="ASTM A992")
     # IFC2X3 steel properties: ASTM A992/A992M Fy = 50 ksi min. (model pressure unit ksi)
     model.create_entity("IfcMechanicalSteelMaterialProperties", Material=a992,
@@ -361,22 +399,33 @@ def write_samples(out_dir: Path) -> list[Path]:
     return [workshop, out_dir / PAVILION, out_dir / PAVILION_LOADS]
 
 
+#: The checks recorded in the summary: key -> (model, load table, takedown project).
+CHECKS = {WORKSHOP: (WORKSHOP, None, WORKSHOP_TAKEDOWN),
+          PAVILION: (PAVILION, PAVILION_LOADS, None),
+          f"{PAVILION} --takedown": (PAVILION, None, PAVILION_TAKEDOWN)}
+
+
 def summarize(folder: Path) -> dict:
-    """Check both samples with the real check and keep what the tests compare."""
+    """Check the samples with the real check (``CHECKS``) and keep what the tests compare.
+
+    The takedown project files are read from this folder (they are written by hand).
+    """
     from stanchion.service.pipeline import CheckOptions, check
 
     out = {}
-    for model_name, table in ((WORKSHOP, None), (PAVILION, PAVILION_LOADS)):
-        options = CheckOptions(loads_table=Path(folder) / table if table else None)
+    for key, (model_name, table, takedown) in CHECKS.items():
+        options = CheckOptions(loads_table=Path(folder) / table if table else None,
+                               takedown=HERE / takedown if takedown else None)
         report = check(Path(folder) / model_name, options).report
         s = report["summary"]
         by_status = {st: sorted(m["name"] for m in report["members"] if m["status"] == st)
                      for st in ("fail", "not_checked")}
-        out[model_name] = {
-            "schema": report["source"]["schema"], "loads_table": table,
+        out[key] = {
+            "schema": report["source"]["schema"], "loads_table": table, "takedown": takedown,
             "members": s["members"], "pass": s["pass"], "fail": s["fail"],
             "not_checked": s["not_checked"], "max_utilization": s["max_utilization"],
             "failing": by_status["fail"], "not_checked_members": by_status["not_checked"],
+            "load_sources": sorted({m["load_source"] for m in report["members"]}),
         }
     return out
 

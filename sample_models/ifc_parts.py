@@ -14,6 +14,7 @@ import uuid
 import ifcopenshell
 import ifcopenshell.api.aggregate
 import ifcopenshell.api.context
+import ifcopenshell.api.feature
 import ifcopenshell.api.geometry
 import ifcopenshell.api.grid
 import ifcopenshell.api.group
@@ -132,15 +133,46 @@ def spatial(model: ifcopenshell.file, project: Entity, site_name: str, building_
     ifcopenshell.api.aggregate.assign_object(model, products=[building], relating_object=site)
     place(model, site, 0.0, 0.0, 0.0)
     place(model, building, 0.0, 0.0, 0.0)
-    storeys = {}
-    for key, name, elevation, *_ in levels:
-        storey = api(model, "IfcBuildingStorey", name=name)
-        storey.Elevation = elevation
-        ifcopenshell.api.aggregate.assign_object(model, products=[storey],
-                                                 relating_object=building)
-        place(model, storey, 0.0, 0.0, elevation * length_m)
-        storeys[key] = storey
+    storeys = {key: storey(model, building, name, elevation, length_m)
+               for key, name, elevation, *_ in levels}
     return building, storeys
+
+
+def storey(model: ifcopenshell.file, building: Entity, name: str, elevation: float,
+           length_m: float) -> Entity:
+    """A storey of ``building`` named ``name`` placed at ``elevation`` (model units)."""
+    st = api(model, "IfcBuildingStorey", name=name)
+    st.Elevation = elevation
+    ifcopenshell.api.aggregate.assign_object(model, products=[st], relating_object=building)
+    place(model, st, 0.0, 0.0, elevation * length_m)
+    return st
+
+
+def slab(model: ifcopenshell.file, ctx: Contexts, storey: Entity, name: str,
+         corners: list[tuple[float, float]], top: float, thickness: float, length_m: float,
+         openings: tuple[tuple[float, float, float, float], ...] = ()) -> Entity:
+    """An IfcSlab (FLOOR) in ``storey``: a vertical extrusion of ``corners`` whose top is at
+    ``top``, with rectangular openings (x0, y0, x1, y1) through it.  Model units throughout.
+    """
+    body = ctx[0]
+    s = api(model, "IfcSlab", name=name, predefined_type="FLOOR")
+    ifcopenshell.api.spatial.assign_container(model, products=[s], relating_structure=storey)
+    place(model, s, 0.0, 0.0, (top - thickness) * length_m)
+    rep = ifcopenshell.api.geometry.add_slab_representation(
+        model, context=body, depth=thickness * length_m,
+        polyline=[(x * length_m, y * length_m) for x, y in corners])
+    ifcopenshell.api.geometry.assign_representation(model, product=s, representation=rep)
+    for k, (x0, y0, x1, y1) in enumerate(openings, start=1):
+        hole = api(model, "IfcOpeningElement", name=f"{name} opening {k}")
+        place(model, hole, 0.0, 0.0, (top - thickness - 50.0 * 0.001 / length_m) * length_m)
+        rep = ifcopenshell.api.geometry.add_slab_representation(
+            model, context=body, depth=thickness * length_m + 0.1,
+            polyline=[(x * length_m, y * length_m)
+                      for x, y in ((x0, y0), (x1, y0), (x1, y1), (x0, y1))])
+        ifcopenshell.api.geometry.assign_representation(model, product=hole,
+                                                        representation=rep)
+        ifcopenshell.api.feature.add_feature(model, feature=hole, element=s)
+    return s
 
 
 def grid(model: ifcopenshell.file, storey: Entity, xs: dict[str, float],

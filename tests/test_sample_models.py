@@ -113,7 +113,11 @@ def test_sample_content_is_as_described():
     assert model.schema == "IFC4"
     assert len(model.by_type("IfcColumn")) == 40
     assert sorted(s.Name for s in model.by_type("IfcBuildingStorey")) == [
-        "Level 0 - Workshop", "Level 1 - Library annex", "Level 2 - Studios"]
+        "Level 0 - Workshop", "Level 0M - Mezzanine", "Level 1 - Library annex",
+        "Level 2 - Studios", "Roof"]
+    # one slab per storey above the ground, the stair void through both floors
+    assert len(model.by_type("IfcSlab")) == 4
+    assert len(model.by_type("IfcOpeningElement")) == 2
     assert len(model.by_type("IfcStructuralAnalysisModel")) == 1
     # one analysis member per column except the post added after the analysis run
     assert len(model.by_type("IfcStructuralCurveMember")) == 39
@@ -125,6 +129,8 @@ def test_sample_content_is_as_described():
     assert pavilion.schema == "IFC2X3"
     assert len(pavilion.by_type("IfcColumn")) == 8
     assert not pavilion.by_type("IfcStructuralActivity")
+    assert sorted(s.Name for s in pavilion.by_type("IfcSlab")) == [
+        "Slab Level 1 - Lookout", "Slab Roof"]
 
 
 # ---------------------------------------------------------------- what the reader sees
@@ -173,13 +179,16 @@ def test_pavilion_table_rows_match_columns_by_tag():
 # ---------------------------------------------------------------- check results
 
 
-@pytest.mark.parametrize("name", ["workshop_annex.ifc", "garden_pavilion.ifc"])
+@pytest.mark.parametrize("name", list(gen.CHECKS))
 def test_check_reproduces_expected_summary(summary, name):
     # Expected: sample_models/expected_summary.json, recorded by running the real check
     # once (sample_models/generate.py); a regression record, not an independent value.
     expected = summary[name]
-    table = expected["loads_table"]
-    report = check_model(SAMPLES / name, loads_table=SAMPLES / table if table else None)
+    table, takedown = expected["loads_table"], expected["takedown"]
+    report = check_model(SAMPLES / gen.CHECKS[name][0],
+                         loads_table=SAMPLES / table if table else None,
+                         takedown=SAMPLES / takedown if takedown else None)
+    assert sorted({m["load_source"] for m in report["members"]}) == expected["load_sources"]
     s = report["summary"]
     hint = ("the check no longer reproduces sample_models/expected_summary.json; if the "
             "engine / reader change is intended, rerun sample_models/generate.py and commit")
@@ -212,6 +221,31 @@ def test_workshop_fails_exactly_where_the_scenario_plants_problems():
     assert sources == {"material", "grade"}
 
 
+def test_pavilion_takedown_by_hand():
+    # Every column gets the takedown's loads; two deck columns within 1 % of a hand
+    # takedown.  Pavilion (sample_models/generate.py): one 240 x 192 in bay; lookout slab
+    # 5 in, y = -48 .. 192 (a 48 in balcony south of line 1), roof slab 3 in over the bay.
+    # garden_pavilion_takedown.toml: lookout D 10, L 100 psf (assembly: not reduced, ASCE
+    # 7-22 §4.7.5), roof D 8, Lr 20, S 25 psf, slabs 145 pcf.  Cells are quarter bays:
+    # C-A1-L0 (0, 0): lookout 120 x 144 in = 120 ft², roof 120 x 96 in = 80 ft²;
+    # C-A2-L0 (0, 192): lookout 120 x 96 in = 80 ft², roof 80 ft².  Self-weight: W6X15
+    # 15 lb/ft x 12 ft and HSS3X3X3/16 6.87 lb/ft x 10 ft (AISC Shapes Database v16.0).
+    report = check_model(SAMPLES / "garden_pavilion.ifc",
+                         takedown=SAMPLES / gen.PAVILION_TAKEDOWN)
+    rows = {m["name"]: m for m in report["members"]}
+    assert {m["load_source"] for m in rows.values()} == {"takedown"}
+    assert {m["status"] for m in rows.values()} == {"pass"}
+    columns = 15.0 * 12.0 + 6.87 * 10.0
+    for name, lookout in (("C-A1-L0", 120.0), ("C-A2-L0", 80.0)):
+        D = (10.0 + 145.0 * 5.0 / 12.0) * lookout + (8.0 + 145.0 * 3.0 / 12.0) * 80.0 + columns
+        L, roof_live, snow = 100.0 * lookout, 20.0 * 80.0, 25.0 * 80.0
+        # ASCE 7-22 Eq. 2.3.1-2 governs: 1.2D + 1.6L + 0.5(Lr or S), here S
+        want = (1.2 * D + 1.6 * L + 0.5 * max(roof_live, snow)) / 1000.0
+        assert rows[name]["required_strength"] == pytest.approx(want, rel=0.01), name
+        assert rows[name]["tributary_area"] == pytest.approx(lookout + 80.0, rel=1e-3)
+        assert rows[name]["llr_factor"] == pytest.approx(1.0)
+
+
 # ---------------------------------------------------------------- stanchion demo
 
 
@@ -225,6 +259,9 @@ def test_demo_writes_the_four_outputs(tmp_path, capsys, summary):
         assert str(path) in printed
     expected = summary["workshop_annex.ifc"]
     assert f"members {expected['members']}: {expected['pass']} pass" in printed
+    # the takedown gives the post without analysis results its loads
+    assert "load takedown (workshop_annex_takedown.toml)" in printed
+    assert "  P-M4: tributary area" in printed
     report = json.loads(paths["JSON report"].read_text(encoding="utf-8"))
     assert report["summary"]["fail"] == expected["fail"]
     assert len(pd.read_csv(paths["CSV"])) == expected["members"]
@@ -251,3 +288,17 @@ def test_demo_without_sample_exits_2_with_one_line(tmp_path, capsys, monkeypatch
     assert len(err.strip().splitlines()) == 1
     assert "workshop_annex.ifc not found" in err and "pip install -e" in err
     assert not out.exists()
+
+
+def test_demo_pavilion_takedown_writes_its_own_outputs(tmp_path, capsys):
+    out = tmp_path / "out"
+    assert main(["demo", "--sample", "pavilion-takedown", "--output-dir", str(out)]) == 0
+    printed = capsys.readouterr().out
+    assert "load takedown (garden_pavilion_takedown.toml): estimated service loads for 8" \
+        in printed
+    paths = cmd_demo.output_paths(SAMPLES / "garden_pavilion.ifc", out,
+                                  "garden_pavilion_takedown")
+    assert all(p.is_file() for p in paths.values())
+    report = json.loads(paths["JSON report"].read_text(encoding="utf-8"))
+    assert report["source"]["takedown"] == "garden_pavilion_takedown.toml"
+    assert {m["load_source"] for m in report["members"]} == {"takedown"}

@@ -71,7 +71,7 @@ def test_the_shipped_example():
     assert p.units == "SI"
     garage = p.level_loads("Level 1 - Parking")
     assert isinstance(garage, LevelLoads) and garage.use == "garage"
-    hall = p.level_loads("Level 4 - Lecture hall")
+    hall = p.level_loads("Level 4 - Auditorium")
     assert hall is not None and hall.use == "assembly"
     roof = p.level_loads("Roof")
     assert roof is not None and roof.live_load_reduction is False
