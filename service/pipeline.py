@@ -29,6 +29,7 @@ from stanchion.service.load_table import given_force_unit
 from stanchion.service.reports.baseline import DEFAULT_THRESHOLD, compare, load_baseline
 from stanchion.service.reports.files import write_outputs
 from stanchion.service.request import MembersRequest
+from stanchion.service.requirements import apply_ids, load_ids
 
 if TYPE_CHECKING:
     from stanchion.service import model_check
@@ -86,6 +87,9 @@ class CheckOptions(BaseModel):
         None, description="report units of a model check: us (kip, ft, ksi, the default) or "
         "si (kN, m, MPa)")
     loads_table: Path | None = Field(None, description="CSV load table for a model")
+    ids: Path | None = Field(
+        None, description="an IDS 1.0 document the model is validated against; what each "
+        "column misses goes into the report (requirements)")
     takedown: Path | None = Field(
         None, description="load takedown project file (TOML) for a model: loads of the "
         "columns without any from the slabs (docs/design.md §5 'Load takedown')")
@@ -185,11 +189,16 @@ def check(source: Path, options: CheckOptions | None = None,
     refuse_options(options, model)
     check_paths(source, options, outputs)
     baseline = load_baseline(options.baseline) if options.baseline is not None else None
+    ids = load_ids(options.ids) if options.ids is not None else None  # InputError
     progress = progress or Silent()
 
     if model:
         run = model_check.check_model(source, options, progress)
         members, results, report = run.members, run.results, run.report
+        if ids is not None:
+            assert options.ids is not None
+            with progress.phase(f"validating against {options.ids.name}"):
+                apply_ids(report, run.model, ids, options.ids.name)
     else:
         request = load_members_request(source, options.method)
         members, results, report = members_check.check_members_request(request)
@@ -228,7 +237,7 @@ def refuse_options(options: CheckOptions, model: bool) -> None:
                             ("--force-unit", options.force_unit),
                             ("--lenient", options.lenient),
                             ("--default-grade", options.default_grade),
-                            ("--takedown", options.takedown)):
+                            ("--takedown", options.takedown), ("--ids", options.ids)):
             if value:
                 raise InputError(f"{name} applies to IFC models; a members file carries "
                                  "its own loads, units, grades and candidates")
@@ -275,7 +284,7 @@ def check_paths(source: Path, options: CheckOptions, outputs: OutputPaths) -> No
         raise InputError("--bcf applies to IFC models: its topics select columns by their "
                          "IfcGuid")
     inputs = {"the input file": source, "the --loads table": options.loads_table,
-              "the --takedown project": options.takedown,
+              "the --takedown project": options.takedown, "the --ids document": options.ids,
               "the --baseline report": options.baseline}
     if options.loads_table is not None and _same_file(Path(options.loads_table), source):
         raise InputError("--loads names the model itself")

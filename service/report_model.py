@@ -153,6 +153,9 @@ class _MemberResult(_Contract):
     combinations: dict[str, float | None] = Field(
         None, description="detail: every load combination's axial effect (compression "
         "positive) by combination name, in the report's force unit")
+    requirements: list[str] = Field(
+        None, description="with --ids (IFC input): the IDS requirements this element does "
+        "not meet, each '<specification>: <what failed>'; empty when it meets them all")
 
 
 class CheckedMember(_MemberResult):
@@ -265,6 +268,26 @@ class Changes(_Contract):
     counts: ChangeCounts = Field(description="how many entries each list has")
 
 
+class SpecificationResult(_Contract):
+    """One IDS specification against the model."""
+
+    name: str = Field(description="the specification's name")
+    applicable: Count = Field(description="elements it applies to")
+    failed: Count = Field(description="of those, elements failing a requirement")
+    passed: bool = Field(description="the specification holds (its cardinality included)")
+
+
+class Requirements(_Contract):
+    """The model validated against an IDS document (--ids), docs/design.md §3."""
+
+    ids: str = Field(description="name of the IDS file")
+    title: str | None = Field(description="the IDS's title; null when it has none")
+    specifications: list[SpecificationResult] = Field(description="one per specification, "
+                                                       "in the IDS's order")
+    members_missing: Count = Field(description="report members with at least one unmet "
+                                   "requirement")
+
+
 class Report(_Contract):
     """Axial compression check report (AISC 360-22 Chapter E), in the report's units."""
 
@@ -285,6 +308,8 @@ class Report(_Contract):
                            "jobs; not in a POST /v1/checks response)")
     changes: Changes = Field(None, description="comparison with a previous report (--baseline "
                              "only)")
+    requirements: Requirements = Field(
+        None, description="the model validated against an IDS before the check (--ids only)")
 
 
 # ------------------------------------------------------------------------------ HTTP bodies

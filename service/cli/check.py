@@ -28,6 +28,7 @@ from stanchion.service.reports.terminal import (
     nothing_checked_line,
     warnings,
 )
+from stanchion.service.requirements import requirements_lines
 
 FAIL_ON = ("any", "new-failures")
 
@@ -81,6 +82,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
             utilization_limit=args.utilization_limit, oversized=args.oversized,
             families=tuple(args.families) if args.families else None,
             baseline=Path(args.baseline) if args.baseline else None,
+            ids=Path(args.ids) if args.ids else None,
             change_threshold=args.change_threshold, allow_not_checked=args.allow_not_checked)
     except ValidationError as exc:  # pragma: no cover - argparse and the checks above refuse first
         raise InputError(validation_message(exc)) from None
@@ -96,6 +98,8 @@ def run_check(args: argparse.Namespace) -> int:
     report = check(Path(args.input), options, outputs, progress).report
     code = exit_code(report, args.allow_not_checked, args.fail_on)
     if not args.quiet:
+        for line in requirements_lines(report):
+            print(line)
         print(format_run(report, fail_on=args.fail_on,
                          allow_not_checked=args.allow_not_checked))
         for line in warnings(report, args.allow_not_checked):
@@ -154,6 +158,10 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                      "grade ('Steel', 'Structural Steel'), e.g. A992, S355, '345 MPa'; "
                      "stated in every output; never for columns without a material. "
                      "Without it such columns are not checked")
+    inp.add_argument("--ids", metavar="FILE.ids",
+                     help="validate the model against this IDS 1.0 document first (e.g. the "
+                     "one 'stanchion requirements' prints); what each column misses is "
+                     "printed and given in the report; it does not change the exit code")
     inp.add_argument("--include-members", action="store_true",
                      help="also check IfcMember elements")
     inp.add_argument("--analysis-members", action="store_true",

@@ -13,7 +13,7 @@ def test_every_verb_is_on_the_command_line(capsys) -> None:
     out = capsys.readouterr().out
     for verb in cli.VERBS:
         assert verb in out
-    assert set(cli.VERBS) == {"check", "suggest", "serve", "demo"}  # docs/design.md §4
+    assert set(cli.VERBS) == {"check", "suggest", "requirements", "serve", "demo"}  # §4
 
 
 def test_a_verb_whose_module_is_missing_fails_loudly(monkeypatch) -> None:
