@@ -384,7 +384,8 @@ def resolve_sections(requests: list[SectionRequest]) -> Resolution:
         _name_check(d, sections, int(u_row[u]) if d.code != _NOT_CHECKED else -1)
         if d.code == _NOT_CHECKED:
             u_row[u] = -1
-    thickness = [_thickest(r.spec, sections.row(int(u_row[u])) if u_row[u] >= 0 else None)
+    thickness = [_thickest(r.spec, sections.row(int(u_row[u]))
+                           if u_row[u] >= 0 and r.spec.family is None else None)
                  for u, r in enumerate(reqs)]
     return Resolution(
         sections=sections,

@@ -304,3 +304,39 @@ def test_circle_outline_in_a_model_without_angle_unit(builder):
     r = math.sqrt(193.7**2 + 177.7**2) / 4 * MM  # hand: r of a ring = √(D² + d²)/4
     expected = phi_pn(A, r, 3000 * MM, 355 * MPA)
     assert res.available_strength[0] == pytest.approx(expected, rel=TOL)
+
+
+# --------------------------------------------------------------------- reasons
+
+
+def test_an_outline_fitting_no_family_is_not_checked(builder):
+    # a cruciform of two 200 x 20 mm plates: no supported family
+    m = builder.model
+    pts = [(10, -100), (10, -10), (100, -10), (100, 10), (10, 10), (10, 100), (-10, 100),
+           (-10, 10), (-100, 10), (-100, -10), (-10, -10), (-10, -100), (10, -100)]
+    _column(builder, arbitrary(m, polyline(m, pts), None), builder.material("S275JR"),
+            3000 * MM)
+    members, res = _check(builder)
+    assert res.status[0] == "not_checked"
+    assert members.reason[0].startswith("profile IfcArbitraryClosedProfileDef: outline fits "
+                                        "no supported section family")
+
+
+def test_an_angle_outline_is_not_checked(builder):
+    # L 100 x 100 x 10 mm drawn as a polyline: recognised, and out of scope
+    m = builder.model
+    pts = [(0, 0), (100, 0), (100, 10), (10, 10), (10, 100), (0, 100), (0, 0)]
+    _column(builder, arbitrary(m, polyline(m, pts), "L100x100x10"), builder.material("S275JR"),
+            3000 * MM)
+    members, res = _check(builder)
+    assert res.status[0] == "not_checked"
+    assert "outline is an angle" in members.reason[0]
+    assert "outside the scope" in members.reason[0]
+
+
+def test_an_unreadable_outline_names_its_curve(builder):
+    profile = arbitrary(builder.model, _ellipse(builder.model), "P1")
+    _column(builder, profile, builder.material("S275JR"), 3000 * MM)
+    members, _ = _check(builder)
+    assert members.reason[0].startswith("profile IfcArbitraryClosedProfileDef 'P1': outline "
+                                        "of type IfcEllipse not supported")
