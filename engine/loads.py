@@ -204,15 +204,19 @@ class LoadTable:
     """Service axial load effects by element, as a front end parsed them from a load table.
 
     Attributes:
-        rows: (element text, {load type: value in that column's unit}) in table order.
+        rows: (element text, {load type: value in that column's unit}) in table order; in a
+            table keyed by grid and level the text is the row's grid location (``B-2``).
         to_kip: {load type: factor to kip} per column; None for a column without a unit,
             whose values are in the force unit of the model the table goes with.
         label: where the table came from (file name), for messages.
+        levels: None for a table keyed by element (GlobalId, Tag or Name); for a column load
+            schedule keyed by grid and level, each row's level (a storey name).
     """
 
     rows: tuple[tuple[str, dict[str, float]], ...]
     to_kip: dict[str, float | None]
     label: str = "load table"
+    levels: tuple[str, ...] | None = None
 
     @property
     def uses_model_unit(self) -> bool:

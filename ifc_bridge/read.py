@@ -31,7 +31,7 @@ import numpy as np
 
 from stanchion.engine.arrays import AnyArray, FloatArray
 from stanchion.engine.loads import LoadTable
-from stanchion.engine.materials import UNKNOWN
+from stanchion.engine.materials import UNKNOWN, skip_reason
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import SectionTable
 from stanchion.ifc_bridge.access import Entity, get
@@ -45,7 +45,7 @@ from stanchion.ifc_bridge.errors import ModelReadError
 from stanchion.ifc_bridge.grids import GridNamer, read_grids
 from stanchion.ifc_bridge.lengths import analytical_length, choose_length
 from stanchion.ifc_bridge.load_cases import AnalysisLoads
-from stanchion.ifc_bridge.loads import match_table, merge_loads
+from stanchion.ifc_bridge.loads import Places, match_table, merge_loads
 from stanchion.ifc_bridge.materials import (
     MaterialCache,
     MaterialInfo,
@@ -522,6 +522,7 @@ def read_columns(
             column (they are read anyway when the model has no column to read).
         loads_table: optional load table, already parsed by the front end
             (``service.load_table.read_load_table``); its rows are matched to the columns
+            by element or, for a column load schedule, by grid location and storey
             (:func:`ifc_bridge.loads.match_table`).
         force_unit: the unit the model's forces are read in when it declares none
             (``--force-unit``; :func:`ifc_bridge.units.read_units`).
@@ -619,8 +620,10 @@ def _read(model: ifcopenshell.file, include_members: bool,
 
     matched = None
     if table is not None:
+        places = Places([r.grid for r in rows], [r.storey for r in rows],
+                        [skip_reason(c) is None for c in _material_classes(rows)])
         matched = match_table(table, units.force, [r.gid for r in rows],
-                              [r.tag for r in rows], [r.element.Name for r in rows])
+                              [r.tag for r in rows], [r.element.Name for r in rows], places)
         if table.uses_model_unit:
             units.note_use("force")
     cols = _Columns.empty(len(rows))

@@ -7,15 +7,22 @@
     C-12,100,55,4,
 
 ``element`` is a GlobalId, Tag or Name (matched to the model's columns by
-:func:`ifc_bridge.loads.match_table`).  Load columns are ``D L Lr S R W E``
-(case-insensitive), optionally with a unit in brackets -- any force unit pint understands
-(``kip``, ``kN``, ``lbf``, ``N``, ``MN`` ...); without one, values are in the force unit
-given apart (``--force-unit``), else in the model's force unit where the model declares one
-(converted by the reader, which knows it; a model that declares none refuses such a table,
-:func:`stanchion.ifc_bridge.read.read_columns`: units are never guessed, issue 13).  Empty
-cells mean "not given".  Anything else
-(unknown column, text in a number cell, a unit that is not a force) makes the whole table
-unusable: :class:`LoadTableError`, one line naming the problem (exit 2).
+:func:`ifc_bridge.loads.match_table`).  A column load schedule is keyed by grid location and
+level instead (``stanchion loads-template`` writes one)::
+
+    grid,level,GlobalId,Tag,Name,D [kN],L [kN]
+    B-2,Level 1,2O2Fr$t4X7Zf8NOew3FLOH,C-12,C-12,400,250
+
+``grid`` is the column's grid location as the reports name it (``B-2``), ``level`` its
+storey's name; ``GlobalId``, ``Tag`` and ``Name`` are for the reader, never matched on.
+Load columns are ``D L Lr S R W E`` (case-insensitive), optionally with a unit in brackets
+-- any force unit pint understands (``kip``, ``kN``, ``lbf``, ``N``, ``MN`` ...); without
+one, values are in the force unit given apart (``--force-unit``), else in the model's force
+unit where the model declares one (converted by the reader, which knows it; a model that
+declares none refuses such a table, :func:`stanchion.ifc_bridge.read.read_columns`: units
+are never guessed, issue 13).  Empty cells mean "not given".  Anything else (unknown
+column, text in a number cell, a unit that is not a force) makes the whole table unusable:
+:class:`LoadTableError`, one line naming the problem (exit 2).
 """
 
 from __future__ import annotations
@@ -98,8 +105,76 @@ def _frame(path: str | Path, label: str) -> pd.DataFrame:
         raise LoadTableError(f"cannot read load table {label}: {detail}") from None
 
 
+#: Header of a column load schedule: its first two columns, case-insensitive.
+GRID_KEYS = ("grid", "level")
+#: Columns of a schedule kept for the reader of the spreadsheet, never matched on
+#: (``stanchion loads-template`` writes them), case-insensitive.
+REFERENCE_COLUMNS = ("globalid", "tag", "name")
+
+
+def _key_count(columns: list[str], label: str) -> int:
+    """1 for a table keyed by element, 2 for a schedule keyed by grid and level."""
+    lower = [c.lower() for c in columns]
+    if lower[:1] == ["element"]:
+        return 1
+    if tuple(lower[:2]) == GRID_KEYS:
+        return 2
+    raise LoadTableError(f"load table {label}: the first column must be 'element', or the "
+                         f"first two 'grid,level' (header is {','.join(columns)})")
+
+
+def _load_columns(columns: list[str], keys: int, label: str, given: float | None
+                  ) -> tuple[list[tuple[int, str]], dict[str, float | None]]:
+    """(position, load type) of each load column and each type's factor to kip."""
+    plan: list[tuple[int, str]] = []
+    to_kip: dict[str, float | None] = {}
+    seen: set[str] = set()
+    for pos, col in enumerate(columns[keys:], start=keys):
+        if keys == 2 and col.lower() in REFERENCE_COLUMNS:
+            if col.lower() in seen:
+                raise LoadTableError(f"load table {label}: column '{col}' appears twice")
+            seen.add(col.lower())
+            continue
+        m = _HEADER.match(col)
+        kind = _TYPES_BY_LOWER.get(m.group(1).lower()) if m else None
+        if kind is None:
+            extra = ", or GlobalId, Tag, Name for reference" if keys == 2 else ""
+            raise LoadTableError(f"load table {label}: column '{col}' is not a load type "
+                                 f"({', '.join(LOAD_TYPES)}, optionally with a [unit]{extra})")
+        if kind in to_kip:
+            raise LoadTableError(f"load table {label}: load type {kind} appears twice")
+        assert m is not None  # a load type was recognised in it
+        unit = m.group(2)
+        to_kip[kind] = _force_factor(unit, label) if unit else given
+        plan.append((pos, kind))
+    return plan, to_kip
+
+
+def _row_loads(values: tuple[str, ...], plan: list[tuple[int, str]], where: str
+               ) -> dict[str, float]:
+    """The load cells of one row (empty cells are "not given")."""
+    loads: dict[str, float] = {}
+    for pos, kind in plan:
+        cell = str(values[pos]).strip()
+        if not cell:
+            continue
+        try:
+            number = float(cell)
+        except ValueError:
+            raise LoadTableError(f"{where}, column {kind}: '{cell}' is not a number") from None
+        if not math.isfinite(number):
+            raise LoadTableError(f"{where}, column {kind}: '{cell}' is not a finite number")
+        loads[kind] = number
+    return loads
+
+
 def read_load_table(path: str | Path, force_unit: str | None = None) -> LoadTable:
-    """Parse the CSV load table.
+    """Parse the CSV load table: keyed by element, or a column load schedule.
+
+    A schedule's header starts ``grid,level`` (the grid location, ``B-2``, and the storey
+    name); columns ``GlobalId``, ``Tag`` and ``Name`` may follow for the reader and are not
+    matched on.  A schedule row whose grid location and level are both empty and that gives
+    no load (a template row of a column without a grid location) is left out.
 
     Args:
         path: the CSV file.
@@ -109,7 +184,8 @@ def read_load_table(path: str | Path, force_unit: str | None = None) -> LoadTabl
     Returns:
         The table; values of columns with a unit (or with ``force_unit``) are converted to
         kip when the reader asks (:meth:`engine.loads.LoadTable.in_kip`), the others take
-        the model's force unit.
+        the model's force unit.  A schedule's rows carry their levels
+        (:attr:`engine.loads.LoadTable.levels`).
 
     Raises:
         LoadTableError: unreadable file or bad content, one line naming the problem.
@@ -118,41 +194,19 @@ def read_load_table(path: str | Path, force_unit: str | None = None) -> LoadTabl
     given = _given_unit(force_unit)
     frame = _frame(path, label)
     columns = [str(c).strip() for c in frame.iloc[0]] if len(frame) else []
-    if not columns or columns[0].lower() != "element":
-        raise LoadTableError(f"load table {label}: the first column must be 'element' "
-                             f"(header is {','.join(columns)})")
-    plan: list[tuple[int, str]] = []
-    to_kip: dict[str, float | None] = {}
-    for pos, col in enumerate(columns[1:], start=1):
-        m = _HEADER.match(col)
-        kind = _TYPES_BY_LOWER.get(m.group(1).lower()) if m else None
-        if kind is None:
-            raise LoadTableError(f"load table {label}: column '{col}' is not a load type "
-                                 f"({', '.join(LOAD_TYPES)}, optionally with a [unit])")
-        if kind in to_kip:
-            raise LoadTableError(f"load table {label}: load type {kind} appears twice")
-        assert m is not None  # a load type was recognised in it
-        unit = m.group(2)
-        to_kip[kind] = _force_factor(unit, label) if unit else given
-        plan.append((pos, kind))
+    keys = _key_count(columns, label)
+    plan, to_kip = _load_columns(columns, keys, label, given)
     rows: list[tuple[str, dict[str, float]]] = []
+    levels: list[str] = []
     for line, values in enumerate(frame.iloc[1:].itertuples(index=False, name=None), start=2):
         element = str(values[0]).strip()
-        if not element:
-            raise LoadTableError(f"load table {label}, line {line}: no element")
-        loads: dict[str, float] = {}
-        for pos, kind in plan:
-            cell = str(values[pos]).strip()
-            if not cell:
+        loads = _row_loads(values, plan, f"load table {label}, line {line}")
+        if keys == 2:
+            level = str(values[1]).strip()
+            if not (element or level or loads):
                 continue
-            try:
-                number = float(cell)
-            except ValueError:
-                raise LoadTableError(f"load table {label}, line {line}, column {kind}: "
-                                     f"'{cell}' is not a number") from None
-            if not math.isfinite(number):
-                raise LoadTableError(f"load table {label}, line {line}, column {kind}: "
-                                     f"'{cell}' is not a finite number")
-            loads[kind] = number
+            levels.append(level)
+        elif not element:
+            raise LoadTableError(f"load table {label}, line {line}: no element")
         rows.append((element, loads))
-    return LoadTable(tuple(rows), to_kip, label)
+    return LoadTable(tuple(rows), to_kip, label, tuple(levels) if keys == 2 else None)

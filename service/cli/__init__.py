@@ -1,11 +1,12 @@
 """The ``stanchion`` command line (docs/design.md §4).  Thin: parse, call the pipeline, format.
 
 Each verb lives in its own module of this package (``check``, ``suggest``,
-``requirements``, ``serve``, ``demo``) exposing ``add_parser(subparsers)``
-that registers the verb with ``func=`` set.  Exit codes: 0 every member passes; 1 any member
-fails or is not checked; 2 unusable input (one line on stderr, nothing written); 130 when
-interrupted (SIGINT, Ctrl-C) and 143 when terminated (SIGTERM), after the temporary files of
-unfinished writes are removed (one line on stderr).
+``requirements``, ``serve``, ``demo``; the module ``loads_template`` is the verb
+``loads-template``) exposing ``add_parser(subparsers)`` that registers the verb with
+``func=`` set.  Exit codes: 0 every member passes; 1 any member fails or is not checked; 2
+unusable input (one line on stderr, nothing written); 130 when interrupted (SIGINT, Ctrl-C)
+and 143 when terminated (SIGTERM), after the temporary files of unfinished writes are
+removed (one line on stderr).
 """
 
 from __future__ import annotations
@@ -21,7 +22,7 @@ from types import FrameType
 from stanchion.service.errors import EXIT_BAD_INPUT, InputError
 
 #: The verbs, one module each in this package; each exposes ``add_parser(subparsers)``.
-VERBS = ("check", "suggest", "requirements", "serve", "demo")
+VERBS = ("check", "suggest", "requirements", "serve", "demo", "loads_template")
 #: Exit codes when interrupted (SIGINT) and terminated (SIGTERM): 128 + the signal number,
 #: as a shell reports a process ended by that signal (common practice, no source).
 EXIT_INTERRUPTED, EXIT_TERMINATED = 128 + signal.SIGINT, 128 + signal.SIGTERM

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import re
+
 import pytest
 
 from stanchion.service.errors import InputError
@@ -59,3 +61,39 @@ def test_bad_tables_are_refused(tmp_path, text, problem):
 def test_missing_table_file(tmp_path):
     with pytest.raises(LoadTableError, match="no such file"):
         read_load_table(tmp_path / "none.csv")
+
+
+def test_column_load_schedule_keyed_by_grid_and_level(tmp_path):
+    table = _table(tmp_path, (
+        "Grid,Level,GlobalId,Tag,Name,D [kN],L [kN]\n"
+        "B-2,Level 1,2O2Fr$t4X7Zf8NOew3FLOH,T1,C1,400,250\n"
+        '"B-2 (+610, -152 mm)",Level 1,,,C2,10,\n'
+        ",,3Xyz,,C9,,\n"  # a template row of a column without a grid, left empty: left out
+        ",Level 2,,,C8,5,\n"))  # loads without a grid: kept, the reader names it
+    # expected: the cells as written; GlobalId, Tag and Name are for reference only
+    assert table.rows == (("B-2", {"D": 400.0, "L": 250.0}),
+                          ("B-2 (+610, -152 mm)", {"D": 10.0}), ("", {"D": 5.0}))
+    assert table.levels == ("Level 1", "Level 1", "Level 2")
+    assert table.to_kip["D"] == pytest.approx(KIP_PER_KN)
+
+
+def test_element_table_has_no_levels(tmp_path):
+    assert _table(tmp_path, "element,D [kip]\nC1,1\n").levels is None
+
+
+@pytest.mark.parametrize(
+    ("text", "problem"),
+    [
+        ("level,grid,D\nL1,B-2,1\n", "first column must be 'element', or the first two "
+                                     "'grid,level'"),
+        ("grid,level,Tag,Tag,D\nB-2,L1,a,b,1\n", "column 'Tag' appears twice"),
+        ("grid,level,Mark,D\nB-2,L1,a,1\n", "column 'Mark' is not a load type (D, L, Lr, S, "
+                                            "R, W, E, optionally with a [unit], or GlobalId, "
+                                            "Tag, Name for reference)"),
+        ("element,GlobalId,D\nC1,x,1\n", "column 'GlobalId' is not a load type"),
+        ("grid,level,D\nB-2,L1,x\n", "line 2, column D: 'x' is not a number"),
+    ],
+)
+def test_unusable_schedules(tmp_path, text, problem):
+    with pytest.raises(LoadTableError, match="^load table .*" + re.escape(problem)):
+        _table(tmp_path, text)
