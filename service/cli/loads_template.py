@@ -130,8 +130,11 @@ def run_loads_template(args: argparse.Namespace) -> int:
     if out is None:
         sys.stdout.write(text)
     else:
+        def write(tmp: Path) -> None:
+            tmp.write_text(text, encoding="utf-8")
+
         try:
-            write_atomic(out, lambda tmp: tmp.write_text(text, encoding="utf-8"))
+            write_atomic(out, write)
         except OSError as exc:
             raise InputError(f"cannot write {out}: {exc.strerror or exc}") from None
     warning = unmatchable(read)
