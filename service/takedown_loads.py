@@ -195,7 +195,7 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
             _refuse(members, i, str(why))
     unused = project.unused_storeys([s.name for s in storeys])
     out.messages.append(
-        f"--takedown {project_name}: loads of {len(out.used)} of the {len(wanted)} member(s) "
+        f"load takedown {project_name}: loads of {len(out.used)} of the {len(wanted)} member(s) "
         "without loads from the gravity load takedown (estimated service loads; "
         "docs/design.md §5)")
     if unused:

@@ -92,8 +92,12 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
     names = {params["model"]: params.get("filename") or params["model"]}
     if params.get("loads"):
         names[params["loads"]] = params.get("loads_filename") or params["loads"]
+    takedown = job_dir / params["takedown"] if params.get("takedown") else None
+    if params.get("takedown"):
+        names[params["takedown"]] = params.get("takedown_filename") or params["takedown"]
     try:
         options = CheckOptions(method=params.get("design_method", "LRFD"), loads_table=loads,
+                               takedown=takedown,
                                force_unit=params.get("force_unit"),
                                default_grade=params.get("default_grade"),
                                analysis_members=bool(params.get("analysis_members", False)),

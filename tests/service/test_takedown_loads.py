@@ -122,7 +122,7 @@ def test_every_column_gets_the_hand_takedown_within_one_percent(tmp_path, schema
     assert "L reduced by ASCE 7-22 §4.7: factor 0.45 (KLL = 4, AT = 1,458 ft² over 2 floors)" \
         in rows["C-11-1"]["messages"]
     assert report["source"]["takedown"] == "project.toml"
-    assert any(m.startswith("--takedown project.toml: loads of 27 of the 27")
+    assert any(m.startswith("load takedown project.toml: loads of 27 of the 27")
                for m in report["messages"])
     saved = json.loads((tmp_path / "r.json").read_text(encoding="utf-8"))
     assert {m["load_source"] for m in saved["members"]} == {"takedown"}

@@ -1,4 +1,4 @@
-"""``POST /v1/models``: upload an IFC model (and a load table) to be checked as a job."""
+"""``POST /v1/models``: upload an IFC model (a load table, a takedown project) to check as a job."""
 
 from __future__ import annotations
 
@@ -22,6 +22,7 @@ from stanchion.service.jobs.runner import JobRunner
 from stanchion.service.jobs.store import PARAMS_FILE, JobStore
 from stanchion.service.load_table import given_force_unit
 from stanchion.service.report_model import JobAccepted
+from stanchion.service.takedown_project import parse_project
 
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
 
@@ -38,6 +39,10 @@ router = APIRouter(tags=["models"], dependencies=AUTH)
                      "description": "IFC model (.ifc, .ifczip, .ifcxml)"},
             "loads": {"type": "string", "format": "binary",
                       "description": "optional CSV load table (docs/design.md §5)"},
+            "takedown": {"type": "string", "format": "binary", "description":
+                         "optional load takedown project file (TOML, docs/design.md §5 "
+                         "'Load takedown'; the command line's --takedown): estimated loads "
+                         "from the slabs for the columns without any"},
             "design_method": {"type": "string", "enum": ["LRFD", "ASD"], "default": "LRFD"},
             "force_unit": {"type": "string", "maxLength": 40, "description":
                            "optional: the force unit of a model that declares none and of "
@@ -78,7 +83,7 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
         try:
             parts = await receive_form(
                 request.stream(), boundary, incoming, max_bytes=settings.max_upload_bytes,
-                file_fields={"file", "loads"},
+                file_fields={"file", "loads", "takedown"},
                 text_fields={"design_method", "force_unit", "default_grade",
                              "analysis_members"},
             )
@@ -156,7 +161,44 @@ def _job_params(parts: dict[str, Any], folder: Path) -> dict[str, Any]:
         loads_name = "loads.csv"
     elif loads is not None:  # an empty, unnamed part: a form field left blank
         loads.path.unlink(missing_ok=True)
+    takedown_name, takedown_filename = _takedown(parts.get("takedown"), folder)
     return {"model": f"model{suffix}", "filename": filename, "design_method": method,
+            "takedown": takedown_name, "takedown_filename": takedown_filename,
             "force_unit": force_unit, "default_grade": grade,
             "analysis_members": analysis_members, "loads": loads_name,
             "loads_filename": loads.filename if loads is not None and loads_name else None}
+
+
+def _takedown(part: Any, folder: Path) -> tuple[str | None, str | None]:
+    """Validate an uploaded takedown project file and keep it under its own name.
+
+    It is kept as ``takedown/NAME`` (characters other than letters, digits, ``.``, ``_``,
+    ``-`` and space replaced), so the report names the file the user sent.
+
+    Returns:
+        (the job's file name, the uploaded name), or (None, None) when none was given.
+
+    Raises:
+        FieldError: 422 naming ``takedown`` -- the file is empty, not UTF-8 or not a usable
+            project (the one line the command line prints).
+    """
+    if part is None:
+        return None, None
+    if part.size == 0 and not part.filename:  # an empty, unnamed part: left blank
+        part.path.unlink(missing_ok=True)
+        return None, None
+    if part.size == 0:
+        raise FieldError(422, "the uploaded takedown project file is empty", "takedown")
+    name = Path(part.filename or "takedown.toml").name
+    try:
+        parse_project(part.path.read_text(encoding="utf-8"), f"takedown project {name}")
+    except UnicodeDecodeError:
+        raise FieldError(422, f"takedown project {name}: not UTF-8 text", "takedown") from None
+    except InputError as exc:
+        raise FieldError(422, str(exc), "takedown") from None
+    safe = "".join(c if c.isalnum() or c in "._- " else "_" for c in name)[:100].strip()
+    if not safe.strip("."):
+        safe = "takedown.toml"
+    (folder / "takedown").mkdir()
+    part.path.rename(folder / "takedown" / safe)
+    return f"takedown/{safe}", name
