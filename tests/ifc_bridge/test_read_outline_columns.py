@@ -340,3 +340,22 @@ def test_an_unreadable_outline_names_its_curve(builder):
     members, _ = _check(builder)
     assert members.reason[0].startswith("profile IfcArbitraryClosedProfileDef 'P1': outline "
                                         "of type IfcEllipse not supported")
+
+
+def test_derived_outline_profile_is_read(builder):
+    # an IfcDerivedProfileDef turning an 'IPE 200' composite-curve outline by 90° and moving
+    # it: the parent's outline, turned back to the AISC axes. EN 10365 IPE 200 published:
+    # A 28.5 cm², iz 2.24 cm (from memory); S235JR, L = 2000 mm.
+    m = builder.model
+    add_angle_unit(m, "degree")
+    parent = filleted_i(m, 200, 100, 5.6, 8.5, 12, 1.0)
+    op = m.createIfcCartesianTransformationOperator2D(
+        m.createIfcDirection((0.0, 1.0)), m.createIfcDirection((-1.0, 0.0)),
+        m.createIfcCartesianPoint((500.0, -300.0)), 1.0)
+    profile = m.createIfcDerivedProfileDef("AREA", "IPE 200", parent, op, None)
+    _column(builder, profile, builder.material("S235JR"), 2000 * MM)
+    members, res = _check(builder)
+    assert members.reason[0] is None
+    assert members.extra["profile_source"][0].endswith("/outline")
+    expected = phi_pn(28.5 * 100 * MM**2, 22.4 * MM, 2000 * MM, 235 * MPA)
+    assert res.available_strength[0] == pytest.approx(expected, rel=TOL)
