@@ -42,6 +42,8 @@ RESULT_FILE = "result.json"
 REPORT_FILE = "report.json"
 MODEL_OUT_FILE = "checked.ifc"
 CSV_FILE = "report.csv"
+JUNIT_FILE = "junit.xml"
+BCF_FILE = "issues.bcf"
 LOG_FILE = "worker.log"
 #: The worker's temporary folder (its ``TMPDIR``: an ``.ifczip`` is extracted there), removed
 #: by the server whenever the worker has ended.

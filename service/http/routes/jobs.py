@@ -11,13 +11,26 @@ from starlette.exceptions import HTTPException
 
 from stanchion.service.http.dependencies import AUTH, JobDep, RunnerDep, StoreDep, result_file
 from stanchion.service.http.responses import download, errors, report_download
-from stanchion.service.jobs.store import CSV_FILE, MODEL_OUT_FILE, REPORT_FILE
+from stanchion.service.jobs.store import (
+    BCF_FILE,
+    CSV_FILE,
+    JUNIT_FILE,
+    MODEL_OUT_FILE,
+    REPORT_FILE,
+)
 from stanchion.service.report_model import JobStatus
 
 router = APIRouter(tags=["models"], dependencies=AUTH)
 
 #: Media type of a checked model (IFC-SPF, ISO 10303-21).
 IFC_MEDIA_TYPE = "application/x-step"
+#: Media type of a BCF file: BCF has no registered media type (the BCF-XML specification
+#: names none and IANA lists none), so the generic binary type (RFC 2046 §4.5.1) with a
+#: ``.bcf`` file name; ``application/zip`` would be true of its container but invites
+#: clients to unpack it as a plain archive.
+BCF_MEDIA_TYPE = "application/octet-stream"
+#: Media type of JUnit XML (RFC 7303).
+JUNIT_MEDIA_TYPE = "application/xml"
 
 
 def _stem(filename: str) -> str:
@@ -61,6 +74,30 @@ def job_csv(job: JobDep, store: StoreDep) -> FileResponse:
     path = result_file(store, job, CSV_FILE, "CSV report")
     return FileResponse(path, media_type="text/csv",
                         filename=f"{_stem(job.filename)}-report.csv")
+
+
+@router.get("/v1/jobs/{job_id}/junit", response_class=FileResponse,
+            responses={**download(JUNIT_MEDIA_TYPE, "JUnit XML: one test case per column, "
+                                  "a suite per storey", binary=False),
+                       **errors(401, 404, 409)},
+            summary="JUnit XML of a finished job")
+def job_junit(job: JobDep, store: StoreDep) -> FileResponse:
+    """One JUnit test case per column (docs/design.md §3)."""
+    path = result_file(store, job, JUNIT_FILE, "JUnit report")
+    return FileResponse(path, media_type=JUNIT_MEDIA_TYPE,
+                        filename=f"{_stem(job.filename)}-junit.xml")
+
+
+@router.get("/v1/jobs/{job_id}/bcf", response_class=FileResponse,
+            responses={**download(BCF_MEDIA_TYPE, "BCF 3.0 issues: one topic per failing or "
+                                  "not-checked column"),
+                       **errors(401, 404, 409)},
+            summary="BCF issues of a finished job")
+def job_bcf(job: JobDep, store: StoreDep) -> FileResponse:
+    """BCF 3.0: a topic per failing or not-checked column (docs/design.md §3)."""
+    path = result_file(store, job, BCF_FILE, "BCF file")
+    return FileResponse(path, media_type=BCF_MEDIA_TYPE,
+                        filename=f"{_stem(job.filename)}-issues.bcf")
 
 
 @router.delete("/v1/jobs/{job_id}", status_code=204, responses=errors(401, 404),

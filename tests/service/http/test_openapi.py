@@ -25,6 +25,8 @@ EXPECTED = {
     ("get", "/v1/jobs/{job_id}/report"): {"200", "401", "404", "409"},
     ("get", "/v1/jobs/{job_id}/model"): {"200", "401", "404", "409"},
     ("get", "/v1/jobs/{job_id}/csv"): {"200", "401", "404", "409"},
+    ("get", "/v1/jobs/{job_id}/junit"): {"200", "401", "404", "409"},
+    ("get", "/v1/jobs/{job_id}/bcf"): {"200", "401", "404", "409"},
     ("get", "/v1/sections"): {"200", "401", "404", "422"},
 }
 
@@ -69,6 +71,10 @@ def test_downloads_have_their_media_types(schema: dict) -> None:
         {"application/x-step"}
     assert set(paths["/v1/jobs/{job_id}/csv"]["get"]["responses"]["200"]["content"]) == \
         {"text/csv"}
+    assert set(paths["/v1/jobs/{job_id}/junit"]["get"]["responses"]["200"]["content"]) == \
+        {"application/xml"}
+    assert set(paths["/v1/jobs/{job_id}/bcf"]["get"]["responses"]["200"]["content"]) == \
+        {"application/octet-stream"}
 
 
 def test_real_answers_validate_against_the_documented_models(tmp_path: Path) -> None:
