@@ -1,6 +1,6 @@
 """``check MODEL --takedown PROJECT.toml``: takedown loads for the columns that have none.
 
-Docs/design.md §5 "Load takedown".
+The rules: docs/design.md §5 "Load takedown".
 
 :func:`apply_takedown` runs after the reader and before the check:
 
