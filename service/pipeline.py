@@ -133,11 +133,12 @@ class OutputPaths(BaseModel):
     csv: Path | None = None
     junit: Path | None = None
     bcf: Path | None = None
+    html: Path | None = None
 
     def named(self) -> dict[str, Path]:
         """The given outputs by their command-line option."""
         options = {"model": "--out", "report": "--report", "csv": "--csv",
-                   "junit": "--junit", "bcf": "--bcf"}
+                   "junit": "--junit", "bcf": "--bcf", "html": "--html"}
         return {options[k]: Path(v) for k, v in self.model_dump().items() if v is not None}
 
 
@@ -214,6 +215,9 @@ def check(source: Path, options: CheckOptions | None = None,
                   junit_path=outputs.junit, allow_not_checked=options.allow_not_checked)
     if model and outputs.bcf is not None:
         _write_bcf(run, outputs.bcf)
+    if outputs.html is not None:
+        _write_html(outputs.html, report, members,
+                    _detailed(members, results, None if model else request))
     return CheckRun(report, members, results, "model" if model else "members")
 
 
@@ -223,6 +227,40 @@ def _write_bcf(run: model_check.ModelCheck, path: Path) -> None:
 
     try:
         write_bcf(path, run.report, scene_of(run))
+    except OSError as exc:
+        raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
+
+
+def _detailed(members: MemberTable, results: CheckResults,
+              request: MembersRequest | None) -> CheckResults:
+    """The results with every combination's value kept (the HTML report lists them).
+
+    The same check again with ``detail``: a members file's own combinations and options
+    (:func:`stanchion.service.members_check.run_request`), or the model check's (the
+    default combinations of the method).
+    """
+    if results.combination_values is not None:
+        return results
+    if request is not None:
+        from stanchion.service.members_check import run_request
+
+        return run_request(request.model_copy(update={"detail": True}))[1]
+    from stanchion.engine.check import check_members
+
+    return check_members(members, results.method, detail=True)
+
+
+def _write_html(path: Path, report: dict[str, Any], members: MemberTable,
+                results: CheckResults) -> None:
+    """Write the HTML report (``--html``), atomically.
+
+    Grid lines, slab outlines and tributary areas are not passed yet (``plans`` None): the
+    plans draw the columns from the report's positions.
+    """
+    from stanchion.service.reports.html import write_html
+
+    try:
+        write_html(path, report, members, results, plans=None)
     except OSError as exc:
         raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
 

@@ -41,6 +41,7 @@ def test_wheel_holds_only_the_stanchion_package(tmp_path: Path) -> None:
     # the package data and the type marker travel with it
     for needed in ("stanchion/py.typed", "stanchion/engine/data/aisc_shapes_v16.csv",
                    "stanchion/service/schemas/report.schema.json",
+                   "stanchion/service/reports/templates/report.html",
                    "stanchion/engine/compression.py", "stanchion/ifc_bridge/read.py"):
         assert needed in names
 

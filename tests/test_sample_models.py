@@ -277,7 +277,7 @@ def test_demo_console_script_from_another_folder(tmp_path):
         [sys.executable, "-m", "stanchion.service.cli", "demo", "--sample", "pavilion",
          "--output-dir", "out"], capture_output=True, text=True, cwd=tmp_path, timeout=120)
     assert done.returncode == 0, done.stderr
-    assert len(list((tmp_path / "out").iterdir())) == 4
+    assert len(list((tmp_path / "out").iterdir())) == 5  # model, JSON, CSV, JUnit, HTML
 
 
 def test_demo_without_sample_exits_2_with_one_line(tmp_path, capsys, monkeypatch):

@@ -87,7 +87,7 @@ def options_from(args: argparse.Namespace) -> tuple[CheckOptions, OutputPaths]:
     except ValidationError as exc:  # pragma: no cover - argparse and the checks above refuse first
         raise InputError(validation_message(exc)) from None
     outputs = OutputPaths(model=args.out, report=args.report, csv=args.csv, junit=args.junit,
-                          bcf=args.bcf)
+                          bcf=args.bcf, html=args.html)
     return options, outputs
 
 
@@ -129,6 +129,9 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     out.add_argument("--csv", metavar="R.csv", help="write one CSV row per member here")
     out.add_argument("--junit", metavar="J.xml",
                      help="write JUnit XML here: one test case per member, a suite per storey")
+    out.add_argument("--html", metavar="REPORT.html",
+                     help="write a self-contained HTML report here: summary, plans by "
+                     "storey, column schedule, a detail with the capacity curve per column")
     out.add_argument("--bcf", metavar="ISSUES.bcf",
                      help="write BCF 3.0 issues here (IFC input): one topic per failing or "
                      "not-checked column, selecting it by its IfcGuid, with a snapshot of "
