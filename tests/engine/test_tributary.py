@@ -7,7 +7,7 @@ import time
 import numpy as np
 import pytest
 import shapely
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from stanchion.engine.live_load_reduction import CORNER, EDGE, INTERIOR, K_LL, OUTSIDE
@@ -202,10 +202,14 @@ def test_column_without_a_plan_position():
 
 @settings(max_examples=60, deadline=None)
 @given(seed=st.integers(0, 10_000), n=st.integers(1, 60))
+@example(seed=3735, n=21)
 def test_cells_tile_the_slab_and_hold_their_column(seed, n):
     # Property (Voronoi partition, no source needed): the cells of the columns on the slab
     # tile it exactly, and each such column lies in its own cell, or within the 1 in
     # tolerance of it (a column just inside an opening still counts as on the slab).
+    # Columns within 1 in of another each get the whole cell (engine/tributary.py): only
+    # the first of each such group counts towards the tiling (hypothesis found seed 3735,
+    # n = 21, two columns 0.61 in apart).
     rng = np.random.default_rng(seed)
     pts = rng.uniform(0, 1000, (n, 2))
     x0, y0 = rng.uniform(100, 700, 2)
@@ -213,8 +217,10 @@ def test_cells_tile_the_slab_and_hold_their_column(seed, n):
                          [shapely.box(x0, y0, x0 + rng.uniform(10, 200), y0 + 50)])
     t = tributary_areas(pts, region)
     on = t.reason == None  # noqa: E711 - object array
+    first = t.coincident == np.arange(n)
     if on.any():
-        assert t.area.sum() == pytest.approx(region.area, rel=1e-9)
+        assert t.area[first].sum() == pytest.approx(region.area, rel=1e-9)
     assert (t.area[~on] == 0).all()
+    assert (t.area == t.area[t.coincident]).all()  # a group shares one cell
     for i in np.flatnonzero(on):
         assert t.cells[i].distance(shapely.Point(pts[i])) <= 1.0 + 1e-9
