@@ -26,6 +26,7 @@ import ifcopenshell.validate
 import numpy as np
 import pandas as pd
 import pytest
+from bcf.v3.bcfxml import BcfXml
 
 from stanchion.engine.members import LOAD_TYPES
 from stanchion.engine.units import factor
@@ -270,6 +271,9 @@ def test_demo_writes_the_four_outputs(tmp_path, capsys, summary):
     checked = ifcopenshell.open(str(paths["checked model"]))
     psets = [p for p in checked.by_type("IfcPropertySet") if p.Name == "Stanchion_ColumnCheck"]
     assert len(psets) == expected["members"]
+    issues = BcfXml.load(paths["BCF issues"])  # one topic per failing or not-checked column
+    assert len(issues.topics) == expected["fail"] + expected["not_checked"]
+    issues.close()
 
 
 def test_demo_console_script_from_another_folder(tmp_path):
@@ -277,7 +281,7 @@ def test_demo_console_script_from_another_folder(tmp_path):
         [sys.executable, "-m", "stanchion.service.cli", "demo", "--sample", "pavilion",
          "--output-dir", "out"], capture_output=True, text=True, cwd=tmp_path, timeout=120)
     assert done.returncode == 0, done.stderr
-    assert len(list((tmp_path / "out").iterdir())) == 5  # model, JSON, CSV, JUnit, HTML
+    assert len(list((tmp_path / "out").iterdir())) == 6  # model, JSON, CSV, JUnit, HTML, BCF
 
 
 def test_demo_without_sample_exits_2_with_one_line(tmp_path, capsys, monkeypatch):

@@ -5,9 +5,9 @@ demo data only; see ``sample_models/README.md``).  They are not part of the inst
 package: the demo finds them next to this package, which works when the project is
 installed in editable mode from a checkout (``pip install -e .``, as ``make demo`` does).
 
-The demo writes the checked model, the JSON report, the CSV, the JUnit XML and the HTML
-report into ``--output-dir`` (default ``demo-output``) and prints the same summary as
-``stanchion check``.
+The demo writes the checked model, the JSON report, the CSV, the JUnit XML, the HTML
+report and the BCF issues into ``--output-dir`` (default ``demo-output``) and prints the
+same summary as ``stanchion check``.
 It exits 0 although the workshop sample has failing and not-checked columns on purpose; it
 exits 2 with one line on stderr when the demo itself cannot run (sample missing or
 unreadable, output folder not writable).
@@ -52,7 +52,7 @@ def sample_paths(name: str, folder: Path) -> tuple[Path, Path | None, Path | Non
 
 
 def output_paths(model: Path, output_dir: Path, stem: str | None = None) -> dict[str, Path]:
-    """Where the five outputs of a demo run go (named after the sample, or ``stem``)."""
+    """Where the six outputs of a demo run go (named after the sample, or ``stem``)."""
     stem = stem or model.stem
     return {
         "checked model": output_dir / f"{stem}_checked.ifc",
@@ -60,6 +60,7 @@ def output_paths(model: Path, output_dir: Path, stem: str | None = None) -> dict
         "CSV": output_dir / f"{stem}_report.csv",
         "JUnit XML": output_dir / f"{stem}_junit.xml",
         "HTML report": output_dir / f"{stem}_report.html",
+        "BCF issues": output_dir / f"{stem}_issues.bcf",
     }
 
 
@@ -82,7 +83,7 @@ def run_demo(args: argparse.Namespace) -> int:
         model, CheckOptions(loads_table=table, takedown=takedown, suggest=True),
         OutputPaths(model=outputs["checked model"], report=outputs["JSON report"],
                     csv=outputs["CSV"], junit=outputs["JUnit XML"],
-                    html=outputs["HTML report"])).report
+                    html=outputs["HTML report"], bcf=outputs["BCF issues"])).report
     print(format_run(report))
     for m in report["members"]:
         if m.get("suggestions"):
@@ -116,9 +117,9 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     d = sub.add_parser(
         "demo", help="check a sample model and write every output",
         description="Check a sample model of an invented building end to end and write the "
-        "checked model, JSON report, CSV, JUnit XML and HTML report. Needs a source checkout "
-        "installed with `pip install -e .`. Exit 0 when the demo ran (the sample fails on "
-        "purpose), 2 when it could not run.")
+        "checked model, JSON report, CSV, JUnit XML, HTML report and BCF issues. Needs a "
+        "source checkout installed with `pip install -e .`. Exit 0 when the demo ran (the "
+        "sample fails on purpose), 2 when it could not run.")
     d.add_argument("--output-dir", default=DEFAULT_OUTPUT, metavar="DIR",
                    help=f"folder for the outputs (default {DEFAULT_OUTPUT})")
     d.add_argument("--sample", choices=sorted(SAMPLES), default="workshop",
