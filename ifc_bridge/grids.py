@@ -361,16 +361,17 @@ class GridNamer:
         """Distance to the nearest intersection of grid ``g`` and its index, per point."""
         points = self._crossings[g][0]
         n = len(xy)
-        dist = np.full(n, np.inf)
         which = np.zeros(n, dtype=np.intp)
         if not len(points):
-            return dist, which
+            return np.full(n, np.inf), which
+        centre = points.mean(axis=0)  # small numbers: |p|^2 - 2 p.q + |q|^2 stays exact
+        q = points - centre
+        q2 = (q**2).sum(axis=1)
         for start in range(0, n, _BLOCK):
-            block = xy[start:start + _BLOCK]
-            d2 = ((block[:, None, :] - points[None, :, :]) ** 2).sum(axis=2)
-            k = np.argmin(d2, axis=1)
-            which[start:start + _BLOCK] = k
-            dist[start:start + _BLOCK] = np.sqrt(d2[np.arange(len(block)), k])
+            block = xy[start:start + _BLOCK] - centre
+            d2 = q2[None, :] - 2.0 * (block @ q.T)  # + |p|^2, the same for every q
+            which[start:start + _BLOCK] = np.argmin(d2, axis=1)
+        dist = np.hypot(*(xy - points[which]).T)
         return dist, which
 
     def names(self, x: Sequence[float], y: Sequence[float],
@@ -395,25 +396,52 @@ class GridNamer:
         xy = np.where(known[:, None], xy, 0.0)
         found = [self._nearest(g, xy) for g in range(len(self.grids))]
         dist = np.array([f[0] for f in found])  # (grids, n)
-        grid_storeys = [g.storey for g in self.grids]
-        for i in np.flatnonzero(known).tolist():
-            storey = storeys[i] or None
-            own = [g for g, s in enumerate(grid_storeys) if storey is not None and s == storey]
-            pool = own or range(len(self.grids))
-            g = min(pool, key=lambda k: dist[k, i])
-            if not math.isfinite(dist[g, i]):
-                continue
-            out[i] = self._name(g, int(found[g][1][i]), xy[i])
+        which = np.array([f[1] for f in found])
+        choice = self._choose(dist, storeys)
+        for g in range(len(self.grids)):
+            cols = np.flatnonzero((choice == g) & known)
+            if len(cols):
+                for i, name in zip(cols.tolist(), self._names(g, which[g, cols], xy[cols]),
+                                   strict=True):
+                    out[i] = name
         return out
 
-    def _name(self, g: int, k: int, p: FloatArray) -> str:
+    def _choose(self, dist: FloatArray, storeys: Sequence[str | None]) -> np.ndarray:
+        """Per position, the grid that names it (-1: none): the storey's grids, else all."""
+        n = dist.shape[1]
+        choice = np.full(n, -1, dtype=np.intp)
+        groups: dict[str | None, list[int]] = {}
+        for i, storey in enumerate(storeys):
+            groups.setdefault(storey or None, []).append(i)
+        for storey, members in groups.items():
+            own = [g for g, grid in enumerate(self.grids)
+                   if storey is not None and grid.storey == storey]
+            pool = np.array(own or range(len(self.grids)), dtype=np.intp)
+            idx = np.array(members, dtype=np.intp)
+            sub = dist[np.ix_(pool, idx)]
+            best = np.argmin(sub, axis=0)
+            finite = np.isfinite(sub[best, np.arange(len(idx))])
+            choice[idx[finite]] = pool[best[finite]]
+        return choice
+
+    def _names(self, g: int, k: np.ndarray, p: FloatArray) -> list[str]:
+        """Names of positions ``p`` whose nearest intersection of grid ``g`` is ``k``."""
         grid = self.grids[g]
         points, iu, iv = self._crossings[g]
-        u, v = grid.u[int(iu[k])], grid.v[int(iv[k])]
-        name = f"{u.tag}-{v.tag}"
-        basis = np.array([u.direction, v.direction]).T
-        a, b = np.linalg.solve(basis, p - points[k])
-        if abs(a) <= self.tolerance and abs(b) <= self.tolerance:
-            return name
-        return (f"{name} ({_offset_text(float(a), self.decimals)}, "
-                f"{_offset_text(float(b), self.decimals)} {self.symbol})")
+        u_axes, v_axes = iu[k], iv[k]
+        u = np.array([a.direction for a in grid.u])[u_axes]
+        v = np.array([a.direction for a in grid.v])[v_axes]
+        d = p - points[k]
+        det = u[:, 0] * v[:, 1] - u[:, 1] * v[:, 0]  # the two directions as a basis
+        a = (d[:, 0] * v[:, 1] - d[:, 1] * v[:, 0]) / det
+        b = (u[:, 0] * d[:, 1] - u[:, 1] * d[:, 0]) / det
+        on = (np.abs(a) <= self.tolerance) & (np.abs(b) <= self.tolerance)
+        names = []
+        for iu_, iv_, a_, b_, on_ in zip(u_axes.tolist(), v_axes.tolist(), a.tolist(),
+                                         b.tolist(), on.tolist(), strict=True):
+            name = f"{grid.u[iu_].tag}-{grid.v[iv_].tag}"
+            if not on_:
+                name += (f" ({_offset_text(a_, self.decimals)}, "
+                         f"{_offset_text(b_, self.decimals)} {self.symbol})")
+            names.append(name)
+        return names
