@@ -219,3 +219,39 @@ def test_length_symbols():
 def test_namer_without_positions():
     namer = GridNamer([], 1 / 25.4)
     assert namer.names([math.nan], [math.nan], [None]) == [None]
+
+
+def test_indexed_and_bent_polylines(builder):
+    from stanchion.ifc_bridge.grids import GridError
+
+    m = builder.model
+    pts = [m.createIfcCartesianPoint(p) for p in ((0.0, 0.0), (5.0, 5.0), (10.0, 10.0))]
+    # three points on y = x: the direction is (1, 1) / sqrt 2
+    point, d = axis_line(m.createIfcPolyline(pts))
+    assert point == (0.0, 0.0) and d == pytest.approx((math.sqrt(0.5), math.sqrt(0.5)))
+    bent = m.createIfcPolyline([m.createIfcCartesianPoint(p)
+                                for p in ((0.0, 0.0), (5.0, 1.0), (10.0, 0.0))])
+    with pytest.raises(GridError, match="not straight"):
+        axis_line(bent)
+    if builder.schema != "IFC2X3":  # IfcIndexedPolyCurve is IFC4 and later
+        coords = m.create_entity("IfcCartesianPointList2D", CoordList=[(0.0, 2.0), (0.0, 8.0)])
+        curve = m.create_entity("IfcIndexedPolyCurve", Points=coords)
+        assert axis_line(curve) == ((0.0, 2.0), (0.0, 1.0))
+
+
+def test_grid_placement_ref_direction_turns_a_child(builder):
+    """A local placement relative to a grid-placed one follows PlacementRefDirection."""
+    b = builder
+    _, axes = add_grid(b)
+    parent = steel_column(b, "parent")
+    placement = grid_placed(b, parent, axes, "B", "2")  # (360, 240) in
+    m = b.model
+    placement.PlacementRefDirection = m.createIfcDirection((0.0, 1.0, 0.0))  # x along +y
+    child = steel_column(b, "child")
+    origin = m.createIfcAxis2Placement3D(m.createIfcCartesianPoint((b.L(12.0), 0.0, 0.0)))
+    child.ObjectPlacement = m.createIfcLocalPlacement(placement, origin)
+    # 12 in along the parent's x axis, which is +y: (360, 252) in, 12 in off B-2 along 2
+    x, y = PlanPositions().xy(child)
+    assert (x, y) == (pytest.approx(b.L(360.0)), pytest.approx(b.L(252.0)))
+    names = read_columns(m).members
+    assert grid_of(names, "child") == "B-2 (0, +305 mm)"
