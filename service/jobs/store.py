@@ -44,6 +44,7 @@ MODEL_OUT_FILE = "checked.ifc"
 CSV_FILE = "report.csv"
 JUNIT_FILE = "junit.xml"
 BCF_FILE = "issues.bcf"
+HTML_FILE = "report.html"
 LOG_FILE = "worker.log"
 #: The worker's temporary folder (its ``TMPDIR``: an ``.ifczip`` is extracted there), removed
 #: by the server whenever the worker has ended.

@@ -2,7 +2,7 @@
 
 It reads ``JOB_DIR/job.json`` (written by the server when the upload was complete), checks the
 model with the pipeline (:func:`stanchion.service.pipeline.check`), leaves the report, checked
-model, CSV, JUnit XML and BCF issues in the folder, and writes ``result.json``:
+model, CSV, JUnit XML, BCF issues and HTML report in the folder, and writes ``result.json``:
 ``{"status": "done", "summary": {...}}`` or ``{"status": "failed", "error": "one line"}``.
 The server (:mod:`stanchion.service.jobs.runner`) reads that file once the process has
 ended; a process that crashes or is killed leaves none and its job is failed by the server.
@@ -31,6 +31,7 @@ from stanchion.service.jobs.runner import CPU_LIMIT_ENV, SERVER_PID_ENV
 from stanchion.service.jobs.store import (
     BCF_FILE,
     CSV_FILE,
+    HTML_FILE,
     JUNIT_FILE,
     MODEL_OUT_FILE,
     PARAMS_FILE,
@@ -106,7 +107,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
                                source_name=names[params["model"]])
         outputs = OutputPaths(model=job_dir / MODEL_OUT_FILE, report=job_dir / REPORT_FILE,
                               csv=job_dir / CSV_FILE, junit=job_dir / JUNIT_FILE,
-                              bcf=job_dir / BCF_FILE)
+                              bcf=job_dir / BCF_FILE, html=job_dir / HTML_FILE)
         report = (check or pipeline_check)(model, options, outputs)
         if not (job_dir / REPORT_FILE).exists():
             write_json(job_dir / REPORT_FILE, report)

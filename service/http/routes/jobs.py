@@ -14,6 +14,7 @@ from stanchion.service.http.responses import download, errors, report_download
 from stanchion.service.jobs.store import (
     BCF_FILE,
     CSV_FILE,
+    HTML_FILE,
     JUNIT_FILE,
     MODEL_OUT_FILE,
     REPORT_FILE,
@@ -98,6 +99,19 @@ def job_bcf(job: JobDep, store: StoreDep) -> FileResponse:
     path = result_file(store, job, BCF_FILE, "BCF file")
     return FileResponse(path, media_type=BCF_MEDIA_TYPE,
                         filename=f"{_stem(job.filename)}-issues.bcf")
+
+
+@router.get("/v1/jobs/{job_id}/html", response_class=FileResponse,
+            responses={**download("text/html", "the HTML report: one self-contained page "
+                                  "(plans, column schedule, a detail per column)",
+                                  binary=False),
+                       **errors(401, 404, 409)},
+            summary="HTML report of a finished job")
+def job_html(job: JobDep, store: StoreDep) -> FileResponse:
+    """The HTML report (docs/design.md §3), as a file to save and open (an attachment)."""
+    path = result_file(store, job, HTML_FILE, "HTML report")
+    return FileResponse(path, media_type="text/html; charset=utf-8",
+                        filename=f"{_stem(job.filename)}-report.html")
 
 
 @router.delete("/v1/jobs/{job_id}", status_code=204, responses=errors(401, 404),

@@ -27,6 +27,7 @@ EXPECTED = {
     ("get", "/v1/jobs/{job_id}/csv"): {"200", "401", "404", "409"},
     ("get", "/v1/jobs/{job_id}/junit"): {"200", "401", "404", "409"},
     ("get", "/v1/jobs/{job_id}/bcf"): {"200", "401", "404", "409"},
+    ("get", "/v1/jobs/{job_id}/html"): {"200", "401", "404", "409"},
     ("get", "/v1/sections"): {"200", "401", "404", "422"},
 }
 
@@ -75,6 +76,8 @@ def test_downloads_have_their_media_types(schema: dict) -> None:
         {"application/xml"}
     assert set(paths["/v1/jobs/{job_id}/bcf"]["get"]["responses"]["200"]["content"]) == \
         {"application/octet-stream"}
+    assert set(paths["/v1/jobs/{job_id}/html"]["get"]["responses"]["200"]["content"]) == \
+        {"text/html"}
 
 
 def test_real_answers_validate_against_the_documented_models(tmp_path: Path) -> None:
