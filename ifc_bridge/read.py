@@ -636,6 +636,7 @@ def _read(model: ifcopenshell.file, include_members: bool,
     if matched is not None:
         messages.extend(matched.messages)
     messages.extend(reader.analysis.model_messages)
+    messages.extend(reader.index.notes)
     messages.extend(grid_messages)
     messages.extend(units.warnings)
     if not rows:

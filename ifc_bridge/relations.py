@@ -78,6 +78,8 @@ class RelationIndex:
         result_groups: activity -> IfcStructuralResultGroup(s) it is assigned to
             (IfcRelAssignsToGroup).
         steel_properties: material -> IfcMechanicalSteelMaterialProperties (IFC2X3).
+        notes: model-level notes on relationships read with a doubt (a spatial structure
+            element contained like an element, which IFC's rule WR31 forbids).
     """
 
     container: dict[int, Entity] = field(default_factory=dict)
@@ -89,6 +91,7 @@ class RelationIndex:
     activities: dict[int, list[Entity]] = field(default_factory=lambda: defaultdict(list))
     result_groups: dict[int, list[Entity]] = field(default_factory=lambda: defaultdict(list))
     steel_properties: dict[int, Entity] = field(default_factory=dict)
+    notes: list[str] = field(default_factory=list)
     _storey_cache: dict[int, Entity | None] = field(default_factory=dict, repr=False)
     _allowed: dict[tuple[str | None, tuple[str, ...]], bool] = field(default_factory=dict,
                                                                       repr=False)
@@ -148,6 +151,11 @@ class RelationIndex:
             structure = self._one(rel, "RelatingStructure", "IfcProduct")
             for obj in self._many(rel, "RelatedElements", "IfcProduct"):
                 self.container.setdefault(obj.id(), structure)
+                if obj.is_a("IfcSpatialStructureElement") and not obj.is_a("IfcSpace"):
+                    self.notes.append(
+                        f"#{rel.id()} IfcRelContainedInSpatialStructure contains #{obj.id()}, "
+                        f"an {obj.is_a()} (a spatial structure element is never contained, "
+                        "IFC rule WR31): the model may be damaged (an element retyped?)")
 
     def _add_decomposition(self, model: ifcopenshell.file) -> None:
         """``parent`` from IfcRelAggregates, then IfcRelNests (the first one wins)."""

@@ -39,7 +39,7 @@ import ifcopenshell.util.unit
 from stanchion.engine.units import factor
 from stanchion.ifc_bridge.access import Entity
 from stanchion.ifc_bridge.errors import ModelReadError
-from stanchion.ifc_bridge.relations import describe
+from stanchion.ifc_bridge.relations import describe, instance_of
 
 #: Quantity -> (IFC unit type, SI unit in pint spelling, internal unit in pint spelling).
 QUANTITIES: dict[str, tuple[str, str, str]] = {
@@ -207,6 +207,12 @@ def read_units(model: ifcopenshell.file, force: GivenUnit | None = None) -> Mode
     names: dict[str, str] = {}
     declared: dict[str, bool] = {}
     has_project = bool(model.by_type("IfcProject"))
+    for project in model.by_type("IfcProject") if has_project else ():
+        assignment: Entity = getattr(project, "UnitsInContext", None)
+        if assignment is not None and not instance_of(assignment, "IfcUnitAssignment"):
+            raise ModelReadError(f"damaged model: #{project.id()} IfcProject.UnitsInContext "
+                                 f"holds {describe(assignment)} where an IfcUnitAssignment "
+                                 "belongs")
     for quantity, (unit_type, si_name, internal) in QUANTITIES.items():
         unit = ifcopenshell.util.unit.get_project_unit(model, unit_type) if has_project else None
         to_internal = factor(si_name, internal)

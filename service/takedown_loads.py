@@ -31,7 +31,7 @@ from typing import TYPE_CHECKING, Any
 import numpy as np
 import shapely
 
-from stanchion.engine.materials import STEEL
+from stanchion.engine.materials import NOT_STEEL, STEEL
 from stanchion.engine.members import MemberTable
 from stanchion.engine.takedown import Level, SlabPiece, Takedown, takedown
 from stanchion.engine.units import length_factor
@@ -74,6 +74,11 @@ def _has_no_loads(members: MemberTable, i: int) -> bool:
         return False
     text = members.reason[i]
     return bool(text) and any(p.startswith(NO_LOADS) for p in str(text).split("; "))
+
+
+def _not_steel(material: object) -> bool:
+    """The member's material class is one or more classes other than steel (skipped)."""
+    return material is not None and all(c in NOT_STEEL for c in str(material).split(", "))
 
 
 def _polygon(outer: Any, holes: Any, scale: float) -> Any:
@@ -145,10 +150,10 @@ def _why_not(top: float, storeys: list[StoreySlabs], to_in: float, unit: str,
         return ("no takedown: the column's Body is not a vertical extrusion, so its top is "
                 "not known")
     near = min(storeys, key=lambda s: abs(s.elevation * to_in - top), default=None)
-    where = (f"; the nearest storey, {near.name}, is at {near.elevation * to_in / per_unit:,.3g}"
+    where = (f"; the nearest storey, {near.name}, is at {near.elevation * to_in / per_unit:,.2f}"
              f" {unit}" if near is not None else "; the model has no storey")
-    return (f"no takedown: the column's top ({top / per_unit:,.3g} {unit}) is at no storey's "
-            f"elevation (within {TOP_TOLERANCE:g} in){where}")
+    return (f"no takedown: the column's top ({top / per_unit + 0.0:,.2f} {unit}) is at no "
+            f"storey's elevation (within {TOP_TOLERANCE:g} in){where}")
 
 
 def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: TakedownProject,
@@ -184,7 +189,9 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
     # in order within each
     order = [int(i) for k in ks for i in np.flatnonzero(level_of == k)]
     row = {m: j for j, m in enumerate(order)}
-    wanted = [i for i in range(n) if _has_no_loads(members, i)]
+    material = members.material if members.material is not None else [None] * n
+    wanted = [i for i in range(n)
+              if not _not_steel(material[i]) and _has_no_loads(members, i)]
     for i in wanted:
         j = row.get(i)
         why = (_takedown_reason(result, j) if j is not None else
@@ -196,8 +203,8 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
     unused = project.unused_storeys([s.name for s in storeys])
     out.messages.append(
         f"load takedown {project_name}: loads of {len(out.used)} of the {len(wanted)} member(s) "
-        "without loads from the gravity load takedown (estimated service loads; "
-        "docs/design.md §5)")
+        "without loads (members not of steel left out) from the gravity load takedown "
+        "(estimated service loads; docs/design.md §5)")
     if unused:
         out.messages.append(f"takedown: storeys named in {project_name} but not in the "
                             f"model: {', '.join(unused)}")

@@ -13,6 +13,7 @@ import csv
 import json
 import math
 
+import ifcopenshell.api.material
 import pytest
 
 from stanchion.engine.members import LOAD_TYPES
@@ -217,3 +218,20 @@ def test_missing_project_file_and_members_file_are_refused(tmp_path, capsys):
     members.write_text("{}", encoding="utf-8")
     assert main(["check", str(members), "--takedown", str(tmp_path / "p.toml")]) == 2
     assert "--takedown applies to IFC models" in capsys.readouterr().err
+
+
+def test_members_not_of_steel_are_left_out(tmp_path):
+    def concrete(b, columns):
+        profile = b.profile("RECT", "300x300", H=12.0, B=12.0)
+        mat = ifcopenshell.api.material.add_material(b.model, name="Concrete C30/37")
+        col = b.column("K-1", profile=profile, material=mat,
+                       length=tm.HEIGHT, storey="Level 1", at=(150.0, 180.0), via="body")
+        col.ObjectPlacement = tm._placement(b, 150.0, 180.0, 0.0)  # on the foundation
+
+    model, project = _write(tmp_path, "IFC4", edit=concrete)
+    report = check(model, CheckOptions(takedown=project)).report
+    rows = {r["name"]: r for r in report["members"]}
+    assert rows["K-1"]["status"] == "skipped" and rows["K-1"]["load_source"] == "none"
+    # (it shares the Level 2 slab with the steel columns beside it, which still get loads)
+    assert any(m.startswith("load takedown project.toml: loads of 27 of the 27 member(s)")
+               for m in report["messages"])
