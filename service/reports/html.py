@@ -31,7 +31,7 @@ from markupsafe import Markup
 from stanchion.engine.check import CheckResults
 from stanchion.engine.compression import LIMIT_STATE_NAMES, OMEGA_C, PHI_C
 from stanchion.engine.curves import buckling_stresses, capacity_curve, length_ratios
-from stanchion.engine.members import LOAD_TYPES, MemberTable
+from stanchion.engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.reports import pictures
 from stanchion.service.reports.colour_scale import colour_of
@@ -135,7 +135,8 @@ def _inputs(i: int, row: dict[str, Any], m: MemberTable, u: _Units
            ("Fy", f"{fmt(m.Fy[i] * u.to_stress)} {u.stress}", src["fy_source"] or given),
            ("E, G", f"{fmt(m.E[i] * u.to_stress, 6)}, {fmt(m.G[i] * u.to_stress, 6)} "
             f"{u.stress}",
-            "as given" if m.material is None else "steel")]
+            "default for steel" if (m.E[i], m.G[i]) == (E_DEFAULT, G_DEFAULT)
+            else "request" if m.material is None else "model")]
     for axis, length, k in (("x", m.lx, m.kx), ("y", m.ly, m.ky), ("z", m.lz, m.kz)):
         lc = k[i] * length[i]
         out.append((f"L{axis}, K{axis} → Lc{axis}",

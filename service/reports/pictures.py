@@ -334,20 +334,33 @@ def legend() -> Markup:
 # ---------------------------------------------------------------------------- charts
 
 
-def nice_step(raw: float) -> float:
-    """The round number (1, 2, 2.5 or 5 × 10ⁿ) nearest above ``raw``; 0 for ``raw`` ≤ 0."""
+def nice_step(raw: float, integer: bool = False) -> float:
+    """The round number (1, 2, 2.5 or 5 × 10ⁿ) nearest above ``raw``; 0 for ``raw`` ≤ 0.
+
+    Args:
+        raw: the step wanted.
+        integer: only whole steps (counts): 1, 2, 5 × 10ⁿ, at least 1.
+    """
     if not raw > 0 or not math.isfinite(raw):
         return 0.0
+    if integer and raw < 1:
+        return 1.0
     mag = 10.0 ** math.floor(math.log10(raw))
-    for m in (1.0, 2.0, 2.5, 5.0, 10.0):
+    for m in (1.0, 2.0, 5.0, 10.0) if integer else (1.0, 2.0, 2.5, 5.0, 10.0):
         if m * mag >= raw * (1 - 1e-9):
             return m * mag
     return 10.0 * mag  # pragma: no cover - the loop ends at 10
 
 
-def ticks(hi: float, count: int = 5) -> list[float]:
-    """Round tick values from 0 to at least ``hi``, about ``count`` of them."""
-    step = nice_step(hi / count) or 1.0
+def ticks(hi: float, count: int = 5, integer: bool = False) -> list[float]:
+    """Round tick values from 0 to at least ``hi``, about ``count`` of them.
+
+    Args:
+        hi: the largest value to show.
+        count: about how many steps.
+        integer: whole steps only (counts).
+    """
+    step = nice_step(hi / count, integer) or 1.0
     n = max(1, math.ceil(hi / step - 1e-9))
     return [round(i * step, 10) for i in range(n + 1)]
 
@@ -449,7 +462,7 @@ def histogram(utilizations: Sequence[float]) -> Markup:
     counts = [*inner.tolist(), int((values > 1.0).sum())]
     labels = [f"{a:g}–{b:g}" for a, b in zip(BIN_EDGES[:-1], BIN_EDGES[1:], strict=True)]
     labels.append("over 1")
-    yt = ticks(max(max(counts), 1))
+    yt = ticks(max(max(counts), 1), integer=True)
     ax = Axes(44.0, 24.0, 620.0, 170.0, float(len(counts)), yt[-1])
     out = [element("svg", None, viewBox="0 0 690 250", class_="histogram", role="img",
                    aria_label="utilization histogram")[:-2] + ">"]

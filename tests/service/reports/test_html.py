@@ -369,3 +369,18 @@ def test_colour_table_is_matplotlibs_viridis() -> None:
         want = (round(r * 255), round(g * 255), round(b * 255))
         got = tuple(int(hex_colour[j:j + 2], 16) for j in (1, 3, 5))
         assert max(abs(a - b) for a, b in zip(got, want, strict=True)) <= 1, (k, hex_colour)
+
+
+def test_axis_ticks_are_round_and_cover_the_data() -> None:
+    # Common practice, no source: steps of 1, 2, 2.5 or 5 × 10^n (whole steps for counts)
+    # from 0 past the largest value.
+    from stanchion.service.reports.pictures import ticks
+
+    for hi in (0.4, 3.0, 12.0, 59.06, 893.0, 20000.0):
+        t = ticks(hi)
+        assert t[0] == 0 and t[-1] >= hi and 2 <= len(t) <= 11
+        steps = np.diff(t)
+        assert np.allclose(steps, steps[0])
+        mantissa = steps[0] / 10 ** math.floor(math.log10(steps[0]))
+        assert round(mantissa, 9) in (1.0, 2.0, 2.5, 5.0)
+        assert all(float(v).is_integer() for v in ticks(hi, integer=True))
