@@ -150,6 +150,11 @@ def _inputs(i: int, row: dict[str, Any], m: MemberTable, u: _Units
         if math.isfinite(value):
             out.append((f"load {name}", f"{fmt(value * u.to_force)} {u.force}",
                         src["load_source"] or given))
+    if _finite(row.get("tributary_area")):  # loads from the takedown (docs/design.md §5)
+        out.append(("tributary area", f"{fmt(row['tributary_area'])} {u.length}²",
+                    "load takedown"))
+        out.append(("live load factor L/Lo", fmt(row.get("llr_factor")),
+                    "load takedown (ASCE 7-22 §4.7)"))
     return out
 
 

@@ -384,3 +384,36 @@ def test_axis_ticks_are_round_and_cover_the_data() -> None:
         mantissa = steps[0] / 10 ** math.floor(math.log10(steps[0]))
         assert round(mantissa, 9) in (1.0, 2.0, 2.5, 5.0)
         assert all(float(v).is_integer() for v in ticks(hi, integer=True))
+
+
+def test_takedown_loads_show_their_tributary_area(sample) -> None:
+    # The sample's post without analysis results gets takedown loads (sample_models/README.md);
+    # its detail names the takedown as the source of its loads, area and L/Lo.
+    _, _, tree, report = sample
+    rows = [r for r in report["members"] if r.get("load_source") == "takedown"]
+    assert rows
+    for row in rows:
+        (article,) = tree.find_all("article", data_member=row["id"])
+        inputs = {r[0]: r for r in table_rows(article.find_all("table", class_="inputs")[0])}
+        assert inputs["tributary area"][1] == f"{row['tributary_area']:.4g} ft²"
+        assert inputs["tributary area"][2] == "load takedown"
+        assert all(v[2] == "takedown" for k, v in inputs.items() if k.startswith("load "))
+
+
+def test_baseline_changes_are_counted(tmp_path: Path) -> None:
+    members = tmp_path / "members.json"
+    members.write_text(json.dumps({"members": [
+        {"id": "C-1", "section": "W14X48", "fy": 50, "length": 16,
+         "loads": {"D": 95.0, "L": 60.0}}]}), encoding="utf-8")
+    first = tmp_path / "first.json"
+    check(members, outputs=OutputPaths(report=first))
+    members.write_text(json.dumps({"members": [
+        {"id": "C-1", "section": "W14X48", "fy": 50, "length": 16,
+         "loads": {"D": 195.0, "L": 160.0}}]}), encoding="utf-8")
+    page = tmp_path / "second.html"
+    run = check(members, CheckOptions(baseline=first), OutputPaths(html=page))
+    tree = parse(page.read_text(encoding="utf-8"))
+    (table,) = [t for t in tree.find_all("table") if "new failures" in t.text()]
+    header, values = table_rows(table)
+    counts = dict(zip(header, values, strict=True))
+    assert counts["new failures"] == str(run.report["changes"]["counts"]["new_failures"]) == "1"
