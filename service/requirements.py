@@ -187,10 +187,18 @@ def apply_ids(report: dict[str, Any], model: Any, ids: Ids, name: str) -> None:
         model: the opened model (an ``ifcopenshell.file``; only read).
         ids: the IDS document (:func:`load_ids`).
         name: the IDS file's name, as the report gives it.
+
+    Raises:
+        InputError: ifctester fails on this model or document (one line, no traceback).
     """
     from stanchion.ifc_bridge.ids_check import validate_ids
 
-    outcome = validate_ids(model, ids)
+    try:
+        outcome = validate_ids(model, ids)
+    except Exception as exc:  # ifctester on a model or document it cannot handle
+        first = (str(exc).splitlines() or [""])[0]
+        raise InputError(f"--ids {name}: ifctester could not validate the model against it "
+                         f"({type(exc).__name__}: {first})") from None
     missing = 0
     for row in report.get("members", []):
         row["requirements"] = list(outcome.missing.get(str(row.get("id")), []))

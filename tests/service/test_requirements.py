@@ -156,3 +156,19 @@ def test_ids_is_refused_for_members_files_and_bad_documents(tmp_path, capsys) ->
         err = capsys.readouterr().err
         assert words in err and err.count("\n") == 1, err
         assert not out.exists()
+
+
+def test_an_ifctester_failure_is_one_line(tmp_path, capsys, monkeypatch) -> None:
+    model, _ = _model(tmp_path, "IFC4")
+    needs = tmp_path / "needs.ids"
+    main(["requirements", "-o", str(needs)])
+
+    def broken(model, ids):
+        raise KeyError("IfcSomething")
+
+    monkeypatch.setattr("stanchion.ifc_bridge.ids_check.validate_ids", broken)
+    out = tmp_path / "r.json"
+    assert main(["check", str(model), "--ids", str(needs), "--report", str(out)]) == 2
+    err = capsys.readouterr().err
+    assert "ifctester could not validate the model" in err and err.count("\n") == 1
+    assert not out.exists()
