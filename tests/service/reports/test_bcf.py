@@ -158,3 +158,13 @@ def test_snapshot_source_is_replaceable_and_a_bad_guid_selects_nothing(tmp_path)
     assert viewpoint.get_selected_guids() is None  # never a selection of a malformed id
     assert viewpoint.snapshot is None
     assert "Fy n/a MPa" in topic.topic.description
+
+
+def test_title_names_tag_grid_and_storey() -> None:
+    from stanchion.service.reports.bcf import topic_title
+
+    row = {"id": "g", "tag": "T1", "name": "C1", "grid": "B-2", "storey": "Level 2",
+           "status": "fail", "utilization": 1.3862}
+    assert topic_title(row) == "Column T1 (grid B-2, Level 2) fails: utilization 1.386"
+    bare = {"id": "g", "name": "C9", "status": "not_checked"}
+    assert topic_title(bare) == "Column C9 not checked"
