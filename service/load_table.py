@@ -7,8 +7,9 @@
     C-12,100,55,4,
 
 ``element`` is a GlobalId, Tag or Name (matched to the model's columns by
-:func:`ifc_bridge.loads.match_table`).  A column load schedule is keyed by grid location and
-level instead (``stanchion loads-template`` writes one)::
+:func:`ifc_bridge.loads.match_table`); columns ``grid``, ``level``, ``GlobalId``, ``Tag``
+and ``Name`` may follow for the reader and are not matched on.  A column load schedule is
+keyed by grid location and level instead (``stanchion loads-template`` writes one)::
 
     grid,level,GlobalId,Tag,Name,D [kN],L [kN]
     B-2,Level 1,2O2Fr$t4X7Zf8NOew3FLOH,C-12,C-12,400,250
@@ -107,9 +108,11 @@ def _frame(path: str | Path, label: str) -> pd.DataFrame:
 
 #: Header of a column load schedule: its first two columns, case-insensitive.
 GRID_KEYS = ("grid", "level")
-#: Columns of a schedule kept for the reader of the spreadsheet, never matched on
-#: (``stanchion loads-template`` writes them), case-insensitive.
-REFERENCE_COLUMNS = ("globalid", "tag", "name")
+#: Columns kept for the reader of the spreadsheet, never matched on (``stanchion
+#: loads-template`` writes them), case-insensitive: in a schedule keyed by grid and level,
+#: and in a table keyed by element (where grid and level are then for reference too).
+REFERENCE_COLUMNS = {2: ("globalid", "tag", "name"),
+                     1: ("grid", "level", "globalid", "tag", "name")}
 
 
 def _key_count(columns: list[str], label: str) -> int:
@@ -130,7 +133,7 @@ def _load_columns(columns: list[str], keys: int, label: str, given: float | None
     to_kip: dict[str, float | None] = {}
     seen: set[str] = set()
     for pos, col in enumerate(columns[keys:], start=keys):
-        if keys == 2 and col.lower() in REFERENCE_COLUMNS:
+        if col.lower() in REFERENCE_COLUMNS[keys]:
             if col.lower() in seen:
                 raise LoadTableError(f"load table {label}: column '{col}' appears twice")
             seen.add(col.lower())
@@ -138,7 +141,8 @@ def _load_columns(columns: list[str], keys: int, label: str, given: float | None
         m = _HEADER.match(col)
         kind = _TYPES_BY_LOWER.get(m.group(1).lower()) if m else None
         if kind is None:
-            extra = ", or GlobalId, Tag, Name for reference" if keys == 2 else ""
+            extra = (", or GlobalId, Tag, Name for reference" if keys == 2
+                     else ", or grid, level, GlobalId, Tag, Name for reference")
             raise LoadTableError(f"load table {label}: column '{col}' is not a load type "
                                  f"({', '.join(LOAD_TYPES)}, optionally with a [unit]{extra})")
         if kind in to_kip:

@@ -7,9 +7,11 @@ empty cell per load type with the force unit in its header (``D [kN]``).  The un
 ``--force-unit``, else kN for a model in SI units and kip for one in US customary units
 (its declared force unit decides, else its length unit); it is always written in the
 header, never implied.  Filled in a spreadsheet and given back to ``check --loads``, every
-column whose grid location and level are its own gets the loads of its row.  Columns
-without a grid location, or sharing theirs and their level with another column, cannot be
-matched that way: a line on stderr names them (their rows are still written, for reference).
+column whose grid location and level are its own gets the loads of its row.  When a column
+has no grid location, or shares its grid location and level with another column, a
+schedule could not reach it: the template is then keyed by ``element`` (the GlobalId) with
+``grid``, ``level``, ``Tag`` and ``Name`` for the reader, so that every row has a key, and a
+line on stderr says why.
 """
 
 from __future__ import annotations
@@ -53,12 +55,14 @@ def default_unit(read: ReadResult) -> str:
     return "kN" if any(word in basis.upper() for word in _SI_WORDS) else "kip"
 
 
-def schedule_text(read: ReadResult, unit: str) -> str:
+def schedule_text(read: ReadResult, unit: str, by_element: bool = False) -> str:
     """The template as CSV text (a header and one row per member, loads empty).
 
     Args:
         read: the model's members (grid, storey, GlobalId, Tag, Name).
         unit: the force unit written in every load header.
+        by_element: key the rows by GlobalId (``element``) instead of grid and level, with
+            grid and level kept for the reader.
 
     Returns:
         The CSV text, one line per row.
@@ -67,11 +71,15 @@ def schedule_text(read: ReadResult, unit: str) -> str:
     extra = m.extra
     buffer = io.StringIO()
     writer = csv.writer(buffer, lineterminator="\n")
-    writer.writerow(["grid", "level", *REFERENCE, *(f"{t} [{unit}]" for t in LOAD_TYPES)])
+    loads = [f"{t} [{unit}]" for t in LOAD_TYPES]
+    tags = ["Tag", "Name"]
+    writer.writerow(["element", "grid", "level", *tags, *loads] if by_element
+                    else ["grid", "level", *REFERENCE, *loads])
     for i in range(len(m)):
-        grid = extra["grid"][i]
-        writer.writerow([grid or "", extra["storey"][i] or "", extra["global_id"][i],
-                         extra["tag"][i] or "", m.name[i], *([""] * len(LOAD_TYPES))])
+        place = [extra["grid"][i] or "", extra["storey"][i] or ""]
+        names = [extra["tag"][i] or "", m.name[i]]
+        key = [extra["global_id"][i], *place] if by_element else [*place, extra["global_id"][i]]
+        writer.writerow([*key, *names, *([""] * len(LOAD_TYPES))])
     return buffer.getvalue()
 
 
@@ -93,8 +101,8 @@ def unmatchable(read: ReadResult) -> str | None:
                      f"column ({', '.join(twins[:5])}{', ...' if len(twins) > 5 else ''})")
     if not parts:
         return None
-    return (f"stanchion: the rows of {' and '.join(parts)} cannot be matched by grid and "
-            "level; give their loads in a table keyed by element (GlobalId)")
+    return (f"stanchion: the template is keyed by element (GlobalId), not by grid and level: "
+            f"{' and '.join(parts)} could not be matched by grid and level")
 
 
 def _read_model(path: Path, include_members: bool, force_unit: str | None) -> ReadResult:
@@ -126,7 +134,8 @@ def run_loads_template(args: argparse.Namespace) -> int:
         raise InputError(f"no columns found in {model.name}: the model has no IfcColumn"
                          + (" or STRUT / POST IfcMember" if args.include_members else ""))
     unit = given[0] if given else default_unit(read)
-    text = schedule_text(read, unit)
+    warning = unmatchable(read)
+    text = schedule_text(read, unit, by_element=warning is not None)
     if out is None:
         sys.stdout.write(text)
     else:
@@ -137,7 +146,6 @@ def run_loads_template(args: argparse.Namespace) -> int:
             write_atomic(out, write)
         except OSError as exc:
             raise InputError(f"cannot write {out}: {exc.strerror or exc}") from None
-    warning = unmatchable(read)
     if warning:
         print(warning, file=sys.stderr)
     return EXIT_OK

@@ -77,6 +77,14 @@ def test_column_load_schedule_keyed_by_grid_and_level(tmp_path):
     assert table.to_kip["D"] == pytest.approx(KIP_PER_KN)
 
 
+def test_element_table_keeps_reference_columns_apart(tmp_path):
+    # the template of a model without a grid (stanchion loads-template): keyed by element
+    t = _table(tmp_path, "element,grid,level,Tag,Name,D [kip]\nC1,,Level 1,T1,C1,5\n")
+    assert t.levels is None
+    # expected: the cells as written; grid, level, Tag and Name are for reference only
+    assert t.rows == (("C1", {"D": 5.0}),)
+
+
 def test_element_table_has_no_levels(tmp_path):
     assert _table(tmp_path, "element,D [kip]\nC1,1\n").levels is None
 
@@ -90,7 +98,10 @@ def test_element_table_has_no_levels(tmp_path):
         ("grid,level,Mark,D\nB-2,L1,a,1\n", "column 'Mark' is not a load type (D, L, Lr, S, "
                                             "R, W, E, optionally with a [unit], or GlobalId, "
                                             "Tag, Name for reference)"),
-        ("element,GlobalId,D\nC1,x,1\n", "column 'GlobalId' is not a load type"),
+        ("element,Mark,D\nC1,x,1\n", "column 'Mark' is not a load type (D, L, Lr, S, R, W, "
+                                      "E, optionally with a [unit], or grid, level, "
+                                      "GlobalId, Tag, Name for reference)"),
+        ("element,grid,Grid,D\nC1,x,y,1\n", "column 'Grid' appears twice"),
         ("grid,level,D\nB-2,L1,x\n", "line 2, column D: 'x' is not a number"),
     ],
 )

@@ -48,11 +48,15 @@ def test_template_file_units_and_warning(tmp_path, capsys) -> None:
     assert main(["loads-template", str(src), "-o", str(out), "--force-unit", "lbf"]) == 0
     captured = capsys.readouterr()
     assert captured.out == ""
-    assert _rows(out.read_text())[0][5:] == [f"{t} [lbf]" for t in LOAD_TYPES]
+    rows = _rows(out.read_text())
+    # Two columns share B-2 / Level 1 (build_grid_model twin=True): keyed by element instead
+    assert rows[0] == ["element", "grid", "level", "Tag", "Name",
+                       *(f"{t} [lbf]" for t in LOAD_TYPES)]
+    assert all(len(r[0]) == 22 for r in rows[1:])  # every row keyed by its GlobalId
     assert captured.err.strip() == (
-        "stanchion: the rows of 2 sharing their grid location and level with another column "
-        "(C1, C1 twin) cannot be matched by grid and level; give their loads in a table "
-        "keyed by element (GlobalId)")
+        "stanchion: the template is keyed by element (GlobalId), not by grid and level: "
+        "2 sharing their grid location and level with another column (C1, C1 twin) could "
+        "not be matched by grid and level")
     assert not list(tmp_path.glob(".schedule.csv.*"))  # no temporary file left
 
 
@@ -63,7 +67,9 @@ def test_us_model_defaults_to_kip(tmp_path, capsys) -> None:
     assert main(["loads-template", str(src)]) == 0
     rows = _rows(capsys.readouterr().out)
     assert rows[0][5] == "D [kip]"
-    assert all(r[0] == "" for r in rows[1:])  # no grid in that model: no grid location
+    # no grid in that model: keyed by element, with an empty grid location for reference
+    assert rows[0][:3] == ["element", "grid", "level"]
+    assert all(len(r[0]) == 22 and r[1] == "" for r in rows[1:])
 
 
 @pytest.mark.parametrize(
@@ -108,3 +114,26 @@ def test_filled_template_checks_every_column(tmp_path, capsys) -> None:
                    for msg in json.loads(report.read_text())["messages"])
     assert code in (0, 1)  # pass or fail by the numbers; never "not checked"
     assert all(members[n]["status"] in ("pass", "fail") for n in ("C1", "C2", "C3"))
+
+
+def test_template_without_grid_round_trips_by_element(tmp_path, capsys) -> None:
+    """Models without a grid (three of the four shared real models with steel columns):
+    the filled template still gives every column its loads."""
+    from tests.service.test_model_check_files import write_model
+
+    src = write_model(tmp_path / "nogrid.ifc", loads={"C1": None, "C2": None, "C3": None})
+    out = tmp_path / "t.csv"
+    assert main(["loads-template", str(src), "-o", str(out)]) == 0
+    capsys.readouterr()
+    rows = _rows(out.read_text())
+    d = rows[0].index("D [kN]")
+    for r in rows[1:]:
+        r[d] = "100"
+    out.write_text("\n".join(",".join(r) for r in rows) + "\n")
+    report = tmp_path / "r.json"
+    main(["check", str(src), "--loads", str(out), "--quiet", "--report", str(report)])
+    members = json.loads(report.read_text())["members"]
+    # expected: 1.4 D = 1.4 x 100 kN = 140 kN = 31.47 kip (ASCE 7-22 §2.3.1 combination 1;
+    # 1 kip = 4.448222 kN)
+    assert [m["required_strength"] for m in members] == pytest.approx([31.474] * 3, rel=1e-3)
+    assert {m["load_source"] for m in members} == {"table"}
