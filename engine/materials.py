@@ -9,7 +9,8 @@ Yield stress by grade: the rows of :data:`stanchion.engine.grades.GRADES`, each 
 material specification that fixes the value; grades with thickness bands (EN, AS/NZS, JIS,
 GB/T ...) are read at t, the thickest element of the section (:func:`band_thickness`);
 Table 3.1 of EN 1993-1-1:2005 gives EN 10219 (cold-formed hollow sections) values for
-t <= 40 mm only.  Thicker elements get no value (the member is not checked).  A name that
+t <= 40 mm only.  Thicker elements get no value (the member is not checked); an element
+thickness not known gives the lowest value of the bands (conservative).  A name that
 states a stress instead (``"Metal - Steel - 345 MPa"``) gives that stress, with a note.
 
 Matching is on the upper-cased name, e.g. ``"ASTM A992"``, ``"A572 Gr. 50"``, ``"A572-50"``,
@@ -127,13 +128,17 @@ def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm:
             return grade.fy_rect, "rectangular HSS"
         return None, f"{grade.name} applies to HSS only"
     if thickness_in is None:
-        first = grade.bands_mpa[0][0]
-        t_mm, extra = 0.0, f"element thickness unknown: t <= {first:.0f} mm assumed"
-    else:
-        t_mm, extra = thickness_in * _MM_PER_IN, ""
+        # The lowest value of the bands the standard covers (a thick element is the
+        # conservative reading of a thickness not known).
+        lows = (0.0, *(t for t, _ in grade.bands_mpa[:-1]))
+        t_max, fy_mpa = min(((t, f) for low, (t, f) in zip(lows, grade.bands_mpa, strict=True)
+                             if low < max_mm), key=lambda band: band[1])
+        return fy_mpa * KSI_PER_MPA, (f"element thickness unknown: the lowest value of the "
+                                      f"bands, t <= {min(t_max, max_mm):.0f} mm, assumed")
+    t_mm = thickness_in * _MM_PER_IN
     for t_max, fy_mpa in grade.bands_mpa:
         if t_mm <= t_max and t_mm <= max_mm:
-            text = extra or f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
+            text = f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
             return fy_mpa * KSI_PER_MPA, text
     top = min(grade.bands_mpa[-1][0], max_mm)
     return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {top:.0f} mm"

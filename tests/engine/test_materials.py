@@ -360,3 +360,25 @@ def test_thicker_than_the_last_band_has_no_value():
 def test_new_grades_name_steel():
     for text in ("S420NL", "300PLUS", "350W", "SS400", "Q355B", "Grade 350"):
         assert material_class([text]) == "steel", text
+
+
+@pytest.mark.parametrize(
+    ("text", "expected_mpa"),
+    [
+        # EN 1993-1-1:2005 Table 3.1, S355: 355 MPa (t <= 40 mm), 335 MPa (40 < t <= 80 mm)
+        ("S355J2", 335.0),
+        # the same grade as a hollow section, EN 10219 values only to 40 mm (Table 3.1)
+        ("S355J2H EN 10219", 355.0),
+        # GB/T 1591-2018 Q355 (from memory): 355 ... 315 MPa, the last to 100 mm
+        ("Q355B", 315.0),
+        # AS/NZS 3679.1:2016 Grade 350 (from memory): 360 / 340 / 330 MPa
+        ("AS/NZS 3679.1-350", 330.0),
+    ],
+)
+def test_unknown_thickness_takes_the_lowest_band(text, expected_mpa):
+    # an element thickness not known is read as the thickest band (the lowest Fy): the
+    # conservative reading, never the thinnest band's higher value
+    found, _ = match_grade(text, "I", None)
+    assert found is not None
+    assert found.fy == pytest.approx(expected_mpa * KSI_PER_MPA)
+    assert "thickness unknown" in found.note
