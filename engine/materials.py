@@ -246,6 +246,10 @@ _UNIT_NAMES = {"MPA": "MPa", "KSI": "ksi", "N/MM2": "N/mm²", "N/MM^2": "N/mm²"
 _NOT_YIELD = re.compile(
     r"(?:\b(?:E|G|FU|FT|FUK|RM|FC|FCK|FCM|FCD|F'C|UTS)\s*[=:]?\s*"
     r"|\b(?:TENSILE|ULTIMATE|MODUL\w*|YOUNG\w*|ELASTIC\w*|SHEAR|COMPRESSIVE)\b[^0-9]*)$")
+#: A label written after a stress that makes it another property ("510 MPa tensile",
+#: "210000 MPa modulus"): words only, so "355 MPa, E 210000 MPa" keeps its 355 MPa.
+_NOT_YIELD_AFTER = re.compile(
+    r"[\s,;:()\-]*(?:TENSILE|ULTIMATE|UTS|MODUL\w*|YOUNG\w*|ELASTIC\w*|SHEAR|COMPRESSIVE)\b")
 
 
 def _stated_stresses(text: str, upper: str, notes: list[str]) -> list[GradeMatch]:
@@ -262,7 +266,7 @@ def _stated_stresses(text: str, upper: str, notes: list[str]) -> list[GradeMatch
     previous = 0
     for m in stresses:
         context, previous = upper[previous:m.start()], m.end()
-        if _NOT_YIELD.search(context):
+        if _NOT_YIELD.search(context) or _NOT_YIELD_AFTER.match(upper, m.end()):
             continue
         number = float(m["num"].replace(",", "."))
         unit = m["unit"]

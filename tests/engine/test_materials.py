@@ -382,3 +382,25 @@ def test_unknown_thickness_takes_the_lowest_band(text, expected_mpa):
     assert found is not None
     assert found.fy == pytest.approx(expected_mpa * KSI_PER_MPA)
     assert "thickness unknown" in found.note
+
+
+@pytest.mark.parametrize(
+    "text",
+    # the label after the stress names the tensile strength or a modulus (docs/design.md §8:
+    # a stress labelled as another property is not read), e.g. S355's fu of 510 MPa
+    # (EN 1993-1-1:2005 Table 3.1, from memory) would otherwise be taken for Fy
+    ["Steel 510 MPa tensile", "Steel 510 MPa (ultimate)", "Steel 510 MPa UTS",
+     "Steel 210000 N/mm2 modulus"],
+)
+def test_stress_labelled_after_it_is_not_read(text):
+    assert match_grade(text, "I", 0.5)[0] is None
+
+
+def test_label_after_one_stress_leaves_the_other():
+    # "355 MPa" is the yield stress; "510 MPa tensile" is fu and not read (no 'several grades')
+    found, notes = match_grade("Steel 355 MPa, 510 MPa tensile", "I", 0.5)
+    assert found.fy == pytest.approx(355.0 * KSI_PER_MPA)
+    assert not any("several grades" in n for n in notes)
+    # a single-letter label after a stress belongs to the next one: 355 MPa stays Fy
+    found, _ = match_grade("Steel 355 MPa, E 210000 MPa", "I", 0.5)
+    assert found.fy == pytest.approx(355.0 * KSI_PER_MPA)
