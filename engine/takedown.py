@@ -160,6 +160,8 @@ class Takedown:
         reason: None, or why the column's loads are not known.
         messages: per-column notes.
         notes: run-wide notes.
+        cells: each column's tributary cell on its own level (shapely, in; an empty
+            polygon for none), for drawing; None when not kept.
     """
 
     ids: ObjectArray
@@ -175,6 +177,7 @@ class Takedown:
     reason: ObjectArray
     messages: list[list[str]]
     notes: list[str] = field(default_factory=list)
+    cells: ObjectArray | None = None
 
 
 @dataclass
@@ -392,7 +395,8 @@ def takedown(levels: Sequence[Level], options: TakedownOptions | None = None) ->
     loads[reason != None] = np.nan  # noqa: E711 - object array
     _messages(messages, own, factor, KLL, opts)
     return Takedown(ids, level, tuple(lv.name for lv in levels), loads, area, area.sum(axis=1),
-                    own.floors.astype(np.int64), KLL, factor, above, reason, messages, notes)
+                    own.floors.astype(np.int64), KLL, factor, above, reason, messages, notes,
+                    cells=np.concatenate([t.cells for t in tribs]))
 
 
 def _live_load(own: _Own) -> tuple[FloatArray, FloatArray, FloatArray]:

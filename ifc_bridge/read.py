@@ -56,6 +56,7 @@ from stanchion.ifc_bridge.materials import (
     material_standard,
     ungraded_steel,
 )
+from stanchion.ifc_bridge.orientation import plan_rotation
 from stanchion.ifc_bridge.outlines import plane_angle_scale
 from stanchion.ifc_bridge.profiles import ProfileSpec, is_outline, outline_spec, profile_spec
 from stanchion.ifc_bridge.properties import (
@@ -130,6 +131,7 @@ class _Row:
     reasons: list[str]
     body_kind: str | None = None  # a Body that is not an extrusion (IfcFacetedBrep ...)
     grid: str | None = None  # grid location ("B-2"), named once every row is read
+    rotation: float = math.nan  # plan rotation of the section, degrees (ifc_bridge.orientation)
 
 
 class _Reader:
@@ -143,6 +145,7 @@ class _Reader:
         self.index = RelationIndex.build(model)
         self.shapes = ShapeReader()
         self.placements = PlanPositions()
+        self.rotations: dict[int, FloatArray] = {}  # parent placements (orientation)
         self.analysis = AnalysisLoads(self.index, units)
         self.yields = YieldReader(model, self.index, units)
         self._specs: dict[tuple[int, float], ProfileSpec] = {}
@@ -177,6 +180,7 @@ class _Reader:
         """
         self.shapes = ShapeReader()
         self.placements = PlanPositions()
+        self.rotations = {}
         self._values.clear()
 
     def design(self, occ_defs: list[Entity], type_defs: list[Entity]) -> DesignInputs:
@@ -252,6 +256,7 @@ class _Reader:
             x=x, y=y, spec=spec, profile_origin=origin, material=material, length=length,
             length_source=length_source, design=design, analysis=analysis, pset=pset,
             notes=notes, reasons=reasons, body_kind=shape.body_kind,
+            rotation=plan_rotation(element, self.rotations),
         )
 
     def _profile(self, material: MaterialInfo, shape: ShapeInfo, notes: list[str],
@@ -342,8 +347,8 @@ def _safe_row(reader: _Reader, element: Entity) -> _Row:
         )
 
 
-EXTRA_COLUMNS = ("global_id", "tag", "storey", "grid", "x", "y", "ifc_class", "length_source",
-                 "profile_source", "load_source", "fy_source")
+EXTRA_COLUMNS = ("global_id", "tag", "storey", "grid", "x", "y", "rotation", "ifc_class",
+                 "length_source", "profile_source", "load_source", "fy_source")
 
 
 @dataclass
@@ -422,6 +427,7 @@ class _Columns:
         extra["grid"].append(r.grid)
         extra["x"].append(r.x)
         extra["y"].append(r.y)
+        extra["rotation"].append(r.rotation)
         extra["ifc_class"].append(r.element.is_a())
         extra["length_source"].append(r.length_source)
         extra["profile_source"].append(
@@ -430,8 +436,9 @@ class _Columns:
         extra["fy_source"].append(fy_source)
 
     def extra_arrays(self) -> dict[str, AnyArray]:
-        """The writer columns as arrays (x, y float; the others object)."""
-        return {key: np.array(self.extra[key], dtype=float if key in ("x", "y") else object)
+        """The writer columns as arrays (x, y, rotation float; the others object)."""
+        numeric = ("x", "y", "rotation")
+        return {key: np.array(self.extra[key], dtype=float if key in numeric else object)
                 for key in EXTRA_COLUMNS}
 
 

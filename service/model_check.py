@@ -57,6 +57,7 @@ class ModelCheck:
         results: the engine's results.
         report: the report (docs/design.md §3) with the IFC row fields and ``source``.
         suggestions: suggested sections by member row (kip, lb/ft).
+        takedown: what ``--takedown`` gave (cells and slabs for the plans), or None.
     """
 
     model: ifcopenshell.file
@@ -64,6 +65,7 @@ class ModelCheck:
     results: CheckResults
     report: dict[str, Any]
     suggestions: dict[int, list[dict[str, Any]]]
+    takedown: TakedownApplied | None = None
 
     @property
     def members(self) -> MemberTable:
@@ -112,6 +114,10 @@ def _add_extra_fields(report: dict[str, Any], members: MemberTable,
             values = np.asarray(column, dtype=float) * to_report
             for row, value in zip(rows, values.tolist(), strict=True):
                 row[key] = round(value, 4) if math.isfinite(value) else None
+    rotation = members.extra.get("rotation")
+    if rotation is not None:
+        for row, value in zip(rows, np.asarray(rotation, dtype=float).tolist(), strict=True):
+            row["rotation"] = round(value, 2) if math.isfinite(value) else None
 
 
 def no_columns_message(name: str, model: ifcopenshell.file, include_members: bool) -> str:
@@ -189,7 +195,7 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     }
     if options.takedown is not None:
         report["source"]["takedown"] = options.takedown.name
-    return ModelCheck(model, read, results, report, suggestions)
+    return ModelCheck(model, read, results, report, suggestions, applied)
 
 
 def write_checked_model(run: ModelCheck, out: Path,

@@ -33,6 +33,7 @@ from stanchion.service.requirements import apply_ids, load_ids
 
 if TYPE_CHECKING:
     from stanchion.service import model_check
+    from stanchion.service.reports.plan_data import PlanData
 
 #: Inputs read as IFC models; anything else is read as a members JSON file.
 MODEL_SUFFIXES = (".ifc", ".ifczip", ".ifcxml")
@@ -217,7 +218,8 @@ def check(source: Path, options: CheckOptions | None = None,
         _write_bcf(run, outputs.bcf)
     if outputs.html is not None:
         _write_html(outputs.html, report, members,
-                    _detailed(members, results, None if model else request))
+                    _detailed(members, results, None if model else request),
+                    _plan_data(run) if model else None)
     return CheckRun(report, members, results, "model" if model else "members")
 
 
@@ -250,17 +252,24 @@ def _detailed(members: MemberTable, results: CheckResults,
     return check_members(members, results.method, detail=True)
 
 
+def _plan_data(run: model_check.ModelCheck) -> PlanData:
+    """The plans' grid lines, slab outlines and tributary cells of a checked model."""
+    from stanchion.service.plan_geometry import plan_data
+
+    return plan_data(run)
+
+
 def _write_html(path: Path, report: dict[str, Any], members: MemberTable,
-                results: CheckResults) -> None:
+                results: CheckResults, plans: PlanData | None = None) -> None:
     """Write the HTML report (``--html``), atomically.
 
-    Grid lines, slab outlines and tributary areas are not passed yet (``plans`` None): the
-    plans draw the columns from the report's positions.
+    ``plans``: grid lines, slab outlines and tributary cells for a model
+    (:mod:`stanchion.service.plan_geometry`); None for members files.
     """
     from stanchion.service.reports.html import write_html
 
     try:
-        write_html(path, report, members, results, plans=None)
+        write_html(path, report, members, results, plans=plans)
     except OSError as exc:
         raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
 

@@ -147,6 +147,10 @@ class _MemberResult(_Contract):
                             "length unit")
     y: float | None = Field(None, description="IFC input: plan position y, in the report's "
                             "length unit")
+    rotation: float | None = Field(
+        None, description="IFC input: plan rotation of the section's x axis (parallel to an "
+        "I shape's flanges), degrees counter-clockwise from plan x, [0, 360); null when not "
+        "known")
     suggestions: list[Suggestion] = Field(
         None, description="suggested sections, lightest first (members with candidates, or "
         "IFC columns with --suggest)")

@@ -59,12 +59,17 @@ class TakedownApplied:
         area: tributary area carried by each member, in² (NaN: none).
         llr_factor: L / Lo of each member (NaN: no L).
         messages: run messages.
+        cells: each member's tributary cell on the level it carries (shapely polygon, in;
+            members on a level only), from the takedown's own run, for the plans.
+        storeys: the slabs read per storey (model length unit), for the plans.
     """
 
     used: list[int] = field(default_factory=list)
     area: dict[int, float] = field(default_factory=dict)
     llr_factor: dict[int, float] = field(default_factory=dict)
     messages: list[str] = field(default_factory=list)
+    cells: dict[int, Any] = field(default_factory=dict)
+    storeys: list[StoreySlabs] = field(default_factory=list)
 
 
 def _has_no_loads(members: MemberTable, i: int) -> bool:
@@ -178,6 +183,7 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
     to_in = read.length_unit_factor
     per_unit = length_factor(report_length)  # inches per report length unit
     storeys = storey_slabs(model)
+    out.storeys = storeys
     bottom, top = (a * to_in for a in vertical_extents(model, [str(i) for i in members.id]))
     xy = np.column_stack([np.asarray(members.extra["x"], float) * to_in,
                           np.asarray(members.extra["y"], float) * to_in])
@@ -189,6 +195,8 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
     # in order within each
     order = [int(i) for k in ks for i in np.flatnonzero(level_of == k)]
     row = {m: j for j, m in enumerate(order)}
+    if result.cells is not None:
+        out.cells = {m: result.cells[j] for m, j in row.items()}
     material = members.material if members.material is not None else [None] * n
     wanted = [i for i in range(n)
               if not _not_steel(material[i]) and _has_no_loads(members, i)]

@@ -32,6 +32,7 @@ from stanchion.engine.check import CheckResults
 from stanchion.engine.compression import LIMIT_STATE_NAMES, OMEGA_C, PHI_C
 from stanchion.engine.curves import buckling_stresses, capacity_curve, length_ratios
 from stanchion.engine.members import E_DEFAULT, G_DEFAULT, LOAD_TYPES, MemberTable
+from stanchion.engine.sections import Kind
 from stanchion.engine.units import force_factor, length_factor, stress_factor
 from stanchion.service.reports import pictures
 from stanchion.service.reports.colour_scale import colour_of
@@ -277,8 +278,23 @@ def _storeys(rows: list[dict[str, Any]]) -> list[str]:
     return list(seen)
 
 
+def _shape(i: int, members: MemberTable | None, to_length: float
+           ) -> pictures.SectionShape | None:
+    """Member ``i``'s section outline in the report's length unit (None: no section row)."""
+    if members is None or i >= len(members) or members.section_index[i] < 0:
+        return None
+    t, k = members.sections, int(members.section_index[i])
+    dims = [float(t.d[k]), float(t.bf[k]), float(t.tw[k]), float(t.tf[k])]
+    if int(t.kind[k]) == Kind.UNSUPPORTED or not all(math.isfinite(v) for v in dims) \
+            or not min(dims[:2]) > 0:
+        return None
+    d, bf, tw, tf = (v * to_length for v in dims)
+    return pictures.SectionShape(int(t.kind[k]), d, bf, tw, tf)
+
+
 def _plans(rows: list[dict[str, Any]], anchors: set[int], plans: PlanData | None,
-           unit: str) -> list[dict[str, Any]]:
+           unit: str, members: MemberTable | None = None, to_length: float = 1.0
+           ) -> list[dict[str, Any]]:
     if not any(_finite(r.get("x")) and _finite(r.get("y")) for r in rows):
         return []
     out = []
@@ -298,7 +314,9 @@ def _plans(rows: list[dict[str, Any]], anchors: set[int], plans: PlanData | None
                 label=_label(row), x=float(row["x"]), y=float(row["y"]),
                 status=row["status"], utilization=util if _finite(util) else None,
                 title=f"{row.get('name') or row['id']} · {row.get('section') or '–'} · "
-                      f"{STATUS_TEXT.get(row['status'], row['status'])} · {state}"))
+                      f"{STATUS_TEXT.get(row['status'], row['status'])} · {state}",
+                section=_shape(i, members, to_length),
+                rotation=float(row["rotation"]) if _finite(row.get("rotation")) else None))
         layers = plans.storeys.get(storey) if plans is not None else None
         out.append({"storey": storey, "count": len(marks), "missing": missing,
                     "svg": pictures.storey_plan(marks, layers, unit, f"plan of {storey}"),
@@ -361,7 +379,7 @@ def page_context(report: dict[str, Any], members: MemberTable | None = None,
         "checked_items": CHECKED, "not_checked_items": NOT_CHECKED,
         "worst": worst, "not_checked": not_checked,
         "histogram": pictures.histogram(checked), "legend": pictures.legend(),
-        "plans": _plans(rows, anchors, plans, u.length),
+        "plans": _plans(rows, anchors, plans, u.length, members, u.to_length),
         "schedule": _schedule(rows, anchors),
         "details": details, "detail_limit": DETAIL_LIMIT,
         "more": max(0, len(rows) - len(details)),

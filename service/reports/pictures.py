@@ -18,6 +18,7 @@ from dataclasses import dataclass
 import numpy as np
 from markupsafe import Markup, escape
 
+from stanchion.engine.sections import Kind
 from stanchion.service.reports.colour_scale import NO_VALUE, STOPS, TOP, colour_of
 from stanchion.service.reports.plan_data import Point, StoreyPlan
 
@@ -121,6 +122,70 @@ class PlanMark:
     status: str
     utilization: float | None
     title: str
+    section: SectionShape | None = None
+    rotation: float | None = None
+
+
+@dataclass(frozen=True)
+class SectionShape:
+    """The outline of a column's section for a plan, report length unit.
+
+    Attributes:
+        kind: the :class:`stanchion.engine.sections.Kind` code.
+        d: depth, along the section's y axis (across its x axis: an I's web direction).
+        bf: width along x (flanges; the outside width of a tube).
+        tw: web (or wall) thickness.
+        tf: flange thickness.
+    """
+
+    kind: int
+    d: float
+    bf: float
+    tw: float
+    tf: float
+
+    def rings(self) -> list[list[Point]]:
+        """Closed rings in the section's axes, centred on its box (holes after the outer)."""
+        b, d, tw, tf = self.bf / 2, self.d / 2, self.tw, self.tf
+        if self.kind in (Kind.ROUND_HSS, Kind.SOLID_ROUND):
+            circle = [(d * math.cos(a), d * math.sin(a))
+                      for a in np.linspace(0, 2 * math.pi, 24, endpoint=False)]
+            inner = [(x * (1 - 2 * tw / self.d), y * (1 - 2 * tw / self.d)) for x, y in circle]
+            return [circle, inner] if self.kind == Kind.ROUND_HSS and tw < d else [circle]
+        box = [(-b, -d), (b, -d), (b, d), (-b, d)]
+        if self.kind == Kind.SOLID_RECT:
+            return [box]
+        if self.kind == Kind.RECT_HSS:
+            return [box, [(-b + tw, -d + tw), (b - tw, -d + tw), (b - tw, d - tw),
+                          (-b + tw, d - tw)]] if tw < min(b, d) else [box]
+        if self.kind == Kind.CHANNEL:
+            return [[(-b, -d), (b, -d), (b, -d + tf), (-b + tw, -d + tf), (-b + tw, d - tf),
+                     (b, d - tf), (b, d), (-b, d)]]
+        if self.kind == Kind.TEE:
+            return [[(-b, d), (b, d), (b, d - tf), (tw / 2, d - tf), (tw / 2, -d),
+                     (-tw / 2, -d), (-tw / 2, d - tf), (-b, d - tf)]]
+        return [[(-b, -d), (b, -d), (b, -d + tf), (tw / 2, -d + tf), (tw / 2, d - tf),
+                 (b, d - tf), (b, d), (-b, d), (-b, d - tf), (-tw / 2, d - tf),
+                 (-tw / 2, -d + tf), (-b, -d + tf)]]
+
+
+def section_path(shape: SectionShape, cx: float, cy: float, scale: float,
+                 rotation: float) -> str:
+    """The SVG path data of a section at (cx, cy), ``scale`` user units per length unit.
+
+    Args:
+        shape: the section.
+        cx: centre x, user units.
+        cy: centre y, user units.
+        scale: user units per report length unit (exaggeration included).
+        rotation: the section's x axis, degrees counter-clockwise from plan x.
+    """
+    c, s = math.cos(math.radians(rotation)), math.sin(math.radians(rotation))
+    parts = []
+    for ring in shape.rings():
+        pts = [(cx + scale * (x * c - y * s), cy - scale * (x * s + y * c)) for x, y in ring]
+        parts.append("M" + " L".join(f"{num(x)},{num(y)}" for x, y in pts) + " Z")
+    return " ".join(parts)
 
 
 def _layer_points(layers: StoreyPlan | None) -> list[Point]:
@@ -240,6 +305,19 @@ def _scale_bar(frame: _Frame, unit: str) -> list[str]:
                     fill=INK)]
 
 
+def _section_scale(marks: Sequence[PlanMark], s: float, r: float) -> float:
+    """User units per length unit of the sections on one plan.
+
+    The plan's scale, enlarged (one factor for the plan) so that the median section spans
+    at least 3.2 mark radii.
+    """
+    sizes = [max(m.section.d, m.section.bf) for m in marks if m.section is not None
+             and max(m.section.d, m.section.bf) > 0]
+    if not sizes:
+        return s
+    return s * max(1.0, 3.2 * r / (float(np.median(sizes)) * s))
+
+
 def storey_plan(marks: Sequence[PlanMark], layers: StoreyPlan | None, unit: str,
                 caption: str = "") -> Markup:
     """One storey's plan.
@@ -271,18 +349,35 @@ def storey_plan(marks: Sequence[PlanMark], layers: StoreyPlan | None, unit: str,
             out += _grid_layer(layers, frame)
     labels = len(marks) <= LABELS_UP_TO
     font = min(max(r * 1.05, 7.5), 11.0)
+    k = _section_scale(marks, frame.s, r)
+    glyph = max(MARK_MIN, 0.55 * r)
     order = sorted(range(len(marks)), key=lambda i: DRAW_ORDER.get(marks[i].status, 0))
     out.append('<g class="marks">')
     for i in order:
         m = marks[i]
         cx, cy = (float(v) for v in canvas[i])
-        body = [element("title", m.title),
-                mark_shape(m.status, cx, cy, r, mark_fill(m.status, m.utilization))]
+        fill = mark_fill(m.status, m.utilization)
+        body = [element("title", m.title)]
+        if m.section is not None:
+            turn = m.rotation if m.rotation is not None else 0.0
+            body.append(element("path", d=section_path(m.section, cx, cy, k, turn),
+                                fill=fill, fill_rule="evenodd", stroke=INK,
+                                stroke_width=0.7, stroke_linejoin="round", class_="section",
+                                data_rotation=None if m.rotation is None
+                                else f"{m.rotation:g}"))
+            half = 0.5 * k * math.hypot(m.section.d, m.section.bf)
+            cx, cy = cx + 0.75 * half + glyph, cy - 0.75 * half - glyph
+            body.append(mark_shape(m.status, cx, cy, glyph, fill))
+            r_label = glyph
+        else:
+            body.append(mark_shape(m.status, cx, cy, r, fill))
+            r_label = r
         if labels:
             # beside the mark, on its left where the right side has no room for the text
-            right = cx + 1.5 * r + 1 + 0.62 * font * len(m.label) < frame.width - 2
-            body.append(element("text", m.label, x=cx + (1.5 * r + 1) * (1 if right else -1),
-                                y=cy - 1.2 * r, font_size=font, fill=INK,
+            right = cx + 1.5 * r_label + 1 + 0.62 * font * len(m.label) < frame.width - 2
+            body.append(element("text", m.label,
+                                x=cx + (1.5 * r_label + 1) * (1 if right else -1),
+                                y=cy - 1.2 * r_label, font_size=font, fill=INK,
                                 text_anchor=None if right else "end"))
         util = None if m.utilization is None else f"{m.utilization:.4g}"
         group = (element("g", None, class_="mark", data_member=m.member_id,
@@ -293,6 +388,10 @@ def storey_plan(marks: Sequence[PlanMark], layers: StoreyPlan | None, unit: str,
         out.append(group)
     out.append("</g>")
     out += _scale_bar(frame, unit)
+    if k > frame.s * 1.05 and any(m.section is not None for m in marks):
+        out.append(element("text", f"sections drawn {k / frame.s:.3g}× their size",
+                           x=frame.width - 12, y=frame.height - 8.5, font_size=10.0,
+                           text_anchor="end", fill=INK, class_="exaggeration"))
     out.append("</svg>")
     return Markup("".join(out))
 
