@@ -256,7 +256,8 @@ class _Reader:
             x=x, y=y, spec=spec, profile_origin=origin, material=material, length=length,
             length_source=length_source, design=design, analysis=analysis, pset=pset,
             notes=notes, reasons=reasons, body_kind=shape.body_kind,
-            rotation=plan_rotation(element, self.rotations),
+            rotation=plan_rotation(element, None if shape.main is None else
+                                   (shape.main.profile, shape.main.angle), self.rotations),
         )
 
     def _profile(self, material: MaterialInfo, shape: ShapeInfo, notes: list[str],

@@ -29,6 +29,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from stanchion.ifc_bridge.access import Entity, get
+from stanchion.ifc_bridge.orientation import mapping_turn, solid_angle
 
 #: RepresentationType values of solid-model representations (IFC4 ADD2 TC1 list).
 SOLID_TYPES = frozenset({
@@ -49,6 +50,8 @@ class Extrusion:
         scale: mapping scale applied to the profile's dimensions.
         oblique: the extrusion direction is not normal to the profile plane.
         tapered: an IfcExtrudedAreaSolidTapered (end profile differs).
+        angle: plan angle of the profile's x axis in the product's coordinates, degrees
+            (:mod:`stanchion.ifc_bridge.orientation`).
     """
 
     profile: Entity
@@ -56,6 +59,7 @@ class Extrusion:
     scale: float = 1.0
     oblique: bool = False
     tapered: bool = False
+    angle: float = 0.0
 
 
 @dataclass(frozen=True)
@@ -177,7 +181,7 @@ class ShapeReader:
         return self._body[key]
 
     def _walk(self, item: Entity, scale: float, found: list[Extrusion], notes: list[str],
-              level: int) -> None:
+              level: int, angle: float = 0.0) -> None:
         if item is None or level > _MAX_DEPTH:
             return
         if item.is_a("IfcExtrudedAreaSolid"):
@@ -190,19 +194,21 @@ class ShapeReader:
             raw = get(item, "Depth")
             depth = float(raw) * scale if raw is not None else float("nan")
             found.append(Extrusion(get(item, "SweptArea"), depth, scale, oblique,
-                                   item.is_a("IfcExtrudedAreaSolidTapered")))
+                                   item.is_a("IfcExtrudedAreaSolidTapered"),
+                                   angle + solid_angle(item)))
         elif item.is_a("IfcMappedItem"):
             s, note = _mapping_scale(item.MappingTarget)
             if note:
                 notes.append(note)
             source = item.MappingSource
             mapped = source.MappedRepresentation if source is not None else None
+            turn = angle + mapping_turn(item)
             for sub in (mapped.Items if mapped is not None else ()) or ():
-                self._walk(sub, scale * s, found, notes, level + 1)
+                self._walk(sub, scale * s, found, notes, level + 1, turn)
         elif item.is_a("IfcBooleanResult"):
-            self._walk(item.FirstOperand, scale, found, notes, level + 1)
+            self._walk(item.FirstOperand, scale, found, notes, level + 1, angle)
         elif item.is_a("IfcCsgSolid"):
-            self._walk(item.TreeRootExpression, scale, found, notes, level + 1)
+            self._walk(item.TreeRootExpression, scale, found, notes, level + 1, angle)
 
     # ------------------------------------------------------------------ body extent
 

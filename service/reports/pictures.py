@@ -399,7 +399,7 @@ def storey_plan(marks: Sequence[PlanMark], layers: StoreyPlan | None, unit: str,
 def legend() -> Markup:
     """The legend of the plans: the colour scale with its ticks and the four mark shapes."""
     w, bar_x, bar_y, bar_w, bar_h = 760.0, 16.0, 24.0, 360.0, 16.0
-    out = [element("svg", None, viewBox=f"0 0 {num(w)} 96", class_="legend", role="img",
+    out = [element("svg", None, viewBox=f"0 0 {num(w)} 120", class_="legend", role="img",
                    aria_label="legend: utilization colour scale and mark shapes")[:-2] + ">"]
     out.append(element("text", "utilization (required / available strength)", x=bar_x,
                        y=15.0, font_size=12.0, fill=INK))
@@ -426,6 +426,12 @@ def legend() -> Markup:
         x, y = bar_x + k * 188.0, 82.0
         out.append(mark_shape(status, x + 7, y - 4, 6.5, mark_fill(status, u)))
         out.append(element("text", text, x=x + 19, y=y, font_size=12.0, fill=INK))
+    icon = SectionShape(int(Kind.I_SHAPE), 10.0, 8.0, 1.4, 1.8)
+    out.append(element("path", d=section_path(icon, bar_x + 7, 106.0, 1.1, 0.0),
+                       fill=colour_of(0.5), stroke=INK, stroke_width=0.7))
+    out.append(element("text", "a column's section, turned as modelled (shown larger where "
+                       "the plan says so); the status glyph beside it", x=bar_x + 19,
+                       y=110.0, font_size=12.0, fill=INK))
     out.append("</svg>")
     return Markup("".join(out))
 
