@@ -6,9 +6,10 @@ of the report rows, in the report's length unit and the rows' plan frame:
 * **grid lines** (:func:`stanchion.ifc_bridge.grids.read_grids`): the U and V axes of the
   grids contained in the storey, else of every grid; each infinite axis drawn across the
   storey's extent (its columns, slabs and grid intersections) and a margin;
-* **slab outlines** (:func:`stanchion.ifc_bridge.slabs.storey_slabs`): the floor the storey's
-  columns carry -- the slabs of the lowest storey above it (by elevation) that has any,
-  else its own -- each piece less the openings through it;
+* **slab outlines** (:func:`stanchion.ifc_bridge.slabs.storey_slabs`): the floors the storey's
+  columns carry -- with ``--takedown`` the storeys the takedown found their tops at (a
+  double-height column's floor too), else the slabs of the lowest storey above it (by
+  elevation) that has any, else its own -- each piece less the openings through it;
 * **tributary cells** with ``--takedown``: each column's cell from the takedown's own run
   (:class:`stanchion.service.takedown_loads.TakedownApplied`, never recomputed), drawn on
   the plan of the column's storey.
@@ -107,10 +108,15 @@ def plan_data(run: ModelCheck) -> PlanData:
     per_in = 1.0 / length_factor(unit)
     grids, _ = read_grids(run.model, RelationIndex.build(run.model))
     storeys = run.takedown.storeys if run.takedown is not None else storey_slabs(run.model)
-    floor: dict[str, list[Any]] = {}
+    outlines = {st.name: _outlines(st, scale) for st in storeys}
+    floor: dict[str, list[str]] = {}
     for k, st in enumerate(storeys):
-        carried = next((s for s in storeys[k + 1:] if s.parts), st)
-        floor[st.name] = _outlines(carried, scale)
+        floor[st.name] = [next((s for s in storeys[k + 1:] if s.parts), st).name]
+    if run.takedown is not None:  # the levels the storey's columns carry, as the takedown found
+        by_storey: dict[str, dict[str, None]] = {}
+        for i, name in run.takedown.carried.items():
+            by_storey.setdefault(rows[i].get("storey") or "", {})[name] = None
+        floor.update({k: list(v) for k, v in by_storey.items()})
     cells: dict[str, list[TributaryCell]] = {}
     if run.takedown is not None:
         for i, cell in run.takedown.cells.items():
@@ -126,7 +132,7 @@ def plan_data(run: ModelCheck) -> PlanData:
     out: dict[str, StoreyPlan] = {}
     for name in names:
         own = [g for g in grids if g.storey == name] or grids
-        polys = floor.get(name, [])
+        polys = [p for level in floor.get(name, []) for p in outlines.get(level, [])]
         pts = [(float(r["x"]), float(r["y"])) for r in rows
                if (r.get("storey") or "") == name and r.get("x") is not None
                and r.get("y") is not None]

@@ -62,6 +62,7 @@ class TakedownApplied:
         cells: each member's tributary cell on the level it carries (shapely polygon, in;
             members on a level only), from the takedown's own run, for the plans.
         storeys: the slabs read per storey (model length unit), for the plans.
+        carried: the storey each member carries (its top at its elevation), by member.
     """
 
     used: list[int] = field(default_factory=list)
@@ -70,6 +71,7 @@ class TakedownApplied:
     messages: list[str] = field(default_factory=list)
     cells: dict[int, Any] = field(default_factory=dict)
     storeys: list[StoreySlabs] = field(default_factory=list)
+    carried: dict[int, str] = field(default_factory=dict)
 
 
 def _has_no_loads(members: MemberTable, i: int) -> bool:
@@ -188,6 +190,7 @@ def apply_takedown(model: ifcopenshell.file, read: ReadResult, project: Takedown
     xy = np.column_stack([np.asarray(members.extra["x"], float) * to_in,
                           np.asarray(members.extra["y"], float) * to_in])
     level_of = _level_of(storeys, top, to_in)
+    out.carried = {int(i): storeys[int(k)].name for i, k in enumerate(level_of) if k >= 0}
     notes: list[str] = []
     levels, ks = _levels(storeys, level_of, members, xy, top - bottom, project, to_in, notes)
     result = takedown(levels, project.takedown_options())

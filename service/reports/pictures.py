@@ -276,8 +276,8 @@ def _area_layers(layers: StoreyPlan, frame: _Frame) -> list[str]:
         out.append('<g class="slabs">')
         for slab in layers.slabs:
             out.append(element("path", d=_ring_path((slab.outer, *slab.holes), frame),
-                               fill=SLAB_FILL, fill_rule="evenodd", stroke=SLAB_INK,
-                               stroke_width=1.0))
+                               fill=SLAB_FILL, fill_opacity=0.7, fill_rule="evenodd",
+                               stroke=SLAB_INK, stroke_width=1.0))
         out.append("</g>")
     if layers.tributary:
         out.append('<g class="tributary">')
