@@ -417,3 +417,28 @@ def test_baseline_changes_are_counted(tmp_path: Path) -> None:
     header, values = table_rows(table)
     counts = dict(zip(header, values, strict=True))
     assert counts["new failures"] == str(run.report["changes"]["counts"]["new_failures"]) == "1"
+
+
+def test_sample_plans_hold_the_models_grid_slabs_and_takedown_cells(sample) -> None:
+    # The sample building (sample_models/generate.py): grid A-D (x) by 1-3 (y); the
+    # Level 1 columns carry the Level 2 floor, 24 m x 16.5 m (a 1.5 m balcony beyond line 1)
+    # less the 3 m x 3 m stair void: hand, 396 - 9 = 387 m² = 4,165.6 ft² (1 m² = 10.7639
+    # ft²), tiled by the cells of the 12 Level 1 columns (service/plan_geometry.py).
+    _, _, tree, report = sample
+    figures = _storey_figures(tree)
+    assert len(figures) == 3
+    for storey, figure in figures.items():
+        grid = figure.find_all("g", class_="grid")
+        assert len(grid) == 1 and len(grid[0].find_all("line")) == 7, storey
+        assert {t.text() for t in grid[0].find_all("text")} == set("ABCD123")
+        assert figure.find_all("g", class_="slabs"), storey
+        marks = figure.find_all("g", class_="mark")
+        assert len(figure.find_all("path", class_="section")) == len(marks)
+    level1 = figures["Level 1 - Library annex"]
+    slabs = level1.find_all("g", class_="slabs")[0].find_all("path")
+    assert len(slabs) == 1 and slabs[0].attrs["d"].count("M") == 2  # the stair void
+    cells = level1.find_all("g", class_="tributary")[0].find_all("path")
+    assert len(cells) == 12
+    total = sum(float(c.attrs["data-area"]) for c in cells)
+    assert total == pytest.approx(387 * 10.7639, rel=2e-3)
+    assert report["units"]["length"] == "ft"
