@@ -18,12 +18,14 @@ from stanchion.engine.compression import (
     SLENDERNESS_ADVISORY,
     available_strength,
     compressive_strength,
+    kc,
 )
+from stanchion.engine.designations import AS_WELDED, designation_of
 from stanchion.engine.masks import all_set, any_set, finite_positive, is_none
 from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, composite_reason, skip_reason
 from stanchion.engine.members import MemberTable
 from stanchion.engine.plausibility import implausible_reasons
-from stanchion.engine.sections import Kind
+from stanchion.engine.sections import ElementClass, Kind, SectionTable
 
 PASS, FAIL, NOT_CHECKED, SKIPPED = "pass", "fail", "not_checked", "skipped"
 GIVEN_REQUIRED = "required strength as given"
@@ -296,6 +298,8 @@ def check_members(
     max_tension = (gov.max_tension if every and not any_given
                    else np.where(ok & ~given, gov.max_tension, 0.0))
     _advisories(messages, ok, capable, slenderness, given, gov.index)
+    if len(m.sections):
+        _built_up_notes(messages, m.sections, idx, capable)
     return CheckResults(
         method=method,
         status=status,
@@ -339,3 +343,32 @@ def _advisories(
                        "(AISC 360-22 E2 user note); review the member"]
     for i in (ok & ~given & (gov_index < 0)).nonzero()[0].tolist():
         messages[i] = [*messages[i], "no load combination produces compression"]
+
+
+def _built_up_notes(messages: list[list[str]], sections: SectionTable, idx: IntArray,
+                    capable: BoolArray) -> None:
+    """Say where flanges are taken as built-up (AISC 360-22 Table B4.1a case 2) and kc.
+
+    docs/design.md §8 "Built-up I sections". Loops only over the flagged members.
+
+    Args:
+        messages: per-member messages; a row that gains a message gets a new list.
+        sections: the section rows.
+        idx: each member's row.
+        capable: members whose available strength was computed.
+    """
+    built_up = sections.cls1 == ElementClass.BUILT_UP_FLANGE
+    if not any_set(built_up):
+        return
+    with np.errstate(divide="ignore", invalid="ignore"):
+        kc_row = kc(sections.b2 / sections.t2)
+    said: dict[int, str] = {}
+    for i in (capable & built_up[idx]).nonzero()[0].tolist():
+        row = int(idx[i])
+        if row not in said:
+            named = designation_of(sections.designation[row])
+            why = ("AS/NZS 3679.2 welded section" if named is not None
+                   and named.standard == AS_WELDED else "no root radius")
+            said[row] = (f"flanges taken as built-up ({why}): AISC 360-22 Table B4.1a case 2, "
+                         f"kc = {kc_row[row]:.2f}")
+        messages[i] = [*messages[i], said[row]]

@@ -24,7 +24,7 @@ import numpy as np
 from numpy.typing import NDArray
 
 from stanchion.engine.arrays import BoolArray, FloatArray, IntArray, ObjectArray
-from stanchion.engine.sections import Kind, SectionTable, class_coefficients
+from stanchion.engine.sections import ElementClass, Kind, SectionTable, class_coefficients
 
 PHI_C = 0.90  # AISC 360-22 E1, LRFD resistance factor for compression
 OMEGA_C = 1.67  # AISC 360-22 E1, ASD safety factor for compression
@@ -158,9 +158,27 @@ def Fe_flexural_torsional(F_sym: FloatArray, Fez_: FloatArray, H: FloatArray) ->
 def lambda_r(k: FloatArray, E: FloatArray, Fy: FloatArray) -> FloatArray:
     """Limiting width-to-thickness ratio λr = k·√(E/Fy) for compression elements.
 
-    AISC 360-22 Table B4.1a, cases 1, 4, 5 and 6 (k = 0.56, 0.75, 1.49, 1.40).
+    AISC 360-22 Table B4.1a, cases 1, 4, 5 and 6 (k = 0.56, 0.75, 1.49, 1.40); case 2
+    (flanges of built-up I sections, λr = 0.64·√(kc·E/Fy)) with k = 0.64·√kc (:func:`kc`).
     """
     return k * np.sqrt(E / Fy)
+
+
+KC_MIN = 0.35  # AISC 360-22 Table B4.1a note [a]: kc not taken less than 0.35 ...
+KC_MAX = 0.76  # ... nor greater than 0.76 for calculation purposes
+
+
+def kc(h_tw: FloatArray) -> FloatArray:
+    """Flange local buckling coefficient kc = 4/√(h/tw), 0.35 ≤ kc ≤ 0.76.
+
+    AISC 360-22 Table B4.1a note [a], used by case 2 (flanges of built-up I-shaped
+    sections).  An unknown or non-positive h/tw gives the lower limit 0.35 (the smaller
+    λr: conservative).
+    """
+    h_tw = np.asarray(h_tw, dtype=float)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        value = 4.0 / np.sqrt(h_tw)
+    return np.where(np.isfinite(value) & (h_tw > 0), np.clip(value, KC_MIN, KC_MAX), KC_MIN)
 
 
 def Fel(c2: FloatArray, lam_r: FloatArray, lam: FloatArray, Fy: FloatArray) -> FloatArray:
@@ -311,6 +329,11 @@ class _RowConstants:
                 lam = np.where(n > 0, b / t, 0.0)
                 lam2 = lam * lam  # a damaged model's 1e300 dimension: inf, not a warning
             k, c1, c2 = class_coefficients(c)
+            built_up = (c == ElementClass.BUILT_UP_FLANGE).nonzero()[0]
+            if len(built_up):  # Table B4.1a case 2: k = 0.64·√kc, kc from the web's h/tw
+                with np.errstate(divide="ignore", invalid="ignore"):
+                    h_tw = sec.b2[built_up] / sec.t2[built_up]
+                k[built_up] *= np.sqrt(kc(h_tw))
             groups.append((lam, lam2, k * k, k, c1, c2))
         return cls(sec.kind.astype(np.int8), inv_rx, inv_ry, ro2, H, tuple(groups),
                    sec.kind == Kind.ROUND_HSS)

@@ -41,7 +41,7 @@ from shapely.validation import explain_validity
 from stanchion.engine.arrays import FloatArray
 from stanchion.engine.compression import H_flexural_constant, ro_bar_squared
 from stanchion.engine.outline_families import NO_FAMILY, Fit, recognise
-from stanchion.engine.section_properties import WEIGHT_PER_AREA
+from stanchion.engine.section_properties import WEIGHT_PER_AREA, i_flange_class
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
 from stanchion.engine.tubes import design_wall
 
@@ -51,6 +51,10 @@ MESH_FACTOR = 0.25
 KEY_RESOLUTION = 1e-6
 #: Distinct outlines kept in the cache.
 CACHE_SIZE = 4096
+#: An I outline whose fitted root radius is at most this fraction of tf has no fillets: its
+#: flanges are built-up (docs/design.md §8 "Built-up I sections"; a rolled shape's root radius
+#: is of the order of tf or more, a sharp outline fits r ~ 0; common practice, no source).
+NO_FILLET = 0.05
 SOURCE = "outline"
 
 _KINDS = {"I": Kind.I_SHAPE, "U": Kind.CHANNEL, "T": Kind.TEE, "HSS": Kind.RECT_HSS,
@@ -268,9 +272,10 @@ def analyse(polygon: Polygon) -> Analysis:
 def _elements(fit: Fit) -> dict[str, float]:
     """Element groups for Section E7 (AISC 360-22 Table B4.1a widths), by family."""
     d = fit.dims
-    if fit.family == "I":  # case 1: b = bf/2; case 5: h = d - 2k (rolled shapes)
+    if fit.family == "I":  # case 1 (fillets) or 2 (none): b = bf/2; case 5: h = d - 2k
         return {"b1": d["bf"] / 2.0, "t1": d["tf"], "n1": 4,
-                "cls1": ElementClass.UNSTIFFENED_FLANGE, "b2": d["d"] - 2.0 * d["k"],
+                "cls1": int(i_flange_class(d["r"] > NO_FILLET * d["tf"])),
+                "b2": d["d"] - 2.0 * d["k"],
                 "t2": d["tw"], "n2": 1, "cls2": ElementClass.STIFFENED_WEB}
     if fit.family == "U":  # case 1: b = bf; case 5: h = d - 2k
         return {"b1": d["bf"], "t1": d["tf"], "n1": 2, "cls1": ElementClass.UNSTIFFENED_FLANGE,

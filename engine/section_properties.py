@@ -215,6 +215,9 @@ def i_section(
 
     J: El Darwish and Johnston (1965) (flange and web rectangles plus two fillet junctions).
     Cw = Iy·h0²/4 with h0 = d - tf (AISC Design Guide 9, 1997; common practice).
+    Flanges: rolled (AISC 360-22 Table B4.1a case 1) with a root radius, built-up (case 2,
+    λr with kc) without one: a welded plate I has no root fillet (docs/design.md §8
+    "Built-up I sections"; conservative, case 2 never gives the larger λr).
 
     Args:
         d: overall depth, in.
@@ -240,9 +243,22 @@ def i_section(
         len(d), designation=_labels(label, "I", [d, bf, tw, tf], r), family="I",
         kind=Kind.I_SHAPE, A=A, d=d, bf=bf, tw=tw, tf=tf, Ix=Ix, Iy=Iy, J=J,
         Cw=Iy * (d - tf) ** 2 / 4.0,
-        b1=bf / 2.0, t1=tf, n1=4, cls1=ElementClass.UNSTIFFENED_FLANGE,
+        b1=bf / 2.0, t1=tf, n1=4, cls1=i_flange_class(r > 0.0),
         b2=d - 2.0 * (tf + r), t2=tw, n2=1, cls2=ElementClass.STIFFENED_WEB,
     )
+
+
+def i_flange_class(rolled: ArrayLike) -> AnyArray:
+    """Element class of I flanges: case 1 where ``rolled`` (a root radius), else case 2.
+
+    AISC 360-22 Table B4.1a cases 1 (rolled I) and 2 (built-up I); the rule that tells them
+    apart is docs/design.md §8 "Built-up I sections".
+
+    Args:
+        rolled: True per row where the section has a root radius.
+    """
+    return np.where(np.asarray(rolled, dtype=bool), int(ElementClass.UNSTIFFENED_FLANGE),
+                    int(ElementClass.BUILT_UP_FLANGE))
 
 
 @_OVERFLOW_IS_INF

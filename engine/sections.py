@@ -47,9 +47,11 @@ class ElementClass(IntEnum):
     STIFFENED_WEB = 3  # B4.1a case 5 (webs of doubly symmetric I and of channels)
     HSS_WALL = 4  # B4.1a case 6 (walls of rectangular HSS)
     ROUND_WALL = 5  # B4.1a case 9 (round HSS: D/t, λr = 0.11 E/Fy)
+    BUILT_UP_FLANGE = 6  # B4.1a case 2 (built-up I flanges: λr = 0.64·√(kc·E/Fy), see kc)
 
 
 # class -> (λr coefficient k, with λr = k·sqrt(E/Fy); c1; c2).  Table B4.1a and Table E7.1
+# (BUILT_UP_FLANGE: k = 0.64 is multiplied by √kc of the row, engine.compression.kc)
 # (a) stiffened except HSS walls: c1 = 0.18, c2 = 1.31; (b) rectangular HSS walls: 0.20,
 # 1.38; (c) all other elements: 0.22, 1.49.  ROUND_WALL and NONE are handled separately.
 ELEMENT_CLASSES: dict[ElementClass, tuple[float, float, float]] = {
@@ -59,6 +61,7 @@ ELEMENT_CLASSES: dict[ElementClass, tuple[float, float, float]] = {
     ElementClass.STIFFENED_WEB: (1.49, 0.18, 1.31),
     ElementClass.HSS_WALL: (1.40, 0.20, 1.38),
     ElementClass.ROUND_WALL: (np.inf, 0.0, 0.0),
+    ElementClass.BUILT_UP_FLANGE: (0.64, 0.22, 1.49),
 }
 
 _CLASS_TABLE = np.array([ELEMENT_CLASSES[c] for c in ElementClass], dtype=float)
@@ -75,6 +78,22 @@ def class_coefficients(cls: IntArray) -> tuple[FloatArray, FloatArray, FloatArra
     """
     row = _CLASS_TABLE[np.asarray(cls, dtype=np.int64)]
     return row[..., 0], row[..., 1], row[..., 2]
+
+
+def take_flanges_as_built_up(table: SectionTable, rows: IntArray) -> None:
+    """Give the I-shaped ``rows`` of ``table`` built-up flanges (Table B4.1a case 2), in place.
+
+    docs/design.md §8 "Built-up I sections": a name of a welded product (AS/NZS 3679.2 WB,
+    WC) makes the flanges built-up whatever the modelled root radius.
+
+    Args:
+        table: a writable table (not the shared catalog).
+        rows: row numbers; rows that are not I shapes are left alone.
+    """
+    rows = np.asarray(rows, dtype=np.int64)
+    rows = rows[(table.kind[rows] == Kind.I_SHAPE)
+                & (table.cls1[rows] == ElementClass.UNSTIFFENED_FLANGE)]
+    table.cls1[rows] = ElementClass.BUILT_UP_FLANGE
 
 
 _TEXT_FIELDS = ("designation", "family")

@@ -48,6 +48,7 @@ from stanchion.engine import section_properties as sp
 from stanchion.engine.arrays import IntArray
 from stanchion.engine.catalog import load_catalog, lookup, unknown_section_reason
 from stanchion.engine.designations import (
+    AS_WELDED,
     Designation,
     agrees,
     designation_of,
@@ -55,7 +56,7 @@ from stanchion.engine.designations import (
 )
 from stanchion.engine.materials import band_thickness
 from stanchion.engine.outlines import outline_section
-from stanchion.engine.sections import Kind, SectionRow, SectionTable
+from stanchion.engine.sections import Kind, SectionRow, SectionTable, take_flanges_as_built_up
 from stanchion.engine.tubes import catalog_wall_note, design_wall, tube_standard
 from stanchion.ifc_bridge.profiles import ProfileSpec
 
@@ -302,6 +303,8 @@ def _name_check(decided: _Decision, sections: SectionTable, row: int) -> None:
     named = decided.named
     if named is None or row < 0:
         return
+    if named.standard == AS_WELDED:  # welded plate I: built-up flanges (engine rule)
+        take_flanges_as_built_up(sections, np.array([row], dtype=np.int64))
     problem = agrees(named, sections.row(row))
     if problem is None:
         decided.notes.append(f"profile name {named.label} agrees with the geometry (2 %)")

@@ -186,3 +186,21 @@ def test_a_skipped_member_without_loads_gets_no_capacity() -> None:
     r = check_members(_members(2, loads=_no_loads(2), material=["concrete", "steel"]))
     assert r.status.tolist() == [SKIPPED, NOT_CHECKED]
     assert np.isnan(r.available_strength[0]) and r.available_strength[1] > 0
+
+
+def test_built_up_flanges_are_said_with_kc() -> None:
+    # A welded I 20 x 13.3 x 0.625 x 0.5 in (no root radius) and the same with r = 0.5 in
+    # (rolled).  h/tw = 19/0.625 = 30.4, kc = 4/sqrt(30.4) = 0.7255 -> "0.73" (AISC 360-22
+    # Table B4.1a note [a], by hand); the rolled row gets no such message.
+    from stanchion.engine import section_properties as sp
+    from stanchion.engine.sections import SectionTable
+    sections = SectionTable.concat([sp.i_section(20.0, 13.3, 0.625, 0.5, r)
+                                    for r in (0.0, 0.5)])
+    loads = np.full((2, len(LOAD_TYPES)), np.nan)
+    loads[:, 0] = 100.0
+    m = MemberTable.build(ids=["A", "B"], sections=sections, section_index=np.array([0, 1]),
+                          Fy=np.full(2, 50.0), length=np.full(2, 12 * FT), loads=loads)
+    r = check_members(m)
+    assert ("flanges taken as built-up (no root radius): AISC 360-22 Table B4.1a case 2, "
+            "kc = 0.73") in r.messages[0]
+    assert not any("built-up" in s for s in r.messages[1])

@@ -272,3 +272,58 @@ def test_several_blocks_give_the_same_results_as_one(monkeypatch) -> None:
     for name in ("Pn", "Fcr", "Fe", "Ae", "Ag", "slenderness", "limit_state", "slender",
                  "in_scope"):
         np.testing.assert_array_equal(getattr(blocks, name), getattr(one, name), err_msg=name)
+
+
+# --- built-up I flanges: AISC 360-22 Table B4.1a case 2 ----------------------------------------
+
+
+def test_kc_is_four_over_root_h_tw_within_its_limits() -> None:
+    from stanchion.engine.compression import kc
+    # AISC 360-22 Table B4.1a note [a]: kc = 4/sqrt(h/tw), 0.35 <= kc <= 0.76 (from memory).
+    # h/tw = 30.4: 4/5.5136 = 0.7255 (by hand); 200: 0.283 -> 0.35; 20: 0.894 -> 0.76;
+    # unknown h/tw (0, NaN): the lower limit (conservative, docs/design.md §8).
+    got = kc(np.array([30.4, 200.0, 20.0, 0.0, np.nan]))
+    assert got.tolist() == pytest.approx([0.7255, 0.35, 0.76, 0.35, 0.35], abs=5e-5)
+
+
+def _welded_i(bf: float, r: float = 0.0):
+    from stanchion.engine import section_properties as sp
+    # d 20 in, tw 0.625 in, tf 0.5 in: h = d - 2 tf = 19 in (r = 0), h/tw = 30.4.
+    return sp.i_section(20.0, bf, 0.625, 0.5, r)
+
+
+def test_welded_i_flange_limit_uses_kc() -> None:
+    from stanchion.engine.sections import ElementClass
+    # Hand computation (AISC 360-22 Table B4.1a case 2, Fy = 50 ksi, E = 29000 ksi):
+    #   h/tw = 19/0.625 = 30.4; kc = 4/sqrt(30.4) = 0.7255;
+    #   λr = 0.64·sqrt(kc·E/Fy) = 0.64·sqrt(0.7255·580) = 0.64·20.513 = 13.13
+    # (case 1, rolled: λr = 0.56·sqrt(580) = 13.49).  A flange with b/t = 6.65/0.5 = 13.3 lies
+    # between the two: slender as built-up, not as rolled.
+    welded, rolled = _welded_i(13.3), _welded_i(13.3, r=0.5)
+    assert welded.cls1.tolist() == [ElementClass.BUILT_UP_FLANGE]
+    assert rolled.cls1.tolist() == [ElementClass.UNSTIFFENED_FLANGE]
+    zero = np.zeros(1)
+    a = compressive_strength(welded, np.array([50.0]), zero, zero, zero)
+    b = compressive_strength(rolled, np.array([50.0]), zero, zero, zero)
+    assert a.slender.tolist() == [True]  # 13.3 > 13.13
+    assert b.slender.tolist() == [False]  # 13.3 < 13.49 (and web 29.6 < 1.49·sqrt(580) = 35.9)
+
+
+def test_slender_flange_welded_i_available_strength_by_hand() -> None:
+    # Welded I 20 x 20 x 0.625 x 0.5 in, no root radius, Fy = 50 ksi, Lc = 0 (Fcr = Fy),
+    # AISC 360-22 E7 with Table B4.1a case 2, by hand:
+    #   Ag = 2·20·0.5 + 19·0.625 = 31.875 in²;  web h/tw = 30.4 < 35.9: not slender.
+    #   flange b = 10 in, λ = 20; λr = 13.128 (above); Fcr = Fy, so λ > λr·sqrt(Fy/Fcr).
+    #   Fel = (c2·λr/λ)²·Fy = (1.49·13.128/20)²·50 = 0.97804²·50 = 47.83 ksi (Eq. E7-4,
+    #   c2 = 1.49, Table E7.1 case (c)); sqrt(Fel/Fcr) = 0.97804;
+    #   be = b·(1 − 0.22·0.97804)·0.97804 = 10·0.78483·0.97804 = 7.6760 in (Eq. E7-3);
+    #   Ae = 31.875 − 4·(10 − 7.6760)·0.5 = 31.875 − 4.648 = 27.227 in²;
+    #   φc·Pn = 0.9·50·27.227 = 1225.2 kip.  (As rolled, λr = 13.4865: Ae = 27.528 in²,
+    #   φc·Pn = 1238.8 kip — the built-up reading is the lower one.)
+    zero = np.zeros(1)
+    r = compressive_strength(_welded_i(20.0), np.array([50.0]), zero, zero, zero)
+    assert r.Ag[0] == pytest.approx(31.875)
+    assert r.Ae[0] == pytest.approx(27.227, abs=2e-3)
+    assert float(available_strength(r.Pn, "LRFD")[0]) == pytest.approx(1225.2, abs=0.2)
+    rolled = compressive_strength(_welded_i(20.0, r=1e-9), np.array([50.0]), zero, zero, zero)
+    assert float(available_strength(rolled.Pn, "LRFD")[0]) == pytest.approx(1238.8, abs=0.2)

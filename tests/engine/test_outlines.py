@@ -544,3 +544,14 @@ def test_outline_row_has_the_fields_of_the_parametric_builder(family, points, bu
     if family != "HSS":
         for key in ("b1", "b2"):
             assert got[key] == pytest.approx(want[key], rel=0.01, abs=1e-9), key
+
+
+def test_sharp_I_outline_has_built_up_flanges():
+    # A welded plate I drawn without root fillets: flanges by AISC 360-22 Table B4.1a case 2
+    # (docs/design.md §8 "Built-up I sections"); the same I drawn with fillets of 0.6 in
+    # stays rolled (case 1).  Web h = d - 2 tf = 19 in for the sharp one (case 5).
+    sharp = section(ol.Outline.of(i_points(20.0, 12.0, 0.5, 0.8, 0.0))).table.row(0)
+    filleted = section(ol.Outline.of(i_points(20.0, 12.0, 0.5, 0.8, 0.6))).table.row(0)
+    assert sharp["cls1"] == ElementClass.BUILT_UP_FLANGE
+    close(sharp["b2"], 20.0 - 2 * 0.8, 0.002)
+    assert filleted["cls1"] == ElementClass.UNSTIFFENED_FLANGE

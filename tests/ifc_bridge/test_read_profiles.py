@@ -333,3 +333,22 @@ def test_mapped_item_scale_applies_to_profile_and_depth(builder):
     assert m.extra["profile_source"][0] == "body/dimensions"
     assert row["d"] == pytest.approx(16.0)  # 2 × 8 in (common practice, no source)
     assert m.lx[0] == pytest.approx(144.0)  # 2 × 72 in extrusion
+
+
+def test_i_without_root_radius_and_welded_names_have_built_up_flanges(builder, make_builder):
+    from stanchion.engine.sections import ElementClass
+    # docs/design.md §8 "Built-up I sections": an IfcIShapeProfileDef without FilletRadius is
+    # a welded plate I (AISC 360-22 Table B4.1a case 2); one with FilletRadius is rolled.
+    _, row = _read_one(builder, builder.profile("I", None, d=20.0, bf=12.0, tw=0.5, tf=0.8))
+    assert row["cls1"] == ElementClass.BUILT_UP_FLANGE
+    b = make_builder(schema_name=builder.schema)
+    _, row = _read_one(b, b.profile("I", None, d=20.0, bf=12.0, tw=0.5, tf=0.8, r=0.6))
+    assert row["cls1"] == ElementClass.UNSTIFFENED_FLANGE
+    # AS/NZS 3679.2 1200WB455 (d 1200, bf 500, tf 40, tw 16 mm, from memory; 57 920 mm² at
+    # 7850 kg/m³ = 454.7 kg/m, by hand): welded whatever FilletRadius the model gives.
+    mm = 1 / 25.4
+    b = make_builder(schema_name=builder.schema)
+    _, row = _read_one(b, b.profile("I", "1200WB455", d=1200 * mm, bf=500 * mm, tw=16 * mm,
+                                    tf=40 * mm, r=8 * mm))
+    assert row["designation"] == "1200WB455"
+    assert row["cls1"] == ElementClass.BUILT_UP_FLANGE
