@@ -214,21 +214,27 @@ def check(source: Path, options: CheckOptions | None = None,
         model_check.write_checked_model(run, outputs.model, options.checked_at, progress)
     write_outputs(report, report_path=outputs.report, csv_path=outputs.csv,
                   junit_path=outputs.junit, allow_not_checked=options.allow_not_checked)
+    plans = (_plan_data(run) if model and (outputs.bcf is not None or outputs.html is not None)
+             else None)
     if model and outputs.bcf is not None:
-        _write_bcf(run, outputs.bcf)
+        _write_bcf(run, outputs.bcf, plans)
     if outputs.html is not None:
         _write_html(outputs.html, report, members,
-                    _detailed(members, results, None if model else request),
-                    _plan_data(run) if model else None)
+                    _detailed(members, results, None if model else request), plans)
     return CheckRun(report, members, results, "model" if model else "members")
 
 
-def _write_bcf(run: model_check.ModelCheck, path: Path) -> None:
-    """Write the BCF issues of a checked model (``--bcf``), atomically."""
+def _write_bcf(run: model_check.ModelCheck, path: Path, plans: PlanData | None = None
+               ) -> None:
+    """Write the BCF issues of a checked model (``--bcf``), atomically.
+
+    The snapshots draw the plans' slab outlines and grid lines when ``plans`` gives them.
+    """
     from stanchion.service.reports.bcf import scene_of, write_bcf
+    from stanchion.service.reports.snapshots import StoreyDots
 
     try:
-        write_bcf(path, run.report, scene_of(run))
+        write_bcf(path, run.report, scene_of(run), StoreyDots(run.report, plans))
     except OSError as exc:
         raise InputError(f"cannot write {path}: {exc.strerror or exc}") from None
 
