@@ -36,6 +36,7 @@ from stanchion.service.reports.plan_data import (
     StoreyPlan,
     TributaryCell,
 )
+from stanchion.service.reports.snapshots import NO_STOREY
 
 if TYPE_CHECKING:
     from stanchion.service.model_check import ModelCheck
@@ -115,7 +116,7 @@ def plan_data(run: ModelCheck) -> PlanData:
     if run.takedown is not None:  # the levels the storey's columns carry, as the takedown found
         by_storey: dict[str, dict[str, None]] = {}
         for i, name in run.takedown.carried.items():
-            by_storey.setdefault(rows[i].get("storey") or "", {})[name] = None
+            by_storey.setdefault(rows[i].get("storey") or NO_STOREY, {})[name] = None
         floor.update({k: list(v) for k, v in by_storey.items()})
     cells: dict[str, list[TributaryCell]] = {}
     if run.takedown is not None:
@@ -125,16 +126,16 @@ def plan_data(run: ModelCheck) -> PlanData:
             poly = shapely.affinity.scale(cell, per_in, per_in, origin=(0, 0))
             for part in shapely.get_parts(poly):
                 if part.geom_type == "Polygon":
-                    cells.setdefault(rows[i].get("storey") or "", []).append(TributaryCell(
+                    cells.setdefault(rows[i].get("storey") or NO_STOREY, []).append(TributaryCell(
                         str(rows[i]["id"]), _ring(part.exterior.coords, 1.0),
                         round(float(cell.area) * per_in ** 2, 4)))
-    names = Counter(r.get("storey") or "" for r in rows)
+    names = Counter(r.get("storey") or NO_STOREY for r in rows)
     out: dict[str, StoreyPlan] = {}
     for name in names:
         own = [g for g in grids if g.storey == name] or grids
         polys = [p for level in floor.get(name, []) for p in outlines.get(level, [])]
         pts = [(float(r["x"]), float(r["y"])) for r in rows
-               if (r.get("storey") or "") == name and r.get("x") is not None
+               if (r.get("storey") or NO_STOREY) == name and r.get("x") is not None
                and r.get("y") is not None]
         pts += _grid_box(own, scale)
         for poly in polys:

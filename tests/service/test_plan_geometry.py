@@ -117,3 +117,22 @@ def test_plans_hold_grid_slabs_cells_and_turned_sections(tmp_path, schema):
         web = math.degrees(math.atan2(-(y4 - y3), x4 - x3)) % 180.0  # plan angle of the web
         assert web == pytest.approx((expect + 90.0) % 180.0, abs=1.0)
         assert f'data-rotation="{expect:g}"' in mark[:mark.index("</g>")]
+
+
+def test_columns_in_no_storey_get_the_grid_on_their_plan(tmp_path) -> None:
+    # Columns contained in no storey are drawn on the "(no storey)" plan, with the grid
+    # (held by no storey: every plan draws it) and no slab.
+    from tests.ifc_bridge.conftest import ModelBuilder
+
+    b = ModelBuilder("IFC4", "mm_N")
+    add_grid(b, storey=None, u={"A": 0.0, "B": 240.0}, v={"1": 0.0, "2": 360.0})
+    profile = b.profile("I", "W10X49", d=10.0, bf=10.0, tw=0.34, tf=0.56, r=0.5)
+    steel = b.material("ASTM A992", fy=50.0)
+    for k, at in enumerate(((0.0, 0.0), (360.0, 240.0))):
+        b.column(f"N{k}", profile=profile, material=steel, storey=None, at=at)
+    html = tmp_path / "loose.html"
+    check(b.write(tmp_path / "loose.ifc"), CheckOptions(), OutputPaths(html=html))
+    svg = _plan(html.read_text(encoding="utf-8"), "(no storey)")
+    start = svg.index('<g class="grid">')
+    assert svg[start:svg.index("</g>", start)].count("<line") == 4
+    assert 'class="slabs"' not in svg and svg.count('class="section"') == 2
