@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Iterable, Sequence
-from dataclasses import dataclass
+from dataclasses import astuple, dataclass
 
 import numpy as np
 from markupsafe import Markup, escape
@@ -360,6 +360,12 @@ def storey_plan(marks: Sequence[PlanMark], layers: StoreyPlan | None, unit: str,
         body = [element("title", m.title)]
         if m.section is not None:
             turn = m.rotation if m.rotation is not None else 0.0
+            if m.section.kind in (Kind.RECT_HSS, Kind.ROUND_HSS):
+                # a tube's inside tinted, so that it is not read as the skipped glyph
+                outer = SectionShape(Kind.SOLID_RECT if m.section.kind == Kind.RECT_HSS
+                                     else Kind.SOLID_ROUND, *astuple(m.section)[1:])
+                body.append(element("path", d=section_path(outer, cx, cy, k, turn),
+                                    fill=fill, fill_opacity=0.35, stroke="none"))
             body.append(element("path", d=section_path(m.section, cx, cy, k, turn),
                                 fill=fill, fill_rule="evenodd", stroke=INK,
                                 stroke_width=0.7, stroke_linejoin="round", class_="section",
