@@ -22,7 +22,13 @@ from stanchion.engine.compression import (
 )
 from stanchion.engine.designations import AS_WELDED, designation_of
 from stanchion.engine.masks import all_set, any_set, finite_positive, is_none
-from stanchion.engine.materials import E_DEFAULT, G_DEFAULT, composite_reason, skip_reason
+from stanchion.engine.materials import (
+    E_DEFAULT,
+    G_DEFAULT,
+    composite_reason,
+    skip_reason,
+    stainless_reason,
+)
 from stanchion.engine.members import MemberTable
 from stanchion.engine.plausibility import implausible_reasons
 from stanchion.engine.sections import ElementClass, Kind, SectionTable
@@ -171,7 +177,8 @@ def _material_reasons(m: MemberTable, reason: ObjectArray) -> BoolArray | None:
 
     A member whose materials all name another material than steel is skipped: its reason
     becomes "not steel: <class>" whatever else it lacks.  A member whose materials name
-    steel and another material (composite or ambiguous) is not checked, that reason first.
+    steel and another material (composite or ambiguous) is not checked, that reason first; one
+    whose materials name stainless steel is not checked with that reason alone (AISC 370).
     Steel and unknown members are left alone.  Loops only over the distinct classes.
 
     Args:
@@ -190,6 +197,10 @@ def _material_reasons(m: MemberTable, reason: ObjectArray) -> BoolArray | None:
         if skip is not None:
             reason[rows] = skip
             skipped = rows if skipped is None else skipped | rows
+            continue
+        stainless = stainless_reason(str(label))
+        if stainless is not None:  # outranks whatever else it lacks (no Fy is expected)
+            reason[rows] = stainless
             continue
         mixed = composite_reason(str(label))
         if mixed is not None:

@@ -294,14 +294,19 @@ def _stated_stresses(text: str, upper: str, notes: list[str]) -> list[GradeMatch
 # Scandinavian languages, Dutch and Russian.
 
 STEEL, UNKNOWN = "steel", "unknown"
+#: Stainless steel: a class of its own (AISC 370 designs it, not AISC 360): never checked
+#: here, never given ``--default-grade``; not skipped either, a person must look at it.
+STAINLESS = "stainless steel"
 CONCRETE, TIMBER, ALUMINIUM, MASONRY = "concrete", "timber", "aluminium", "masonry"
 #: The classes other than steel, in the order a reason names them.
 NOT_STEEL: tuple[str, ...] = (CONCRETE, TIMBER, ALUMINIUM, MASONRY)
 
 #: Whole words (accents removed, lower case; an English plural "s" is also accepted).
 _WORDS: dict[str, tuple[str, ...]] = {
-    STEEL: ("steel", "stahl", "acier", "acero", "acciaio", "staal", "stal", "stål", "сталь",
-            "stainless", "inox"),
+    STEEL: ("steel", "stahl", "acier", "acero", "acciaio", "staal", "stal", "stål", "сталь"),
+    STAINLESS: ("stainless", "inox", "edelstahl", "rostfrei", "inoxydable", "inoxidable",
+                "inossidabile", "roestvrij", "roestvast", "rostfri", "rostfritt",
+                "нержавеющая"),
     CONCRETE: ("concrete", "beton", "béton", "betong", "бетон", "hormigón", "calcestruzzo",
                "cement", "shotcrete", "precast"),
     TIMBER: ("timber", "wood", "lumber", "holz", "glulam", "bois", "madera", "legno", "clt",
@@ -330,6 +335,14 @@ _GLULAM_CLASS = re.compile(r"\bGL\s?\d{2}[HC]\b")
 #: Concrete strength classes of EN 206 / EN 1992-1-1 Table 3.1 written with their slash
 #: (C30/37, LC25/28): what some programs name a concrete material by, and nothing else.
 _CONCRETE_CLASS = re.compile(r"\bL?C\s?\d{1,3}\s?/\s?\d{1,3}\b")
+#: Stainless grades by number: EN 10088 material numbers 1.40xx-1.46xx (1.4301, 1.4404,
+#: 1.4462), AISI / JIS 3xx and 4xx with their prefix or suffix letters (AISI 304, SUS316,
+#: 316L, 304L); a bare "304" / "316" is not enough, nor "SS" (JIS SS400 is carbon steel)
+#: (common practice, no source).
+_STAINLESS_GRADE = re.compile(
+    r"\b1\.4[0-6]\d{2}\b|\b(?:AISI|SUS)\s?[34]\d{2}[A-Z]{0,2}\b|\b3[01]\d[LHN]{1,2}\b")
+#: German word starts for stainless ("nichtrostender Stahl").
+_STAINLESS_STARTS = ("nichtrostend", "rostfrei")
 
 
 def _fold(text: str) -> str:
@@ -384,6 +397,10 @@ def text_classes(text: str | None) -> frozenset[str]:
         found.add(CONCRETE)
     if any(rx.search(upper) for _, rx in _COMPILED) or product_standards(text):
         found.add(STEEL)
+    if _STAINLESS_GRADE.search(upper) or any(w.startswith(_STAINLESS_STARTS) for w in words):
+        found.add(STAINLESS)
+    if STAINLESS in found:  # "stainless steel", "Edelstahl 1.4301": stainless, not steel
+        found.discard(STEEL)
     return frozenset(found)
 
 
@@ -403,15 +420,19 @@ def material_class(texts: Iterable[str | None]) -> str:
         found |= text_classes(text)
     if not found:
         return UNKNOWN
-    return ", ".join(c for c in (STEEL, *NOT_STEEL) if c in found)
+    if STAINLESS in found:  # a category "steel" beside a name "stainless steel 1.4301"
+        found.discard(STEEL)
+    return ", ".join(c for c in (STEEL, STAINLESS, *NOT_STEEL) if c in found)
 
 
 def skip_reason(label: str) -> str | None:
     """The skip reason of a member of material class ``label`` ("not steel: concrete").
 
-    None for steel, unknown and composite (steel with another class) members.
+    None for steel, unknown, stainless (:func:`stainless_reason`: not checked, not skipped)
+    and composite (steel with another class) members.
     """
-    if label in (STEEL, UNKNOWN) or STEEL in label.split(", "):
+    classes = label.split(", ")
+    if label in (STEEL, UNKNOWN) or STEEL in classes or STAINLESS in classes:
         return None
     return f"not steel: {label}"
 
@@ -428,3 +449,17 @@ def composite_reason(label: str) -> str | None:
     others = ", ".join(c for c in classes if c != STEEL)
     return (f"material names steel and {others}: a composite or ambiguously named member "
             "(composite members, AISC 360-22 Chapter I, are not checked)")
+
+
+def stainless_reason(label: str) -> str | None:
+    """Why a member whose materials name stainless steel is not checked, or None.
+
+    AISC 360-22 does not cover stainless steel (AISC 370 does): such a member is not
+    checked, with this reason, rather than skipped, so that a person looks at it.
+
+    Args:
+        label: the member's material class (:func:`material_class`).
+    """
+    if STAINLESS not in label.split(", "):
+        return None
+    return "stainless steel: designed to AISC 370, not checked here"

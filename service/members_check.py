@@ -20,7 +20,9 @@ from stanchion.engine.materials import (
     G_DEFAULT,
     band_thickness,
     match_grade,
+    material_class,
     product_standard,
+    stainless_reason,
 )
 from stanchion.engine.members import LOAD_TYPES, MemberTable
 from stanchion.engine.sections import Kind, SectionTable
@@ -182,6 +184,10 @@ def _apply_grades(
     to_user = 1.0 / stress_factor(stress)
     for i, grade in enumerate(grades):
         if grade is None:
+            continue
+        stainless = stainless_reason(material_class([grade]))
+        if stainless is not None:  # AISC 370's, whatever fy is given (docs/design.md §8)
+            reasons[i] = stainless
             continue
         row = int(idx[i])
         family = str(sections.family[row]) if row >= 0 else None

@@ -141,6 +141,19 @@ def test_non_steel_members_are_skipped_with_no_numbers() -> None:
     assert r.available_strength[3] == pytest.approx(303.0, abs=1.0)
 
 
+def test_stainless_members_are_not_checked_with_the_reason() -> None:
+    # A usable W14X48 (φcPn = 303 kip, AISC Manual Table 4-1a, read-off) of stainless steel:
+    # AISC 360 does not cover it (AISC 370 does): not checked, never passed nor skipped, and
+    # the reason replaces any other (here a missing Fy).
+    m = _members(3, material=["steel", "stainless steel", "stainless steel"],
+                 Fy=np.array([50.0, 50.0, np.nan]))
+    r = check_members(m)
+    assert r.status.tolist() == [PASS, NOT_CHECKED, NOT_CHECKED]
+    for i in (1, 2):
+        assert r.reason[i] == "stainless steel: designed to AISC 370, not checked here"
+        assert np.isnan(r.available_strength[i])
+
+
 def test_skipped_wins_over_missing_data() -> None:
     # A concrete column has no steel yield stress and no catalog section: it is skipped for
     # its material, not "not checked" for what a steel check would need.

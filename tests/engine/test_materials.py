@@ -16,6 +16,7 @@ from stanchion.engine.materials import (
     names_grade,
     product_standard,
     skip_reason,
+    stainless_reason,
 )
 from stanchion.engine.units import factor
 
@@ -197,6 +198,15 @@ CLASS_TABLE = [
     ("Concrete block", "concrete, masonry"), ("Mauerwerk", "masonry"),
     ("Kalksandstein-Mauerwerk", "masonry"), ("maçonnerie", "masonry"),
     ("Ziegel", "masonry"), ("Кирпич", "masonry"),
+    # stainless steel: its own class (AISC 370, not AISC 360; review item 2)
+    ("Stainless steel", "stainless steel"), ("Inox", "stainless steel"),
+    ("Edelstahl", "stainless steel"), ("Stahl rostfrei", "stainless steel"),
+    ("nichtrostender Stahl", "stainless steel"), ("Acier inoxydable", "stainless steel"),
+    ("acero inoxidable", "stainless steel"), ("1.4301", "stainless steel"),
+    ("Steel 1.4462", "stainless steel"), ("AISI 316", "stainless steel"),
+    ("SUS304", "stainless steel"), ("Steel 316L", "stainless steel"),
+    ("Stainless 304", "stainless steel"), ("EN 10088 1.4404 S355", "stainless steel"),
+    ("Steel 304", "steel"),  # a bare 304 is no stainless grade (nor any): steel
     # composite or ambiguous: steel and another class
     ("Steel - reinforced concrete column", "steel, concrete"),
     ("Steel/timber", "steel, timber"),
@@ -224,6 +234,17 @@ def test_material_class_reads_categories_and_every_material() -> None:
     assert material_class(["Concrete", None, "Brick", None]) == "concrete, masonry"
     assert material_class(["Concrete", None, "Reinforcement", None]) == "concrete"
     assert material_class(["Concrete", None, "S355", None]) == "steel, concrete"
+
+
+def test_stainless_is_not_checked_never_skipped_nor_steel() -> None:
+    # AISC 360-22 §A1 covers structural steel; stainless steel is AISC 370's (from memory).
+    assert material_class(["Stainless steel 1.4301", "steel"]) == "stainless steel"
+    assert skip_reason("stainless steel") is None
+    assert skip_reason("stainless steel, concrete") is None
+    assert stainless_reason("stainless steel") == (
+        "stainless steel: designed to AISC 370, not checked here")
+    assert stainless_reason("steel") is None
+    assert names_grade("Stainless steel") is False  # --default-grade needs a steel class
 
 
 def test_skip_and_composite_reasons() -> None:

@@ -118,3 +118,25 @@ def test_repeated_global_id_outranks_the_material(builder):
         status, why = got[name]
         assert status == NOT_CHECKED and why.startswith(f"GlobalId {first.GlobalId} is used by 2")
     assert got["K3"] == (SKIPPED, "not steel: concrete")
+
+
+def test_stainless_columns_are_not_checked_and_get_no_default_grade(builder):
+    # Review item 2: stainless steel is designed to AISC 370, not AISC 360-22 (from memory):
+    # not checked with that reason (not skipped: a person must look), and --default-grade
+    # never gives it a yield stress; a plain 'Steel' beside it takes the default (A992,
+    # Fy = 50 ksi, ASTM A992/A992M) and passes.
+    b = builder
+    _column(b, "stainless", _material(b, "Stainless steel"), kind="I", dims=W14X48)
+    _column(b, "inox", _material(b, "Inox 1.4301", "steel"), kind="I", dims=W14X48)
+    _column(b, "edelstahl", _material(b, "Edelstahl rostfrei"), kind="I", dims=W14X48)
+    _column(b, "steel", _material(b, "Steel"), kind="I", dims=W14X48)
+    members = read_columns(b.model, default_grade="A992").members
+    r = check_members(members)
+    got = {str(n): (str(s), why) for n, s, why in zip(members.name, r.status, r.reason,
+                                                      strict=True)}
+    for name in ("stainless", "inox", "edelstahl"):
+        assert got[name] == (NOT_CHECKED,
+                             "stainless steel: designed to AISC 370, not checked here"), name
+        i = list(members.name).index(name)
+        assert members.extra["fy_source"][i] != "default_grade"
+    assert got["steel"] == (PASS, None)

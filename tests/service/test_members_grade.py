@@ -138,3 +138,13 @@ def test_catalog_tube_thickness_band_uses_its_nominal_wall():
     rows, req = _report({"section": "HSS8X8X1/2", "grade": "S355J2H"})
     assert members_from_request(req).Fy[0] == pytest.approx(355.0 * 0.1450377, rel=1e-6)
     assert any("t = 12.7 mm <= 40 mm" in s for s in rows["M0"]["messages"])
+
+
+def test_stainless_grade_is_not_checked_even_with_fy():
+    # Review item 2: stainless steel is designed to AISC 370, not AISC 360-22 (from memory);
+    # an fy given does not make it checkable here.
+    rows, _ = _report({"section": "HSS8X8X1/4", "fy": 30, "grade": "Stainless 316L"},
+                      {"section": "HSS8X8X1/4", "fy": 50})
+    assert rows["M0"]["status"] == "not_checked"
+    assert rows["M0"]["reason"] == "stainless steel: designed to AISC 370, not checked here"
+    assert rows["M1"]["available_strength"] == pytest.approx(CATALOG_PHI_PN, abs=0.1)
