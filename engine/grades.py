@@ -36,6 +36,10 @@ class Grade:
         bands_mpa: ((t_max_mm, fy_MPa), ...) thickness bands (EN grades).
         yields_to: rows that, found in the same text, replace this one (a grade written
             without its standard, ``"Grade 350"``, gives way to ``"AS/NZS 3679.1 350"``).
+        tie_to_thicker: a thickness exactly at a band boundary takes the thicker band (the
+            lower value) -- for standards whose boundary wording (``< 11`` / ``>= 11`` or
+            ``<= 11`` / ``> 11``) is recalled, not read (docs/design.md §8); otherwise the
+            band is ``t <= t_max`` as EN 1993-1-1 Table 3.1 writes it.
     """
 
     name: str
@@ -46,6 +50,7 @@ class Grade:
     fy_rect: float | None = None
     bands_mpa: tuple[tuple[float, float], ...] = ()
     yields_to: tuple[str, ...] = ()
+    tie_to_thicker: bool = False
 
 
 KSI_PER_MPA = factor("megapascal", "ksi")
@@ -129,23 +134,27 @@ GRADES: tuple[Grade, ...] = (
           bands_mpa=_S460_EN10025_2),
     Grade("AS/NZS 3679.1 Grade 300", rf"\b300\s?PLUS\b|{_AS}.*\b300{_AS_SUFFIX}\b",
           "AS/NZS 3679.1:2016 Table 2 Grade 300 (from memory; AS 4100 Table 2.1): fy = "
-          "320 / 300 / 280 MPa for t <= 11 / 17 / over 17 mm", bands_mpa=_AS_300),
+          "320 / 300 / 280 MPa for t <= 11 / 17 / over 17 mm; t at a boundary: the thicker "
+          "band", bands_mpa=_AS_300, tie_to_thicker=True),
     Grade("AS/NZS 3679.1 Grade 350", rf"\b350\s?PLUS\b|{_AS}.*\b350{_AS_SUFFIX}\b",
           "AS/NZS 3679.1:2016 Table 2 Grade 350 (from memory; AS 4100 Table 2.1): fy = "
-          "360 / 340 / 330 MPa for t <= 11 / 40 / over 40 mm", bands_mpa=_AS_350),
+          "360 / 340 / 330 MPa for t <= 11 / 40 / over 40 mm; t at a boundary: the thicker "
+          "band", bands_mpa=_AS_350, tie_to_thicker=True),
     # "Grade 300" / "G350" without the standard: AS/NZS 3679.1 sections, but CSA G40.21
     # 300W / 350W and AS/NZS 1163 C350 hollow sections are 300 / 350 MPa at every thickness,
     # so the lower of the readings is used.
     Grade("Grade 300", _grade_word(300),
           "lower of AS/NZS 3679.1:2016 Grade 300 (from memory: 320 / 300 / 280 MPa for "
           "t <= 11 / 17 / over 17 mm) and a flat 300 MPa (CSA G40.21 300W): 300 / 280 MPa "
-          "for t <= 17 / over 17 mm", bands_mpa=((17.0, 300.0), (80.0, 280.0)),
+          "for t <= 17 / over 17 mm; t at a boundary: the thicker band",
+          bands_mpa=((17.0, 300.0), (80.0, 280.0)), tie_to_thicker=True,
           yields_to=("AS/NZS 3679.1 Grade 300", "CSA G40.21 300W")),
     Grade("Grade 350", _grade_word(350),
           "lower of AS/NZS 3679.1:2016 Grade 350 (from memory: 360 / 340 / 330 MPa for "
           "t <= 11 / 40 / over 40 mm) and a flat 350 MPa (AS/NZS 1163 C350, CSA G40.21 "
-          "350W): 350 / 340 / 330 MPa for t <= 11 / 40 / over 40 mm",
-          bands_mpa=((11.0, 350.0), (40.0, 340.0), (80.0, 330.0)),
+          "350W): 350 / 340 / 330 MPa for t <= 11 / 40 / over 40 mm; t at a boundary: the "
+          "thicker band", bands_mpa=((11.0, 350.0), (40.0, 340.0), (80.0, 330.0)),
+          tie_to_thicker=True,
           yields_to=("AS/NZS 3679.1 Grade 350", "CSA G40.21 350W", "AS/NZS 1163 C350")),
     Grade("AS/NZS 1163 C350", r"\bC\s?350\s?L(?:0|15)\b",
           "AS/NZS 1163:2016 C350L0 / C350L15 (from memory; AS 4100 Table 2.1): fy = 350 MPa",
@@ -155,8 +164,8 @@ GRADES: tuple[Grade, ...] = (
           fy=450.0 * KSI_PER_MPA),
     Grade("CSA G40.21 350W", r"\b350\s?WT?\b",
           "CSA G40.21 350W / 350WT (from memory; CISC Handbook of Steel Construction): "
-          "Fy = 350 MPa, 320 MPa for plates and bars over 65 mm",
-          bands_mpa=((65.0, 350.0), (80.0, 320.0))),
+          "Fy = 350 MPa, 320 MPa for plates and bars over 65 mm; t = 65 mm: 320 MPa",
+          bands_mpa=((65.0, 350.0), (80.0, 320.0)), tie_to_thicker=True),
     Grade("CSA G40.21 300W", r"\b300\s?WT?\b",
           "CSA G40.21 300W (from memory; CISC Handbook of Steel Construction): Fy = 300 MPa; "
           "not read over 65 mm (the thick value is not recalled)",

@@ -136,9 +136,16 @@ def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm:
         return fy_mpa * KSI_PER_MPA, (f"element thickness unknown: the lowest value of the "
                                       f"bands, t <= {min(t_max, max_mm):.0f} mm, assumed")
     t_mm = thickness_in * _MM_PER_IN
-    for t_max, fy_mpa in grade.bands_mpa:
-        if t_mm <= t_max and t_mm <= max_mm:
+    last = len(grade.bands_mpa) - 1
+    for k, (t_max, fy_mpa) in enumerate(grade.bands_mpa):
+        # A tie at a boundary whose wording is not certain goes to the thicker band
+        # (Grade.tie_to_thicker; 1e-6 mm absorbs the inch round trip of 11 mm).
+        tie = grade.tie_to_thicker and k < last and abs(t_mm - t_max) <= 1e-6
+        if t_mm <= t_max + 1e-6 and not tie and t_mm <= max_mm + 1e-6:
             text = f"t = {t_mm:.1f} mm <= {t_max:.0f} mm"
+            below = grade.bands_mpa[k - 1][0] if k > 0 else -1.0
+            if grade.tie_to_thicker and abs(t_mm - below) <= 1e-6:
+                text += f" (at the {below:.0f} mm boundary: the thicker band)"
             return fy_mpa * KSI_PER_MPA, text
     top = min(grade.bands_mpa[-1][0], max_mm)
     return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {top:.0f} mm"

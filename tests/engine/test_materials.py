@@ -425,3 +425,37 @@ def test_label_after_one_stress_leaves_the_other():
     # a single-letter label after a stress belongs to the next one: 355 MPa stays Fy
     found, _ = match_grade("Steel 355 MPa, E 210000 MPa", "I", 0.5)
     assert found.fy == pytest.approx(355.0 * KSI_PER_MPA)
+
+
+MM = 1 / 25.4  # in per mm (exact)
+
+
+@pytest.mark.parametrize(
+    ("text", "t_mm", "expected_mpa"),
+    [
+        # AS/NZS 3679.1:2016 Table 2 (from memory; AS 4100 Table 2.1): Grade 300 320 / 300 /
+        # 280 MPa, Grade 350 360 / 340 / 330 MPa; whether the printed boundary reads "< 11 /
+        # >= 11" or "<= 11 / > 11" is recalled, not read: a tie takes the thicker band
+        # (the lower value; docs/design.md §8).  Review item 3: 11.0 mm gave 320 MPa.
+        ("300PLUS", 11.0, 300.0), ("300PLUS", 10.9, 320.0), ("300PLUS", 17.0, 280.0),
+        ("AS/NZS 3679.1 Grade 350", 11.0, 340.0), ("AS/NZS 3679.1-350", 40.0, 330.0),
+        # the rows derived from it (lower of AS/NZS 3679.1 and a flat value) likewise
+        ("Grade 300", 17.0, 280.0), ("Grade 350", 11.0, 340.0), ("G350", 40.0, 330.0),
+        # CSA G40.21 350W (from memory): 320 MPa over 65 mm; at 65 mm the thicker band
+        ("350W", 65.0, 320.0),
+        # the last band keeps its top: AS/NZS 3679.1 read here to 80 mm
+        ("300PLUS", 80.0, 280.0),
+        # EN 1993-1-1:2005 Table 3.1 writes "t <= 40 mm" / "40 mm < t <= 80 mm": certain,
+        # 40 mm stays in the first band
+        ("S355", 40.0, 355.0),
+    ],
+)
+def test_band_boundary_ties(text, t_mm, expected_mpa):
+    found, _ = match_grade(text, "I", t_mm * MM)
+    assert found is not None, text
+    assert found.fy == pytest.approx(expected_mpa * KSI_PER_MPA)
+
+
+def test_band_boundary_tie_is_said():
+    found, _ = match_grade("300PLUS", "I", 11.0 * MM)
+    assert "at the 11 mm boundary: the thicker band" in found.note
