@@ -9,9 +9,11 @@ Yield stress by grade: the rows of :data:`stanchion.engine.grades.GRADES`, each 
 material specification that fixes the value; grades with thickness bands (EN, AS/NZS, JIS,
 GB/T ...) are read at t, the thickest element of the section (:func:`band_thickness`);
 Table 3.1 of EN 1993-1-1:2005 gives EN 10219 (cold-formed hollow sections) values for
-t <= 40 mm only.  Thicker elements get no value (the member is not checked); an element
-thickness not known gives the lowest value of the bands (conservative).  A name that
-states a stress instead (``"Metal - Steel - 345 MPa"``) gives that stress, with a note.
+t <= 40 mm only, EN 10210 (hot-finished) for t <= 65 mm (40 < t <= 65 mm the second band;
+from memory), as for any hollow section of an EN grade.  Thicker elements get no value
+(the member is not checked); an element thickness not known gives the lowest value of the
+bands (conservative).  A name that states a stress instead (``"Metal - Steel - 345 MPa"``)
+gives that stress, with a note.
 
 Matching is on the upper-cased name, e.g. ``"ASTM A992"``, ``"A572 Gr. 50"``, ``"A572-50"``,
 ``"A500 Grade C"``, ``"S355JR"``, ``"EN 10025-2 S275J0"``, ``"S355J2H EN 10210"``.  A grade
@@ -63,7 +65,7 @@ STANDARDS: tuple[Standard, ...] = (
     Standard("ASTM A53", r"\bA\s?53M?\b", tube="erw"),
     Standard("ASTM A1085", r"\bA\s?1085M?\b", tube="nominal"),
     Standard("ASTM A1065", r"\bA\s?1065M?\b", tube="nominal"),
-    Standard("EN 10210", r"\bEN\s?10210(?:-[12])?\b", tube="nominal"),
+    Standard("EN 10210", r"\bEN\s?10210(?:-[12])?\b", tube="nominal", max_en_thickness_mm=65.0),
     Standard("EN 10219", r"\bEN\s?10219(?:-[12])?\b", tube="nominal", max_en_thickness_mm=40.0),
     Standard("EN 10025", r"\bEN\s?10025(?:-[1-6])?\b"),
     # A hollow-section grade (EN 10210 / EN 10219 name their grades with a final H, e.g.
@@ -76,6 +78,10 @@ STANDARDS: tuple[Standard, ...] = (
 _COMPILED = tuple((g, re.compile(g.pattern)) for g in GRADES)
 _COMPILED_STANDARDS = tuple((s, re.compile(s.pattern)) for s in STANDARDS)
 _STANDARD_BY_NAME = {s.name: s for s in STANDARDS}
+#: EN 1993-1-1:2005 Table 3.1, hollow sections (EN 10210-1): t <= 40 mm and 40 < t <= 65 mm
+#: (from memory); a tube of an EN grade is read no thicker, whatever standard is named.
+EN_HOLLOW_MAX_MM = 65.0
+_TUBE_FAMILIES = ("HSS", *ROUND_FAMILIES)
 _MM_PER_IN = factor("inch", "millimeter")
 
 
@@ -148,7 +154,9 @@ def _value(grade: Grade, family: str | None, thickness_in: float | None, max_mm:
                 text += f" (at the {below:.0f} mm boundary: the thicker band)"
             return fy_mpa * KSI_PER_MPA, text
     top = min(grade.bands_mpa[-1][0], max_mm)
-    return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {top:.0f} mm"
+    why = (" (EN 1993-1-1 Table 3.1 gives these hollow sections no value "
+           f"over {max_mm:.0f} mm)" if max_mm < grade.bands_mpa[-1][0] else "")
+    return None, f"{grade.name}: no value for t = {t_mm:.1f} mm > {top:.0f} mm{why}"
 
 
 def band_thickness(form: Literal["solid_rect", "solid_round", "walls"],
@@ -187,7 +195,8 @@ def match_grade(
 
     Returns:
         (match or None, notes).  Notes explain a grade that was recognised but gave no
-        value (A500 on a W shape, EN grade over 80 mm, EN 10219 over 40 mm), a stress not
+        value (A500 on a W shape, EN grade over 80 mm, EN hollow sections over 65 mm,
+        EN 10219 over 40 mm), a stress not
         read, or several conflicting grades.
     """
     if not text:
@@ -202,7 +211,9 @@ def match_grade(
     for grade in hits:
         if names.intersection(grade.yields_to):
             continue  # the same grade, named with its standard
-        fy, detail = _value(grade, family, thickness_in, max_mm)
+        hollow = family in _TUBE_FAMILIES and grade.name.startswith("EN S")
+        fy, detail = _value(grade, family, thickness_in,
+                            min(max_mm, EN_HOLLOW_MAX_MM) if hollow else max_mm)
         if fy is None:
             notes.append(f"material grade {grade.name} recognised but {detail}")
             continue

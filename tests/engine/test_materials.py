@@ -92,7 +92,7 @@ def test_dual_grade_uses_the_lowest():
     ("text", "family", "thickness", "expected"),
     [
         ("A500 Gr C", "PIPE", 0.3, 46.0),  # ASTM A500/A500M Grade C, round
-        ("S355J2H EN 10210", "HSS", 2.0, 335.0 * KSI_PER_MPA),  # Table 3.1, 40 < t <= 80 mm
+        ("S355J2H EN 10210", "HSS", 2.0, 335.0 * KSI_PER_MPA),  # Table 3.1, 40 < t <= 65 mm
         ("S355J2H EN 10219", "HSS", 1.0, 355.0 * KSI_PER_MPA),  # Table 3.1, t <= 40 mm
     ],
 )
@@ -100,6 +100,28 @@ def test_grade_values_of_tubes(text, family, thickness, expected):
     found, _ = match_grade(text, family, thickness)
     assert found is not None
     assert found.fy == pytest.approx(expected)
+
+
+@pytest.mark.parametrize(
+    ("text", "family", "t_mm", "expected_mpa"),
+    [
+        # EN 1993-1-1:2005 Table 3.1, hollow sections (EN 10210-1): t <= 40 mm and
+        # 40 < t <= 65 mm (from memory): S355H 355 / 335 MPa; over 65 mm no value.
+        ("S355J2H EN 10210", "HSS", 65.0, 335.0), ("S355J2H EN 10210", "HSS", 66.0, None),
+        ("S355J2H EN 10210", "HSS_ROUND", 70.0, None), ("S275 EN 10210", "HSS", 50.0, 255.0),
+        # a tube of an EN grade whose standard is not named: the hollow-section rows too
+        ("S355", "HSS", 70.0, None), ("S355", "PIPE", 60.0, 335.0),
+        # an open section keeps the 80 mm of Table 3.1's EN 10025 rows
+        ("S355", "I", 70.0, 335.0),
+    ],
+)
+def test_en_hollow_sections_stop_at_65_mm(text, family, t_mm, expected_mpa):
+    found, notes = match_grade(text, family, t_mm / 25.4)
+    if expected_mpa is None:
+        assert found is None
+        assert "> 65 mm" in notes[0] and "hollow sections" in notes[0]
+    else:
+        assert found.fy == pytest.approx(expected_mpa * KSI_PER_MPA)
 
 
 def test_en_10219_tube_over_40_mm_has_no_value():
@@ -147,7 +169,7 @@ def test_tube_standards_have_a_wall_rule():
 
 def test_hollow_section_grade_without_its_standard_stops_at_40_mm():
     # EN 1993-1-1:2005 Table 3.1: EN 10219 values only for t <= 40 mm; EN 10210 goes to
-    # 80 mm, but the grade alone does not say which, so the conservative reading is used
+    # 65 mm, but the grade alone does not say which, so the conservative reading is used
     found, notes = match_grade("S355J2H", "HSS", 2.0)  # 50.8 mm
     assert found is None and "> 40 mm" in notes[0]
     found, _ = match_grade("S355J2H", "HSS", 1.0)  # 25.4 mm
