@@ -105,3 +105,19 @@ def test_every_design_section_cited_exists(files: list[Path]) -> None:
     ]
     assert not wrong, (f"sections cited but not in {DESIGN} (it has "
                        f"{sorted(sections)}):\n" + "\n".join(wrong))
+
+
+def test_takedown_says_what_it_does_not_model() -> None:
+    # Review item 5: the load takedown reads slabs and columns only; framing, façade and
+    # partition weights must go into the superimposed D, and the design document and the
+    # shipped example say so (edge columns under a façade are otherwise under-loaded).
+    design = (ROOT / DESIGN).read_text(encoding="utf-8")
+    section = design.split("### Load takedown", 1)[1].split("\n### ", 1)[0]
+    flat = " ".join(section.split())
+    for words in ("beams, girders", "façades and cladding", "partitions",
+                  "superimposed D", "edge and corner columns under a façade are under-loaded"):
+        assert words in flat, words
+    example = (ROOT / "sample_models" / "takedown_example.toml").read_text(encoding="utf-8")
+    flat = " ".join(example.split())
+    for words in ("beams and girders", "façade", "partitions", "superimposed D"):
+        assert words in flat, words

