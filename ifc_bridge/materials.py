@@ -367,8 +367,8 @@ def ungraded_steel(info: MaterialInfo, grade_texts: tuple[str, ...] = ()) -> str
     return None
 
 
-def assumed_grade(default_grade: str, family: str | None, thickness: float | None
-                  ) -> tuple[float | None, list[str]]:
+def assumed_grade(default_grade: str, family: str | None, thickness: float | None,
+                  option: str = "--default-grade") -> tuple[float | None, list[str]]:
     """Fy (ksi) from ``--default-grade`` for a material that names steel but no grade.
 
     Args:
@@ -376,6 +376,8 @@ def assumed_grade(default_grade: str, family: str | None, thickness: float | Non
             :func:`engine.materials.names_grade`).
         family: the profile family.
         thickness: the section's thickest element, in (grades with bands).
+        option: how the notes name where the grade was given (``--default-grade``, or a
+            front end's own words such as ``the job's default_grade``).
 
     Returns:
         (Fy or None, notes): the note states the assumption; None when the grade gives no
@@ -383,9 +385,9 @@ def assumed_grade(default_grade: str, family: str | None, thickness: float | Non
     """
     found, notes = match_grade(default_grade, family, thickness)
     if found is None:
-        return None, [f"--default-grade {default_grade} gives no yield stress for this "
+        return None, [f"{option} {default_grade} gives no yield stress for this "
                       f"member{': ' + '; '.join(notes) if notes else ''}"]
-    return found.fy, [f"Fy = {found.fy:.4g} ksi from --default-grade {default_grade} "
+    return found.fy, [f"Fy = {found.fy:.4g} ksi from {option} {default_grade} "
                       f"(assumed: the material names no grade; {found.grade.source})"]
 
 

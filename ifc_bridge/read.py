@@ -96,6 +96,8 @@ class ReadResult:
         unit_names: human names of the model units (or the assumed SI unit).
         unit_given: quantity -> the unit given apart (``--force-unit``) that quantity was
             read in, for a model that declares none.
+        unit_given_as: where that unit was given (``on the command line (--force-unit)``;
+            :attr:`ifc_bridge.units.GivenUnit.given_as`).
     """
 
     members: MemberTable
@@ -106,6 +108,7 @@ class ReadResult:
     schema: str = ""
     unit_names: dict[str, str] = field(default_factory=dict)
     unit_given: dict[str, str] = field(default_factory=dict)
+    unit_given_as: str = "on the command line (--force-unit)"
 
 
 @dataclass
@@ -138,10 +141,12 @@ class _Reader:
     """State shared while reading one model."""
 
     def __init__(self, model: ifcopenshell.file, units: ModelUnits,
-                 default_grade: str | None = None) -> None:
+                 default_grade: str | None = None,
+                 default_grade_option: str = "--default-grade") -> None:
         self.model = model
         self.units = units
         self.default_grade = default_grade  # --default-grade, for steel naming no grade
+        self.default_grade_option = default_grade_option  # how the messages name it
         self.index = RelationIndex.build(model)
         self.shapes = ShapeReader()
         self.placements = PlanPositions()
@@ -326,7 +331,8 @@ class _Reader:
             notes.append(found.note)
             return found.fy, "grade", notes
         if self.default_grade and self.ungraded_steel(row) is not None:
-            value, dnotes = assumed_grade(self.default_grade, family, thickness)
+            value, dnotes = assumed_grade(self.default_grade, family, thickness,
+                                          self.default_grade_option)
             notes.extend(dnotes)
             if value is not None:
                 return value, "default_grade", notes
@@ -396,7 +402,7 @@ class _Columns:
         notes.extend(fnotes)
         self.fy[i] = value
         if fy_source == "none" and not broken:
-            why.append(_no_yield_reason(reader.ungraded_steel(r)))
+            why.append(_no_yield_reason(reader.ungraded_steel(r), reader.default_grade_option))
         self.length[i] = r.length
         for a in AXES:
             self.k[a][i] = r.design.k.get(a, 1.0)
@@ -443,11 +449,16 @@ class _Columns:
                 for key in EXTRA_COLUMNS}
 
 
-def _no_yield_reason(steel: str | None) -> str:
-    """Why a member has no yield stress, naming a steel material that names no grade."""
+def _no_yield_reason(steel: str | None, option: str = "--default-grade") -> str:
+    """Why a member has no yield stress, naming a steel material that names no grade.
+
+    Args:
+        steel: the name of the member's steel material that names no grade, or None.
+        option: how the reason names the default grade's option (``--default-grade``).
+    """
     if steel is not None:
         return (f"{NO_YIELD}: material '{steel}' names no grade (no Stanchion_Design."
-                "YieldStress, no material yield stress or grade property; --default-grade "
+                f"YieldStress, no material yield stress or grade property; {option} "
                 "would assume one)")
     return (f"{NO_YIELD} (no Stanchion_Design.YieldStress, no material yield stress and no "
             "recognised grade in the material name)")
@@ -519,6 +530,7 @@ def read_columns(
     analysis_members: bool = False,
     force_unit: GivenUnit | None = None,
     default_grade: str | None = None,
+    default_grade_option: str = "--default-grade",
 ) -> ReadResult:
     """Read every column of an IFC2X3 / IFC4 / IFC4X3 model into a member table.
 
@@ -537,6 +549,8 @@ def read_columns(
         default_grade: the grade assumed for members whose materials name steel but no
             grade (``--default-grade``; :func:`ifc_bridge.materials.assumed_grade`); never
             for members without a material.
+        default_grade_option: how the messages name where the default grade was given
+            (``--default-grade``, or a front end's words such as ``the job's default_grade``).
 
     Returns:
         :class:`ReadResult`.
@@ -555,7 +569,7 @@ def read_columns(
     gc.disable()
     try:
         return _read(model, include_members, loads_table, analysis_members, force_unit,
-                     default_grade)
+                     default_grade, default_grade_option)
     finally:
         if was_enabled:
             gc.enable()
@@ -582,7 +596,8 @@ def _unitless_table_message(table: LoadTable) -> str:
     kinds = [k for k in LOAD_TYPES if k in table.to_kip and table.to_kip[k] is None]
     return (f"load table {table.label}: column(s) {', '.join(kinds)} name no unit and the "
             "model declares no force unit; units are never guessed: write the unit in the "
-            f"header ('{kinds[0]} [kN]') or give --force-unit")
+            f"header ('{kinds[0]} [kN]') or give --force-unit (an HTTP job's force_unit "
+            "field)")
 
 
 def _name_grid_locations(model: ifcopenshell.file, index: RelationIndex, rows: list[_Row],
@@ -598,12 +613,12 @@ def _name_grid_locations(model: ifcopenshell.file, index: RelationIndex, rows: l
 
 def _read(model: ifcopenshell.file, include_members: bool,
           table: LoadTable | None, analysis_members: bool = False,
-          force_unit: GivenUnit | None = None, default_grade: str | None = None
-          ) -> ReadResult:
+          force_unit: GivenUnit | None = None, default_grade: str | None = None,
+          default_grade_option: str = "--default-grade") -> ReadResult:
     units = read_units(model, force_unit)
     if table is not None and table.uses_model_unit and not units.declared["force"]:
         raise ModelReadError(_unitless_table_message(table))
-    reader = _Reader(model, units, default_grade)
+    reader = _Reader(model, units, default_grade, default_grade_option)
     elements = select_elements(model, reader.index, include_members)
     messages = [m for m in [skipped_members(model, reader.index)] if m] if include_members else []
     if analysis_members or not elements:
@@ -665,4 +680,5 @@ def _read(model: ifcopenshell.file, include_members: bool,
         length_unit_factor=units.length, pressure_unit_factor=units.pressure,
         schema=model.schema_identifier if hasattr(model, "schema_identifier") else model.schema,
         unit_names=dict(units.names), unit_given=dict(units.given),
+        unit_given_as=units.given_as,
     )

@@ -59,10 +59,20 @@ class GivenUnit(NamedTuple):
     Attributes:
         name: as the user wrote it (``kN``, ``kip``).
         to_kip: multiplier, that unit -> kip.
+        option: how the messages name where it was given: the command line's option
+            (``--force-unit``) or a front end's own words (``the job's force_unit``).
     """
 
     name: str
     to_kip: float
+    option: str = "--force-unit"
+
+    @property
+    def given_as(self) -> str:
+        """Where it was given: ``on the command line (--force-unit)``, else ``with OPTION``."""
+        if self.option.startswith("--"):
+            return f"on the command line ({self.option})"
+        return f"with {self.option}"
 
 
 def _unit_name(unit: Entity) -> str:
@@ -107,6 +117,7 @@ class ModelUnits:
         warnings: model-level warnings recorded by :meth:`note_use` (each once).
         given: quantity -> the unit given apart (``--force-unit``) it is read in, for a
             quantity the model does not declare.
+        given_as: where that unit was given (:attr:`GivenUnit.given_as`), for the messages.
     """
 
     length: float
@@ -116,6 +127,7 @@ class ModelUnits:
     declared: dict[str, bool]
     warnings: list[str] = field(default_factory=list)
     given: dict[str, str] = field(default_factory=dict)
+    given_as: str = "on the command line (--force-unit)"
     _warned: set[str] = field(default_factory=set, repr=False)
     _told: set[str] = field(default_factory=set, repr=False)
 
@@ -140,8 +152,8 @@ class ModelUnits:
                 self._told.add(quantity)
                 self.warnings.append(
                     f"model declares no {quantity} unit; its {quantity}s are read in {unit}, "
-                    "the unit given on the command line (--force-unit)")
-            return f"{quantity} read in {unit}, given on the command line (--force-unit)"
+                    f"the unit given {self.given_as}")
+            return f"{quantity} read in {unit}, given {self.given_as}"
         self._warned.add(quantity)  # refused: see refusal()
         return f"{quantity} read in an undeclared unit"
 
@@ -242,9 +254,10 @@ def read_units(model: ifcopenshell.file, force: GivenUnit | None = None) -> Mode
     if force is not None and declared["force"]:
         units.warnings.append(
             f"the model declares its force unit ({names['force']}): its forces are read in "
-            f"it, not in {force.name} (--force-unit)")
+            f"it, not in {force.name} ({force.option})")
     elif force is not None:
         units.force = force.to_kip
-        units.names["force"] = f"{force.name} (--force-unit)"
+        units.names["force"] = f"{force.name} ({force.option})"
         units.given["force"] = force.name
+        units.given_as = force.given_as
     return units

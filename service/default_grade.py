@@ -39,24 +39,27 @@ def given_default_grade(grade: str | None, option: str = "--default-grade") -> s
     return text
 
 
-def state_default_grade(report: dict[str, Any], members: MemberTable, grade: str) -> None:
+def state_default_grade(report: dict[str, Any], members: MemberTable, grade: str,
+                        option: str = "--default-grade") -> None:
     """Add the run message and, when it was used, the design-basis clause of the assumption.
 
     Args:
         report: the report being built (``messages``, ``design_basis``).
         members: the member table read (``extra["fy_source"]``).
         grade: the ``--default-grade`` given.
+        option: how the messages name the option (``--default-grade``, or a front end's
+            words such as ``the job's default_grade``).
     """
     sources = members.extra.get("fy_source")
     used = 0 if sources is None else sum(1 for s in sources.tolist() if s == DEFAULT_GRADE_SOURCE)
     if not used:
         report["messages"].append(
-            f"--default-grade {grade} was not used: no member's material names steel "
+            f"{option} {grade} was not used: no member's material names steel "
             "without a grade")
         return
     report["messages"].append(
-        f"--default-grade {grade} assumed for {used} member(s) whose material names steel "
+        f"{option} {grade} assumed for {used} member(s) whose material names steel "
         "but no grade (each member's messages give its Fy); members without a material are "
         "never assumed steel")
     report["design_basis"] = (f"{report['design_basis']}; Fy of steel naming no grade "
-                              f"assumed from --default-grade {grade}")
+                              f"assumed from {option} {grade}")

@@ -88,8 +88,11 @@ def _read(path: Path, options: CheckOptions, problems: list[Damage] | None = Non
         return model, read_columns(model, include_members=options.include_members,
                                    loads_table=table,
                                    analysis_members=options.analysis_members,
-                                   force_unit=GivenUnit(*given) if given else None,
-                                   default_grade=options.default_grade)
+                                   force_unit=GivenUnit(
+                                       *given, options.option_name("--force-unit"))
+                                   if given else None,
+                                   default_grade=options.default_grade,
+                                   default_grade_option=options.option_name("--default-grade"))
     except ModelReadError as exc:
         raise InputError(str(exc)) from None
 
@@ -183,7 +186,8 @@ def check_model(path: Path, options: CheckOptions, progress: Progress) -> ModelC
     if applied is not None:
         report_fields(applied, report["members"], report["units"]["length"])
     if options.default_grade:
-        state_default_grade(report, members, options.default_grade)
+        state_default_grade(report, members, options.default_grade,
+                            options.option_name("--default-grade"))
     report["source"] = {
         "file": options.source_name or path.name,
         "schema": model.schema_identifier,
@@ -220,7 +224,7 @@ def write_checked_model(run: ModelCheck, out: Path,
             suggested={i: (s[0]["section"], s[0]["utilization"])
                        for i, s in run.suggestions.items() if s})
     if summary.added_force_unit:
-        given = (" (the unit given on the command line, --force-unit)"
+        given = (f", the unit given {run.read.unit_given_as},"
                  if run.read.unit_given.get("force") else "")
         report["messages"].append(
             f"the model declared no force unit; {summary.force_unit}{given} was added to "

@@ -122,6 +122,19 @@ class CheckOptions(BaseModel):
         "now", description="CheckedAt written into a checked model; None: not written")
     source_name: str | None = Field(
         None, description="the input's name in the report (default: the file's name)")
+    front_end: Literal["command line", "HTTP job"] = Field(
+        "command line", description="the front end whose names the messages give an "
+        "option by (--force-unit on the command line, the job's force_unit field over HTTP)")
+
+    def option_name(self, option: str) -> str:
+        """How the messages name an option: ``--force-unit``, or ``the job's force_unit``.
+
+        Args:
+            option: the command line's spelling (``--force-unit``).
+        """
+        if self.front_end == "command line":
+            return option
+        return f"the job's {option.removeprefix('--').replace('-', '_')}"
 
 
 class OutputPaths(BaseModel):

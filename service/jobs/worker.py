@@ -104,7 +104,7 @@ def run_job(job_dir: Path, check: CheckModel | None = None) -> dict[str, Any]:
                                force_unit=params.get("force_unit"),
                                default_grade=params.get("default_grade"),
                                analysis_members=bool(params.get("analysis_members", False)),
-                               source_name=names[params["model"]])
+                               source_name=names[params["model"]], front_end="HTTP job")
         outputs = OutputPaths(model=job_dir / MODEL_OUT_FILE, report=job_dir / REPORT_FILE,
                               csv=job_dir / CSV_FILE, junit=job_dir / JUNIT_FILE,
                               bcf=job_dir / BCF_FILE, html=job_dir / HTML_FILE)

@@ -128,3 +128,11 @@ def test_the_front_ends_call_the_pipeline(tmp_path: Path, monkeypatch) -> None:
                                               "design_method": "LRFD", "loads": None}))
     assert worker.run_job(job)["status"] == "done"
     assert calls == [".json", ".ifc", ".ifc"]
+
+
+def test_messages_name_an_option_as_the_front_end_does() -> None:
+    # the command line names its option; an HTTP job names its form field (docs/design.md §6)
+    assert CheckOptions().option_name("--force-unit") == "--force-unit"
+    http = CheckOptions(front_end="HTTP job")
+    assert http.option_name("--force-unit") == "the job's force_unit"
+    assert http.option_name("--default-grade") == "the job's default_grade"

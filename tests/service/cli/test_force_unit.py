@@ -103,7 +103,7 @@ def test_a_model_without_a_force_unit_is_read_in_the_given_unit(tmp_path, capsys
     note = "force read in kN, given on the command line (--force-unit)"
     assert all(note in m["messages"] for m in body["members"])
     assert csv.read_text().count(note) == 2 and junit.read_text().count(note) == 2
-    assert any("KILO NEWTON (the unit given on the command line, --force-unit) was added"
+    assert any("KILO NEWTON, the unit given on the command line (--force-unit), was added"
                in m for m in body["messages"])
     checked = ifcopenshell.open(str(out))
     unit = ifcopenshell.util.unit.get_project_unit(checked, "FORCEUNIT")

@@ -13,7 +13,7 @@ from fastapi.testclient import TestClient
 
 from stanchion.service.http.app import create_app
 from stanchion.service.http.settings import Settings
-from tests.service.cli.test_default_grade import ASSUMED, _model
+from tests.service.cli.test_default_grade import _model
 from tests.service.http.test_app import _wait
 
 
@@ -34,8 +34,14 @@ def test_the_default_grade_is_applied_and_stated(client: TestClient, tmp_path) -
     report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
     c1 = next(m for m in report["members"] if m["name"] == "C1")
     assert c1["fy_source"] == "default_grade"
-    assert any(m.startswith(ASSUMED) for m in c1["messages"])
-    assert report["design_basis"].endswith("assumed from --default-grade A992")
+    # over HTTP the grade came from the job's field: the outputs name it, not the option
+    assert report["design_basis"].endswith("assumed from the job's default_grade A992")
+    assert any(m.startswith("the job's default_grade A992 assumed for") for m in
+               report["messages"])
+    assert any("Fy = 50 ksi from the job's default_grade A992" in m for m in c1["messages"])
+    outputs = [str(report)] + [client.get(f"/v1/jobs/{job['job_id']}/{kind}").text
+                               for kind in ("csv", "junit", "html")]
+    assert not any("--default-grade" in text for text in outputs)
 
 
 def test_an_unknown_grade_is_422_naming_the_field(client: TestClient, tmp_path) -> None:

@@ -46,8 +46,14 @@ def test_the_given_force_unit_reads_the_models_forces(client: TestClient, model)
     # φcPn = 303 kip (W14X48, Fy 50 ksi, Lc 16 ft: AISC Manual Table 4-1a, read-off)
     assert [m["utilization"] for m in report["members"]] == pytest.approx([31.47 / 303] * 2,
                                                                            rel=0.01)
-    assert any("read in kN, the unit given on the command line (--force-unit)" in m
+    # over HTTP the unit came from the job's field: the outputs name it, not the option
+    assert any("read in kN, the unit given with the job's force_unit" in m
                for m in report["messages"])
+    assert all("force read in kN, given with the job's force_unit" in m["messages"]
+               for m in report["members"])
+    outputs = [str(report)] + [client.get(f"/v1/jobs/{job['job_id']}/{kind}").text
+                               for kind in ("csv", "junit", "html")]
+    assert not any("--force-unit" in text or "command line" in text for text in outputs)
 
 
 def test_without_it_the_job_fails_naming_the_fix(client: TestClient, model) -> None:
