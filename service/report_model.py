@@ -246,6 +246,7 @@ class ChangeCounts(_Contract):
     new_failures: Count = Field(description="entries in new_failures")
     fixed: Count = Field(description="entries in fixed")
     new_not_checked: Count = Field(description="entries in new_not_checked")
+    new_skipped: Count = Field(description="entries in new_skipped")
     added: Count = Field(description="entries in added")
     removed: Count = Field(description="entries in removed")
     utilization_changes: Count = Field(description="entries in utilization_changes")
@@ -263,6 +264,9 @@ class Changes(_Contract):
     fixed: list[ChangeEntry] = Field(description="fail before, pass now")
     new_not_checked: list[ChangeEntry] = Field(description="not_checked now, not before "
                                                "(added members included)")
+    new_skipped: list[ChangeEntry] = Field(
+        description="skipped now (not steel) and pass, fail or not_checked before; one that "
+        "failed before is a regression for --fail-on new-failures, the others a warning")
     added: list[ChangeEntry] = Field(description="ids only in this report")
     removed: list[ChangeEntry] = Field(description="ids only in the baseline")
     utilization_changes: list[UtilizationChange] = Field(

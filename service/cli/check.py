@@ -4,8 +4,9 @@ Exit codes (docs/design.md §4): 0 every member passes; 1 any member fails or is
 (``--allow-not-checked``: not-checked members are warnings; ``--fail-on new-failures``: only
 regressions against ``--baseline`` count), and always 1 when no member got a verdict (a
 model of concrete columns only, every one skipped, included); skipped members (not steel)
-never count, whatever the options; 2
-unusable input (a model with no column included), one line on stderr, nothing written.
+never count, but for one that failed in the baseline under ``--fail-on new-failures``: a
+failure never vanishes by relabelling; 2 unusable input (a model with no column included),
+one line on stderr, nothing written.
 """
 
 from __future__ import annotations
@@ -41,7 +42,8 @@ def exit_code(report: dict[str, Any], allow_not_checked: bool = False, fail_on: 
     member fails or is not checked (not-checked members allowed on request), else 0;
     skipped members (not steel) never count.
     ``fail_on="new-failures"``: 1 only for regressions against the baseline
-    (``report["changes"]``): new failures, and newly not-checked members unless allowed.
+    (``report["changes"]``): new failures, members that failed in the baseline and are
+    skipped now (allowed or not), and newly not-checked members unless allowed.
     """
     if nothing_checked(report):
         return EXIT_FAILURES
@@ -179,7 +181,8 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
                       f"(absolute; default {DEFAULT_THRESHOLD})")
     gate.add_argument("--fail-on", choices=FAIL_ON, default="any",
                       help="any (default): exit 1 on any failing or not-checked member; "
-                      "new-failures: exit 1 only on regressions against --baseline")
+                      "new-failures: exit 1 only on regressions against --baseline (new "
+                      "failures, newly not checked, failing before and skipped now)")
     gate.add_argument("--allow-not-checked", action="store_true",
                       help="not-checked members are warnings, not failures (skipped, "
                       "non-steel members never are failures)")

@@ -6,9 +6,14 @@ report as ``changes``:
 - ``new_failures``: ``fail`` now and not ``fail`` before (an added member that fails counts);
 - ``fixed``: ``fail`` before, ``pass`` now;
 - ``new_not_checked``: ``not_checked`` now and not before (added members included);
-- ``skipped`` members (not steel) are never a regression: they enter no list but
+- ``new_skipped``: ``skipped`` now (not steel) and ``pass``, ``fail`` or ``not_checked``
+  before (a material renamed from steel to concrete, say).  One that *failed* before is a
+  regression (:func:`regressions`): a failure never vanishes by relabelling; one that passed
+  or was not checked before is a warning only.  Otherwise skipped members enter no list but
   ``added`` and ``removed`` (a member failing before and skipped now is not ``fixed``);
-- ``added`` / ``removed``: ids present on one side only;
+- ``added`` / ``removed``: ids present on one side only (a removed member is no
+  regression: it is no longer in the model to fail; an element whose id changed is
+  ``removed`` and ``added``, and the added one counts as a new failure when it fails);
 - ``utilization_changes``: members checked on both sides whose utilization moved by more than
   the threshold (an absolute difference: 0.05 is five percentage points).
 
@@ -110,7 +115,7 @@ def compare(baseline: dict, report: dict, threshold: float = DEFAULT_THRESHOLD,
     changes: dict = {
         "baseline": baseline_name,
         "threshold": threshold,
-        "new_failures": [], "fixed": [], "new_not_checked": [],
+        "new_failures": [], "fixed": [], "new_not_checked": [], "new_skipped": [],
         "added": [], "removed": [], "utilization_changes": [],
     }
     for ident, after in new.items():
@@ -123,6 +128,8 @@ def compare(baseline: dict, report: dict, threshold: float = DEFAULT_THRESHOLD,
             changes["new_failures"].append(_entry(ident, before, after))
         if s_after == "not_checked" and s_before != "not_checked":
             changes["new_not_checked"].append(_entry(ident, before, after))
+        if s_after == "skipped" and s_before not in (None, "skipped"):
+            changes["new_skipped"].append(_entry(ident, before, after))
         if s_before == "fail" and s_after == "pass":
             changes["fixed"].append(_entry(ident, before, after))
         if before is not None:
@@ -137,15 +144,52 @@ def compare(baseline: dict, report: dict, threshold: float = DEFAULT_THRESHOLD,
             "design_basis"):
         changes["design_basis_before"] = baseline["design_basis"]
     changes["counts"] = {k: len(changes[k]) for k in (
-        "new_failures", "fixed", "new_not_checked", "added", "removed",
+        "new_failures", "fixed", "new_not_checked", "new_skipped", "added", "removed",
         "utilization_changes")}
     return changes
 
 
+def failed_then_skipped(changes: dict) -> list[dict]:
+    """The ``new_skipped`` entries that failed in the baseline: regressions, always."""
+    return [e for e in changes["new_skipped"] if e["status_before"] == "fail"]
+
+
 def regressions(changes: dict, allow_not_checked: bool = False) -> int:
-    """How many members got worse: new failures, plus new not-checked unless allowed."""
-    n = len(changes["new_failures"])
+    """How many members got worse (docs/design.md §4).
+
+    New failures, members that failed in the baseline and are skipped now (whatever
+    ``allow_not_checked``), plus newly not-checked members unless allowed.
+    """
+    n = len(changes["new_failures"]) + len(failed_then_skipped(changes))
     return n if allow_not_checked else n + len(changes["new_not_checked"])
+
+
+def skipped_warnings(changes: dict, reasons: dict[str, str], limit: int = 10) -> list[str]:
+    """One line per ``new_skipped`` member (failed before first), for stderr.
+
+    Args:
+        changes: the comparison (:func:`compare`).
+        reasons: each member id's reason in this run's report (why it is skipped).
+        limit: lines at most; the rest are counted in one more line.
+    """
+    entries = sorted(changes["new_skipped"], key=lambda e: e["status_before"] != "fail")
+    lines = []
+    for e in entries[:limit]:
+        why = reasons.get(e["id"]) or "no reason given"
+        if e["status_before"] == "fail":
+            u = e["utilization_before"]
+            was = f"failed in the baseline (utilization {u:.3f})" if u is not None else (
+                "failed in the baseline")
+            tail = "; a regression against the baseline"
+        else:
+            was = ("passed in the baseline" if e["status_before"] == "pass"
+                   else "was not checked in the baseline")
+            tail = "; no longer checked"
+        lines.append(f"member {e['name']} ({e['id']}) {was} and is skipped now ({why}){tail}")
+    if len(entries) > limit:
+        lines.append(f"... and {len(entries) - limit} more members skipped now that were "
+                     "checked in the baseline (see the report's changes.new_skipped)")
+    return lines
 
 
 def format_changes(changes: dict, limit: int = 10) -> str:
@@ -154,7 +198,8 @@ def format_changes(changes: dict, limit: int = 10) -> str:
     lines = [
         f"changes against {changes.get('baseline') or 'the baseline'}: "
         f"{c['new_failures']} new failures, {c['fixed']} fixed, "
-        f"{c['new_not_checked']} newly not checked, {c['added']} added, "
+        f"{c['new_not_checked']} newly not checked, {c['new_skipped']} newly skipped, "
+        f"{c['added']} added, "
         f"{c['removed']} removed, {c['utilization_changes']} utilization changes "
         f"> {changes['threshold']:g}"
     ]
@@ -164,7 +209,8 @@ def format_changes(changes: dict, limit: int = 10) -> str:
     def util(x: float | None) -> str:
         return "-" if x is None else f"{x:.3f}"
 
-    for key, label in (("new_failures", "new failure"), ("new_not_checked", "not checked"),
+    for key, label in (("new_failures", "new failure"), ("new_skipped", "skipped now"),
+                       ("new_not_checked", "not checked"),
                        ("fixed", "fixed"), ("utilization_changes", "changed"),
                        ("added", "added"), ("removed", "removed")):
         entries = changes[key]

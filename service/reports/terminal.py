@@ -9,7 +9,12 @@ from __future__ import annotations
 
 from collections import Counter
 
-from stanchion.service.reports.baseline import format_changes, regressions
+from stanchion.service.reports.baseline import (
+    failed_then_skipped,
+    format_changes,
+    regressions,
+    skipped_warnings,
+)
 from stanchion.service.reports.report import format_summary
 
 ALL_STOREYS = 12  # up to this many storeys are all listed, in model order
@@ -92,7 +97,9 @@ def verdict(report: dict, fail_on: str = "any", allow_not_checked: bool = False)
         return f"result: FAIL ({nothing_checked_line(report)})"
     if fail_on == "new-failures" and "changes" in report:
         n = regressions(report["changes"], allow_not_checked)
-        return (f"result: FAIL ({n} regressions against the baseline)" if n
+        vanished = len(failed_then_skipped(report["changes"]))
+        aside = f", {vanished} of them failing before and skipped now" if vanished else ""
+        return (f"result: FAIL ({n} regressions against the baseline{aside})" if n
                 else "result: PASS (no regressions against the baseline)")
     nc = 0 if allow_not_checked else s["not_checked"]
     skipped = s.get("skipped", 0)
@@ -127,11 +134,21 @@ def format_run(report: dict, fail_on: str = "any", allow_not_checked: bool = Fal
 
 
 def warnings(report: dict, allow_not_checked: bool = False) -> list[str]:
-    """Warnings for stderr: not-checked members when they are allowed (with reason counts)."""
+    """Warnings for stderr.
+
+    Members skipped now that were checked in the baseline (``changes.new_skipped``, with
+    their reason), then not-checked members when they are allowed (with reason counts).
+    """
+    lines: list[str] = []
+    if report.get("changes"):
+        why = {m["id"]: m.get("reason", "") for m in report["members"]
+               if m["status"] == "skipped"}
+        lines = skipped_warnings(report["changes"], why)
     if not allow_not_checked or not report["summary"]["not_checked"]:
-        return []
+        return lines
     reasons = Counter(m.get("reason") or "no reason given" for m in report["members"]
                       if m["status"] == "not_checked")
     top = "; ".join(f"{n} x {r}" for r, n in reasons.most_common(3))
     more = f"; {len(reasons) - 3} other reasons" if len(reasons) > 3 else ""
-    return [f"{report['summary']['not_checked']} members not checked (allowed): {top}{more}"]
+    return [*lines,
+            f"{report['summary']['not_checked']} members not checked (allowed): {top}{more}"]

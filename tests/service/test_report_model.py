@@ -43,7 +43,7 @@ from tests.service.checking import check_file as check_model
 from tests.service.test_model_check_files import write_model
 
 ROOT = Path(__file__).resolve().parents[2]
-CHANGE_KINDS = ("new_failures", "fixed", "new_not_checked", "added", "removed",
+CHANGE_KINDS = ("new_failures", "fixed", "new_not_checked", "new_skipped", "added", "removed",
                 "utilization_changes")
 
 
@@ -132,7 +132,8 @@ def test_members_file_report_with_detail_suggestions_and_changes(tmp_path: Path)
     assert report["source"] == {"file": "now.json", "members": 4}
     assert _ids(report["changes"]) == {
         "new_failures": {"C-2"}, "fixed": {"C-5"}, "new_not_checked": {"C-4"},
-        "added": {"C-4"}, "removed": {"C-3"}, "utilization_changes": {"C-2", "C-5"}}
+        "new_skipped": set(), "added": {"C-4"}, "removed": {"C-3"},
+        "utilization_changes": {"C-2", "C-5"}}
     assert "design_basis_before" in report["changes"]  # ASCE 7-22 -> custom combinations
     _validate(report)
     _validate(json.loads(old.read_text(encoding="utf-8")))

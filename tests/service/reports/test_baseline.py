@@ -12,7 +12,13 @@ import re
 import pytest
 
 from stanchion.service.errors import InputError
-from stanchion.service.reports.baseline import compare, format_changes, load_baseline, regressions
+from stanchion.service.reports.baseline import (
+    compare,
+    format_changes,
+    load_baseline,
+    regressions,
+    skipped_warnings,
+)
 
 
 def _report(*members: tuple[str, str, float | None], basis: str = "basis A") -> dict:
@@ -120,16 +126,61 @@ def test_repeated_ids_are_refused_not_matched(side: str) -> None:
     assert "\n" not in str(exc.value)
 
 
-def test_skipped_members_are_never_regressions(tmp_path) -> None:
-    # A member skipped now (not steel) that failed, passed or was absent before: no new
-    # failure, not newly not checked, not fixed (docs/design.md §3).
-    old = _report(("A", "fail", 1.20), ("B", "pass", 0.50), ("C", "skipped", None))
+def test_skipped_now_is_listed_and_a_former_failure_is_a_regression(tmp_path) -> None:
+    # Review gap: a member skipped now (its material renamed from steel to concrete) was in
+    # no list, so --fail-on new-failures let a failing member vanish.  Now every member that
+    # had a status other than skipped before is in new_skipped; one that failed before is a
+    # regression whatever allow_not_checked, the others are not (docs/design.md §3, §4).
+    old = _report(("A", "fail", 1.20), ("B", "pass", 0.50), ("C", "skipped", None),
+                  ("E", "not_checked", None))
     new = _report(("A", "skipped", None), ("B", "skipped", None), ("C", "skipped", None),
-                  ("D", "skipped", None))
+                  ("D", "skipped", None), ("E", "skipped", None))
     ch = compare(old, new)
     assert ch["new_failures"] == ch["new_not_checked"] == ch["fixed"] == []
+    assert _ids(ch["new_skipped"]) == ["A", "B", "E"]  # C was skipped, D is only added
+    assert ch["counts"]["new_skipped"] == 3
+    a = ch["new_skipped"][0]
+    assert (a["status_before"], a["status_after"], a["utilization_before"]) == (
+        "fail", "skipped", 1.20)
     assert _ids(ch["added"]) == ["D"]
-    assert regressions(ch) == 0
+    assert regressions(ch) == regressions(ch, allow_not_checked=True) == 1  # A only
     path = tmp_path / "old.json"
     path.write_text(json.dumps(old))
     assert [m["status"] for m in load_baseline(path)["members"]][2] == "skipped"
+
+
+def test_skipped_on_both_sides_or_only_now_added_is_no_regression() -> None:
+    old = _report(("A", "pass", 0.50), ("C", "skipped", None))
+    new = _report(("A", "pass", 0.50), ("C", "skipped", None), ("D", "skipped", None))
+    ch = compare(old, new)
+    assert ch["new_skipped"] == [] and regressions(ch) == 0
+
+
+def test_removed_members_are_listed_not_regressions() -> None:
+    # A member deleted from the model (failing or not) cannot fail any more: it is listed
+    # in removed with its baseline status, never counted as a regression; an element whose
+    # id changed is removed and added, and the added one fails as a new failure.
+    old = _report(("A", "fail", 1.20), ("B", "pass", 0.50))
+    ch = compare(old, _report(("B", "pass", 0.50), ("A2", "fail", 1.20)))
+    assert _ids(ch["removed"]) == ["A"] and ch["removed"][0]["status_before"] == "fail"
+    assert ch["removed"][0]["status_after"] is None and ch["new_skipped"] == []
+    assert _ids(ch["new_failures"]) == ["A2"] and regressions(ch) == 1
+    assert regressions(compare(old, _report(("B", "pass", 0.50)))) == 0
+
+
+def test_format_changes_and_warnings_name_the_skipped_members() -> None:
+    old = _report(("A", "fail", 1.20), ("B", "pass", 0.50))
+    ch = compare(old, _report(("A", "skipped", None), ("B", "skipped", None)),
+                 baseline_name="old.json")
+    text = format_changes(ch)
+    assert "2 newly skipped" in text
+    assert re.search(r"skipped now\s+name-A\s+A\s+1\.200 -> -\s+fail -> skipped", text)
+    lines = skipped_warnings(ch, {"A": "not steel: concrete", "B": "not steel: timber"})
+    assert lines == [
+        "member name-A (A) failed in the baseline (utilization 1.200) and is skipped now "
+        "(not steel: concrete); a regression against the baseline",
+        "member name-B (B) passed in the baseline and is skipped now (not steel: timber); "
+        "no longer checked"]
+    many = compare(_report(*[(f"M{i}", "pass", 0.5) for i in range(12)]),
+                   _report(*[(f"M{i}", "skipped", None) for i in range(12)]))
+    assert skipped_warnings(many, {})[-1].startswith("... and 2 more members skipped now")
