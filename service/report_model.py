@@ -323,6 +323,20 @@ class Report(_Contract):
 # ------------------------------------------------------------------------------ HTTP bodies
 
 
+class JobOptions(_Contract):
+    """The options a model job was started with (the fields of POST /v1/models)."""
+
+    force_unit: str | None = Field(description="the force_unit field as given (stripped); "
+                                   "null when not given")
+    default_grade: str | None = Field(description="the default_grade field as given "
+                                      "(stripped); null when not given")
+    analysis_members: bool = Field(description="the analysis_members field")
+    loads: str | None = Field(description="the uploaded load table's file name; null "
+                              "without one")
+    takedown: str | None = Field(description="the uploaded takedown project file's name; "
+                                 "null without one")
+
+
 class JobStatus(_Contract):
     """A model job, as GET /v1/jobs/{id} shows it."""
 
@@ -337,6 +351,9 @@ class JobStatus(_Contract):
     loads: bool = Field(description="a CSV load table was uploaded with the model")
     summary: Summary | None = Field(description="the report's summary once done; null before "
                                     "and on failure")
+    options: JobOptions | None = Field(description="the options the job was started with "
+                                       "(design_method above); null for a job recorded by "
+                                       "a server that did not store them")
 
 
 class JobAccepted(_Contract):

@@ -2,7 +2,7 @@
 
 Layout of ``STANCHION_DATA_DIR``::
 
-    jobs.sqlite3            one row per job (status, times, error, summary)
+    jobs.sqlite3            one row per job (status, times, error, summary, options)
     server.lock             held by the one server using this folder
     jobs/<id>/              job.json (parameters), the upload, and the worker's outputs
     jobs/<id>.part/         an upload still being received (never a job yet)
@@ -64,14 +64,31 @@ CREATE TABLE IF NOT EXISTS jobs (
     filename TEXT NOT NULL,
     design_method TEXT NOT NULL,
     has_loads INTEGER NOT NULL DEFAULT 0,
-    summary TEXT
+    summary TEXT,
+    options TEXT
 );
 CREATE INDEX IF NOT EXISTS jobs_status_created ON jobs (status, created);
 """
 
+#: Columns added after the first release, with their SQL type: a table created before gets
+#: them on start (``ALTER TABLE``), its earlier rows hold NULL there.
+_ADDED_COLUMNS = {"options": "TEXT"}
+
 
 def _now() -> str:
     return datetime.now(UTC).isoformat(timespec="milliseconds").replace("+00:00", "Z")
+
+
+def _add_columns(con: sqlite3.Connection) -> None:
+    """Give a job table created by an earlier version the columns added since (NULL)."""
+    have = {str(r["name"]) for r in con.execute("PRAGMA table_info(jobs)").fetchall()}
+    for name, kind in _ADDED_COLUMNS.items():
+        if name not in have:
+            try:
+                con.execute(f"ALTER TABLE jobs ADD COLUMN {name} {kind}")
+            except sqlite3.OperationalError as exc:  # another store added it meanwhile
+                if "duplicate column" not in str(exc):
+                    raise
 
 
 def valid_job_id(job_id: str) -> bool:
@@ -93,6 +110,7 @@ class Job:
     design_method: str
     has_loads: bool
     summary: dict | None
+    options: dict | None = None
 
     @classmethod
     def _from_row(cls, row: sqlite3.Row) -> Job:
@@ -101,6 +119,7 @@ class Job:
             started=row["started"], finished=row["finished"], filename=row["filename"],
             design_method=row["design_method"], has_loads=bool(row["has_loads"]),
             summary=json.loads(row["summary"]) if row["summary"] else None,
+            options=json.loads(row["options"]) if row["options"] else None,
         )
 
     def public(self) -> dict:
@@ -109,7 +128,7 @@ class Job:
             "job_id": self.id, "status": self.status, "error": self.error,
             "created": self.created, "started": self.started, "finished": self.finished,
             "filename": self.filename, "design_method": self.design_method,
-            "loads": self.has_loads, "summary": self.summary,
+            "loads": self.has_loads, "summary": self.summary, "options": self.options,
         }
 
 
@@ -124,6 +143,7 @@ class JobStore:
         with self._connect() as con:
             con.execute("PRAGMA journal_mode=WAL")
             con.executescript(_SCHEMA)
+            _add_columns(con)
 
     def _connect(self) -> sqlite3.Connection:
         con = sqlite3.connect(self.db_path, timeout=30, isolation_level=None)
@@ -157,12 +177,22 @@ class JobStore:
         """Where an upload is received before it becomes a job."""
         return self.jobs_dir / f"{job_id}.part"
 
-    def add(self, job_id: str, *, filename: str, design_method: str, has_loads: bool) -> Job:
-        """Record a queued job whose folder (``job_dir(job_id)``) is complete."""
+    def add(self, job_id: str, *, filename: str, design_method: str, has_loads: bool,
+            options: dict | None = None) -> Job:
+        """Record a queued job whose folder (``job_dir(job_id)``) is complete.
+
+        Args:
+            job_id: the job's id.
+            filename: the uploaded model's file name.
+            design_method: LRFD or ASD.
+            has_loads: a load table came with the model.
+            options: the options the job was started with (``GET /v1/jobs/{id}``).
+        """
         self._exec(
-            "INSERT INTO jobs (id, status, created, filename, design_method, has_loads) "
-            "VALUES (?, 'queued', ?, ?, ?, ?)",
-            (job_id, _now(), filename, design_method, int(has_loads)),
+            "INSERT INTO jobs (id, status, created, filename, design_method, has_loads, "
+            "options) VALUES (?, 'queued', ?, ?, ?, ?, ?)",
+            (job_id, _now(), filename, design_method, int(has_loads),
+             json.dumps(options) if options is not None else None),
         )
         job = self.get(job_id)
         assert job is not None

@@ -99,11 +99,22 @@ async def _receive_model(request: Request, settings: Settings, store: JobStore,
         shutil.rmtree(incoming, ignore_errors=True)
         raise
     store.add(job_id, filename=params["filename"], design_method=params["design_method"],
-              has_loads=params["loads"] is not None)
+              has_loads=params["loads"] is not None, options=job_options(params))
     runner.wake()
     url = f"/v1/jobs/{job_id}"
     return JSONResponse({"job_id": job_id, "status": "queued", "url": url},
                         status_code=202, headers={"Location": url})
+
+
+def job_options(params: dict[str, Any]) -> dict[str, Any]:
+    """The options a job was started with, as ``GET /v1/jobs/{id}`` shows them (``JobOptions``).
+
+    Args:
+        params: the job's ``job.json`` (:func:`_job_params`).
+    """
+    return {"force_unit": params["force_unit"], "default_grade": params["default_grade"],
+            "analysis_members": params["analysis_members"],
+            "loads": params["loads_filename"], "takedown": params["takedown_filename"]}
 
 
 _TRUE, _FALSE = ("true", "1", "yes", "on"), ("false", "0", "no", "off", "")

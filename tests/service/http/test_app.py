@@ -20,6 +20,7 @@ from stanchion.service.http.routes import checks as checks_route
 from stanchion.service.http.settings import Settings
 from stanchion.service.members_check import check_request
 from stanchion.service.request import MembersRequest
+from tests.service.test_takedown_loads import PROJECT
 
 STUB = [sys.executable, str(Path(__file__).parents[1] / "jobs" / "stub_worker.py")]
 TOKEN = "s3cret-token"
@@ -174,6 +175,22 @@ def test_upload_job_and_downloads(client: TestClient) -> None:
     csv = client.get(f"/v1/jobs/{job_id}/csv")
     assert csv.status_code == 200 and csv.text.startswith("id,status")
     assert csv.headers["content-type"].startswith("text/csv")
+
+
+def test_the_job_status_shows_the_options_it_was_started_with(client: TestClient) -> None:
+    job_id = client.post(
+        "/v1/models", files={"file": ("tower.ifc", b"fine model"),
+                             "loads": ("my loads.csv", b"element,D\nC1,10\n"),
+                             "takedown": ("slabs.toml", PROJECT.encode())},
+        data={"force_unit": " kN ", "default_grade": "A992", "analysis_members": "yes"},
+    ).json()["job_id"]
+    options = {"force_unit": "kN", "default_grade": "A992", "analysis_members": True,
+               "loads": "my loads.csv", "takedown": "slabs.toml"}
+    assert client.get(f"/v1/jobs/{job_id}").json()["options"] == options  # while queued
+    assert _wait(client, job_id)["options"] == options
+    plain = _wait(client, _upload(client))
+    assert plain["options"] == {"force_unit": None, "default_grade": None,
+                                "analysis_members": False, "loads": None, "takedown": None}
 
 
 def test_results_are_409_until_ready(client: TestClient) -> None:

@@ -61,6 +61,10 @@ def test_success_bodies_are_the_models(schema: dict) -> None:
         "#/components/schemas/JobAccepted"
     assert _ref(paths["/v1/jobs/{job_id}"]["get"]["responses"]["200"]) == \
         "#/components/schemas/JobStatus"
+    status = schema["components"]["schemas"]["JobStatus"]["properties"]
+    assert "options" in status  # the options a job was started with (docs/design.md §6)
+    assert set(schema["components"]["schemas"]["JobOptions"]["properties"]) == {
+        "force_unit", "default_grade", "analysis_members", "loads", "takedown"}
     assert _ref(paths["/v1/sections"]["get"]["responses"]["200"]) == \
         "#/components/schemas/SectionList"
     assert "HTTPValidationError" not in schema["components"]["schemas"]
