@@ -3,7 +3,8 @@
 A model with one column and one vertical analysis member tied to no column: without the
 option only the column is checked; with it both, the report's ``source.analysis_members``
 says so and the run message names the option.  A members file refuses the option (exit 2,
-one line); the HTTP job form takes ``analysis_members`` (true / false; anything else 422).
+one line).  The HTTP job form's ``analysis_members``:
+tests/service/http/test_analysis_members_job.py.
 """
 
 from __future__ import annotations
@@ -11,13 +12,9 @@ from __future__ import annotations
 import json
 
 import pytest
-from fastapi.testclient import TestClient
 
 from stanchion.service.cli import main
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
 from tests.ifc_bridge.test_read_analysis_model import W14X90, _member
-from tests.service.http.test_app import _wait
 from tests.service.test_model_check_files import builder_module
 
 
@@ -51,25 +48,3 @@ def test_a_members_file_refuses_it(tmp_path, capsys) -> None:
     assert err.endswith("--analysis-members applies to IFC models; a members file carries "
                         "its own loads, units, grades and candidates")
     assert "\n" not in err
-
-
-@pytest.fixture
-def client(tmp_path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
-
-
-def test_the_job_field(client, tmp_path) -> None:
-    model = _model(tmp_path).read_bytes()
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model)},
-                    data={"analysis_members": "true"})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
-    report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
-    assert report["source"]["analysis_members"] is True
-    assert [m["name"] for m in report["members"]] == ["C1", "free"]
-    bad = client.post("/v1/models", files={"file": ("frame.ifc", model)},
-                      data={"analysis_members": "maybe"})
-    assert bad.status_code == 422
-    assert "analysis_members" in bad.text and "expected true or false" in bad.text

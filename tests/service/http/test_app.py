@@ -8,7 +8,6 @@ limits, the catch-all 500 handler, OpenAPI and docs.
 from __future__ import annotations
 
 import sys
-import time
 from pathlib import Path
 
 import pytest
@@ -20,6 +19,7 @@ from stanchion.service.http.routes import checks as checks_route
 from stanchion.service.http.settings import Settings
 from stanchion.service.members_check import check_request
 from stanchion.service.request import MembersRequest
+from tests.service.http.jobs import wait_for_job as _wait
 from tests.service.test_takedown_loads import PROJECT
 
 STUB = [sys.executable, str(Path(__file__).parents[1] / "jobs" / "stub_worker.py")]
@@ -52,16 +52,6 @@ def _upload(c: TestClient, content: bytes = b"fine model", name: str = "tower.if
     assert r.status_code == 202, r.text
     assert r.headers["location"] == f"/v1/jobs/{r.json()['job_id']}"
     return r.json()["job_id"]
-
-
-def _wait(c: TestClient, job_id: str, timeout: float = 20.0, **kw) -> dict:
-    end = time.monotonic() + timeout
-    while time.monotonic() < end:
-        job = c.get(f"/v1/jobs/{job_id}", **kw).json()
-        if job["status"] in ("done", "failed"):
-            return job
-        time.sleep(0.05)
-    raise AssertionError(f"job {job_id} not finished after {timeout} s")
 
 
 # ----------------------------------------------------------------------------- health, checks

@@ -6,32 +6,17 @@ a real worker process (the default worker command, the real pipeline).
 
 from __future__ import annotations
 
-from pathlib import Path
-
-import pytest
 from fastapi.testclient import TestClient
 
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
 from tests.service.cli.test_default_grade import _model
-from tests.service.http.test_app import _wait
-
-
-@pytest.fixture
-def client(tmp_path: Path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
+from tests.service.http.jobs import job_report, run_job
 
 
 def test_the_default_grade_is_applied_and_stated(client: TestClient, tmp_path) -> None:
     model = _model(tmp_path).read_bytes()
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model)},
-                    data={"default_grade": "A992"})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, model, data={"default_grade": "A992"})
     assert job["status"] == "done", job
-    report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
+    report = job_report(client, job)
     c1 = next(m for m in report["members"] if m["name"] == "C1")
     assert c1["fy_source"] == "default_grade"
     # over HTTP the grade came from the job's field: the outputs name it, not the option

@@ -13,10 +13,8 @@ from pathlib import Path
 import pytest
 from fastapi.testclient import TestClient
 
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
 from tests.service.cli.test_force_unit import N_PER_KIP
-from tests.service.http.test_app import _wait
+from tests.service.http.jobs import job_report, run_job
 from tests.service.test_model_check_files import write_model
 
 
@@ -28,20 +26,10 @@ def model(tmp_path: Path) -> bytes:
     return path.read_bytes()
 
 
-@pytest.fixture
-def client(tmp_path: Path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
-
-
 def test_the_given_force_unit_reads_the_models_forces(client: TestClient, model) -> None:
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model)},
-                    data={"force_unit": "kN"})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, model, data={"force_unit": "kN"})
     assert job["status"] == "done", job
-    report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
+    report = job_report(client, job)
     # 1.4D = 1.4 x 100 kN / 4.4482216 kN per kip = 31.47 kip (ASCE 7-22 §2.3.1 comb. 1);
     # φcPn = 303 kip (W14X48, Fy 50 ksi, Lc 16 ft: AISC Manual Table 4-1a, read-off)
     assert [m["utilization"] for m in report["members"]] == pytest.approx([31.47 / 303] * 2,
@@ -57,8 +45,7 @@ def test_the_given_force_unit_reads_the_models_forces(client: TestClient, model)
 
 
 def test_without_it_the_job_fails_naming_the_fix(client: TestClient, model) -> None:
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model)})
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, model)
     assert job["status"] == "failed", job
     assert "model declares no force unit but carries forces" in job["error"]
     assert "force_unit" in job["error"] and "\n" not in job["error"]

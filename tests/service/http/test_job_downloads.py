@@ -6,23 +6,12 @@ The job runs in a real worker process (the default worker command, the real pipe
 from __future__ import annotations
 
 import xml.etree.ElementTree as ET
-from pathlib import Path
 
-import pytest
 from bcf.v3.bcfxml import BcfXml
 from fastapi.testclient import TestClient
 
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
-from tests.service.http.test_app import _wait
+from tests.service.http.jobs import run_job
 from tests.service.test_model_check_files import column_guids, write_model
-
-
-@pytest.fixture
-def client(tmp_path: Path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
 
 
 def test_a_done_job_gives_its_junit_and_bcf(client: TestClient, tmp_path) -> None:
@@ -32,9 +21,7 @@ def test_a_done_job_gives_its_junit_and_bcf(client: TestClient, tmp_path) -> Non
     import ifcopenshell
 
     guids = column_guids(ifcopenshell.open(str(model)))
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model.read_bytes())})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, model.read_bytes())
     assert job["status"] == "done", job
     base = f"/v1/jobs/{job['job_id']}"
 

@@ -7,21 +7,11 @@ from __future__ import annotations
 
 from pathlib import Path
 
-import pytest
 from fastapi.testclient import TestClient
 
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
-from tests.service.http.test_app import _wait
+from tests.service.http.jobs import run_job
 from tests.service.reports.html_page import parse
 from tests.service.test_model_check_files import column_guids, write_model
-
-
-@pytest.fixture
-def client(tmp_path: Path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
 
 
 def test_a_done_job_gives_its_html_report(client: TestClient, tmp_path: Path) -> None:
@@ -31,9 +21,7 @@ def test_a_done_job_gives_its_html_report(client: TestClient, tmp_path: Path) ->
 
     model = write_model(tmp_path / "frame.ifc")
     guids = column_guids(ifcopenshell.open(str(model)))
-    r = client.post("/v1/models", files={"file": ("frame.ifc", model.read_bytes())})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, model.read_bytes())
     assert job["status"] == "done", job
     page = client.get(f"/v1/jobs/{job['job_id']}/html")
     assert page.status_code == 200

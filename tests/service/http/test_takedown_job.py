@@ -10,20 +10,10 @@ from __future__ import annotations
 from pathlib import Path
 
 import pytest
-from fastapi.testclient import TestClient
 
-from stanchion.service.http.app import create_app
-from stanchion.service.http.settings import Settings
 from tests.service import takedown_model as tm
-from tests.service.http.test_app import _wait
+from tests.service.http.jobs import job_report, run_job
 from tests.service.test_takedown_loads import PROJECT, hand
-
-
-@pytest.fixture
-def client(tmp_path: Path):
-    with TestClient(create_app(Settings(data_dir=tmp_path / "data")),
-                    raise_server_exceptions=False) as c:
-        yield c
 
 
 def _model(tmp_path: Path) -> bytes:
@@ -32,12 +22,10 @@ def _model(tmp_path: Path) -> bytes:
 
 
 def test_a_job_with_a_takedown_project_checks_every_column(client, tmp_path):
-    r = client.post("/v1/models", files={"file": ("grid.ifc", _model(tmp_path)),
-                                         "takedown": ("my loads.toml", PROJECT.encode())})
-    assert r.status_code == 202, r.text
-    job = _wait(client, r.json()["job_id"], timeout=60.0)
+    job = run_job(client, _model(tmp_path), "grid.ifc",
+                  files={"takedown": ("my loads.toml", PROJECT.encode())})
     assert job["status"] == "done", job
-    report = client.get(f"/v1/jobs/{job['job_id']}/report").json()
+    report = job_report(client, job)
     assert report["source"]["takedown"] == "my loads.toml"
     assert {m["load_source"] for m in report["members"]} == {"takedown"}
     assert {m["status"] for m in report["members"]} == {"pass"}
