@@ -167,7 +167,7 @@ def test_exit_code_rule(fail_on, changes, allow) -> None:
         r: dict = {"summary": {"members": passed + not_checked, "pass": passed, "fail": 0,
                                "not_checked": not_checked}}
         if changes is not None:
-            r["changes"] = {"new_failures": [], "new_not_checked": []}
+            r["changes"] = {"new_failures": [], "new_not_checked": [], "new_skipped": []}
         return r
     assert exit_code(report(0, 2), allow, fail_on) == 1
     assert exit_code(report(0, 0), allow, fail_on) == 1
