@@ -195,6 +195,30 @@ def _open_dims(d: float, bf: float, tw: float, tf: float, slope: float, r: float
     return {"d": d, "bf": bf, "tw": tw, "tf": tf, "r": r, "k": t_root + r, "slope": slope}
 
 
+def _fit_open(kind: str, p: Polygon, sharp: Polygon, fillets: int,
+              measured: tuple[float, float, float, float, float, float]) -> Fit | None:
+    """The fit of an I, U or T to its sharp-cornered template with ``fillets`` root fillets.
+
+    Args:
+        kind: "I", "U" or "T".
+        p: the outline.
+        sharp: the template without fillets.
+        fillets: how many root fillets the shape has.
+        measured: (d, bf, tw, tf, slope, flange thickness at the web) read off ``p``.
+
+    Returns:
+        The fit; None when the template is not a valid polygon or the closed template
+        misses ``p`` by more than :data:`FIT_TOL`.
+    """
+    if not sharp.is_valid:
+        return None
+    d, bf, tw, tf, slope, t_root = measured
+    r = _fillet_radius(p.area, sharp, fillets)
+    dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
+    fit = Fit(kind, p, dims, _misfit(p, _closing(sharp, r)))
+    return fit if fit.misfit <= FIT_TOL else None
+
+
 def _fit_i(p: Polygon) -> Fit | None:
     """Doubly symmetric I with its depth along y (flanges horizontal)."""
     x0, y0, x1, y1 = p.bounds
@@ -209,13 +233,10 @@ def _fit_i(p: Polygon) -> Fit | None:
         return None
     tf, slope = flange
     half = slope * outstand / 2.0  # thickness change from mid-outstand to root or toe
-    sharp = _i_template(d, bf, tw, tf + half, tf - half)
-    if not sharp.is_valid or tf - half <= 0:
+    if tf - half <= 0:
         return None
-    r = _fillet_radius(p.area, sharp, 4)
-    dims = _open_dims(d, bf, tw, tf, slope, r, tf + half)
-    fit = Fit("I", p, dims, _misfit(p, _closing(sharp, r)))
-    return fit if fit.misfit <= FIT_TOL else None
+    sharp = _i_template(d, bf, tw, tf + half, tf - half)
+    return _fit_open("I", p, sharp, 4, (d, bf, tw, tf, slope, tf + half))
 
 
 def _fit_channel(p: Polygon) -> Fit | None:
@@ -238,12 +259,7 @@ def _fit_channel(p: Polygon) -> Fit | None:
     a, b = d / 2.0 - t_root, d / 2.0 - t_toe
     sharp = Polygon([(x1, b), (x1, d / 2), (x0, d / 2), (x0, -d / 2), (x1, -d / 2), (x1, -b),
                      (x0 + tw, -a), (x0 + tw, a)])
-    if not sharp.is_valid:
-        return None
-    r = _fillet_radius(p.area, sharp, 2)
-    dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
-    fit = Fit("U", p, dims, _misfit(p, _closing(sharp, r)))
-    return fit if fit.misfit <= FIT_TOL else None
+    return _fit_open("U", p, sharp, 2, (d, bf, tw, tf, slope, t_root))
 
 
 def _fit_tee(p: Polygon) -> Fit | None:
@@ -268,12 +284,7 @@ def _fit_tee(p: Polygon) -> Fit | None:
         return None
     sharp = Polygon([(x1, y1 - t_toe), (x1, y1), (x0, y1), (x0, y1 - t_toe),
                      (-tw / 2, y1 - t_root), (-tw / 2, y0), (tw / 2, y0), (tw / 2, y1 - t_root)])
-    if not sharp.is_valid:
-        return None
-    r = _fillet_radius(p.area, sharp, 2)
-    dims = _open_dims(d, bf, tw, tf, slope, r, t_root)
-    fit = Fit("T", p, dims, _misfit(p, _closing(sharp, r)))
-    return fit if fit.misfit <= FIT_TOL else None
+    return _fit_open("T", p, sharp, 2, (d, bf, tw, tf, slope, t_root))
 
 
 def _fit_angle(p: Polygon) -> Fit | None:
