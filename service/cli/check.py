@@ -144,7 +144,8 @@ def add_parser(sub: argparse._SubParsersAction) -> None:
     inp = c.add_argument_group("IFC input")
     inp.add_argument("--loads", metavar="LOADS.csv",
                      help="CSV load table: element,D [kN],L [kN],... (element = GlobalId, "
-                     "Tag or Name)")
+                     "Tag or Name), or a schedule grid,level,D [kN],... ('stanchion "
+                     "loads-template' writes one)")
     inp.add_argument("--takedown", metavar="PROJECT.toml",
                      help="load takedown project file: columns without loads get estimated "
                      "service loads from the slabs of the storeys they carry (tributary "
